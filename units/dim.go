@@ -1,0 +1,176 @@
+// Package units holds physical dimensions, the unit table, the parsing and
+// formatting of unit expressions, and quantities with their arithmetic.
+//
+// A dimension is a vector of exponents over the seven SI base dimensions; a
+// unit is a factor to SI base units, an optional offset (absolute
+// temperatures) or gauge reference (gauge pressures) and a dimension; a
+// quantity is a value in SI base units with its dimension and, for
+// temperatures, whether it is absolute or a difference.
+//
+// The package imports nothing of this project.
+package units
+
+import "strings"
+
+// Base dimension indices into a Dim.
+const (
+	Length = iota
+	Mass
+	Time
+	Current
+	Temperature
+	Amount
+	Luminosity
+)
+
+// baseSymbols are the SI base units in Dim order.
+var baseSymbols = [7]string{"m", "kg", "s", "A", "K", "mol", "cd"}
+
+// Dim is a dimension: the exponents of the seven SI base dimensions in the
+// order m, kg, s, A, K, mol, cd. It is comparable.
+type Dim [7]int8
+
+// None is the dimension of a pure number.
+var None Dim
+
+// Common dimensions used by the engine and the property functions.
+var (
+	DimLength           = Dim{1, 0, 0, 0, 0, 0, 0}
+	DimMass             = Dim{0, 1, 0, 0, 0, 0, 0}
+	DimTime             = Dim{0, 0, 1, 0, 0, 0, 0}
+	DimTemperature      = Dim{0, 0, 0, 0, 1, 0, 0}
+	DimPressure         = Dim{-1, 1, -2, 0, 0, 0, 0}
+	DimEnergy           = Dim{2, 1, -2, 0, 0, 0, 0}
+	DimPower            = Dim{2, 1, -3, 0, 0, 0, 0}
+	DimForce            = Dim{1, 1, -2, 0, 0, 0, 0}
+	DimSpecificEnergy   = Dim{2, 0, -2, 0, 0, 0, 0}
+	DimSpecificEntropy  = Dim{2, 0, -2, 0, -1, 0, 0}
+	DimSpecificVolume   = Dim{3, -1, 0, 0, 0, 0, 0}
+	DimDensity          = Dim{-3, 1, 0, 0, 0, 0, 0}
+	DimMassFlow         = Dim{0, 1, -1, 0, 0, 0, 0}
+	DimVolumeFlow       = Dim{3, 0, -1, 0, 0, 0, 0}
+	DimVelocity         = Dim{1, 0, -1, 0, 0, 0, 0}
+	DimViscosity        = Dim{-1, 1, -1, 0, 0, 0, 0}
+	DimConductivity     = Dim{1, 1, -3, 0, -1, 0, 0}
+	DimSurfaceTension   = Dim{0, 1, -2, 0, 0, 0, 0}
+	DimHeatTransferCoef = Dim{0, 1, -3, 0, -1, 0, 0}
+	DimArea             = Dim{2, 0, 0, 0, 0, 0, 0}
+	DimVolume           = Dim{3, 0, 0, 0, 0, 0, 0}
+)
+
+// dimNames gives a readable name for the dimensions an engineer meets.
+var dimNames = map[Dim]string{
+	None:                    "dimensionless",
+	DimLength:               "length",
+	DimMass:                 "mass",
+	DimTime:                 "time",
+	DimTemperature:          "temperature",
+	DimPressure:             "pressure",
+	DimEnergy:               "energy",
+	DimPower:                "power",
+	DimForce:                "force",
+	DimSpecificEnergy:       "specific enthalpy",
+	DimSpecificEntropy:      "specific entropy",
+	DimSpecificVolume:       "specific volume",
+	DimDensity:              "density",
+	DimMassFlow:             "mass flow",
+	DimVolumeFlow:           "volume flow",
+	DimVelocity:             "velocity",
+	DimViscosity:            "dynamic viscosity",
+	DimConductivity:         "thermal conductivity",
+	DimSurfaceTension:       "surface tension",
+	DimHeatTransferCoef:     "heat transfer coefficient",
+	DimArea:                 "area",
+	DimVolume:               "volume",
+	{0, 0, -1, 0, 0, 0, 0}:  "frequency",
+	{0, 0, 1, 1, 0, 0, 0}:   "electric charge",
+	{0, 0, 0, 1, 0, 0, 0}:   "electric current",
+	{0, 0, 0, 0, 0, 1, 0}:   "amount of substance",
+	{2, 1, -3, -1, 0, 0, 0}: "voltage",
+}
+
+// Mul returns the dimension of a product.
+func (d Dim) Mul(e Dim) Dim {
+	for i := range d {
+		d[i] += e[i]
+	}
+	return d
+}
+
+// Div returns the dimension of a quotient.
+func (d Dim) Div(e Dim) Dim {
+	for i := range d {
+		d[i] -= e[i]
+	}
+	return d
+}
+
+// Pow returns the dimension raised to an integer power.
+func (d Dim) Pow(n int) Dim {
+	for i := range d {
+		d[i] *= int8(n)
+	}
+	return d
+}
+
+// IsNone reports whether d is dimensionless.
+func (d Dim) IsNone() bool { return d == None }
+
+// Name returns a readable name of the dimension, such as "pressure", or its
+// SI base-unit text when it has no common name.
+func (d Dim) Name() string {
+	if n, ok := dimNames[d]; ok {
+		return n
+	}
+	return d.String()
+}
+
+// String returns the canonical SI base-unit text of the dimension, such as
+// "m^2/s^2" or "kg/(m*s^2)"; it parses back to the same dimension. A pure
+// number is "1".
+func (d Dim) String() string {
+	var num, den []string
+	for i, e := range d {
+		switch {
+		case e > 0:
+			num = append(num, powText(baseSymbols[i], int(e)))
+		case e < 0:
+			den = append(den, powText(baseSymbols[i], int(-e)))
+		}
+	}
+	return joinFraction(num, den)
+}
+
+// joinFraction writes numerator and denominator factors as canonical unit text.
+func joinFraction(num, den []string) string {
+	n := strings.Join(num, "*")
+	if n == "" {
+		n = "1"
+	}
+	switch len(den) {
+	case 0:
+		return n
+	case 1:
+		return n + "/" + den[0]
+	}
+	return n + "/(" + strings.Join(den, "*") + ")"
+}
+
+// powText writes sym^n, or sym for n == 1.
+func powText(sym string, n int) string {
+	if n == 1 {
+		return sym
+	}
+	return sym + "^" + itoa(n)
+}
+
+// itoa formats a small integer without importing strconv in hot code.
+func itoa(n int) string {
+	if n < 0 {
+		return "-" + itoa(-n)
+	}
+	if n < 10 {
+		return string(rune('0' + n))
+	}
+	return itoa(n/10) + string(rune('0'+n%10))
+}
