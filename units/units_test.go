@@ -160,7 +160,7 @@ func TestGauge(t *testing.T) {
 
 func TestDimErrorNamesBothSides(t *testing.T) {
 	_, err := Add(q(t, 1, "MPa"), q(t, 1, "kJ/kg"))
-	want := "cannot add pressure (MPa) and specific enthalpy (J/kg)"
+	want := "cannot add pressure (MPa) and specific enthalpy (kJ/kg)"
 	if err == nil || err.Error() != want {
 		t.Errorf("got %v, want %q", err, want)
 	}
