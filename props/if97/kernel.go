@@ -1,0 +1,67 @@
+package if97
+
+import "math"
+
+// This file holds the parts shared by the basic equations of IAPWS R7-97(2012): the weighted
+// term sums that the generated coefficient code returns, and the one Gibbs-energy kernel used by
+// regions 1, 2 (with the metastable-vapour Eq. (18)) and 5. The Helmholtz kernel of region 3 is
+// in region3.go.
+
+//go:generate go run ./gen/r7
+
+// Bits of the want mask of the generated sum functions (r1Sums, r2rSums, ...): each selects one
+// field of termSums.
+const (
+	wantF  uint8 = 1 << iota // f  = Σ n t
+	wantX                    // x  = Σ n I t
+	wantY                    // y  = Σ n J t
+	wantXX                   // xx = Σ n I(I-1) t
+	wantYY                   // yy = Σ n J(J-1) t
+	wantXY                   // xy = Σ n I J t
+
+	wantAll = wantF | wantX | wantY | wantXX | wantYY | wantXY
+)
+
+// termSums holds weighted sums over the terms t_i = x^I_i y^J_i of one coefficient table. With
+// the sum F = Σ n_i t_i, the partial derivatives are ∂F/∂x = x/x_, ∂²F/∂x² = xx/x_², ∂F/∂y =
+// y/y_, ∂²F/∂y² = yy/y_², ∂²F/∂x∂y = xy/(x_ y_), where x_ and y_ are the variable values. This
+// keeps each term product to one evaluation for all derivatives.
+type termSums struct {
+	f, x, y, xx, yy, xy float64
+}
+
+// gibbs holds the dimensionless Gibbs free energy γ = g/(RT) of one region and its partial
+// derivatives with respect to π = p/p* and τ = T*/T, as used in R7-97 Tables 3, 12 and 39.
+type gibbs struct {
+	pi, tau                  float64
+	g, gp, gt, gpp, gtt, gpt float64
+}
+
+// props turns γ and its derivatives into the properties of R7-97 Tables 3, 12 and 39 (the same
+// relations hold for regions 1, 2, 5 and Eq. (18)).
+func (d *gibbs) props(p, T float64, region int) Props {
+	RT := R * T
+	tgt := d.tau * d.gt
+	pgp := d.pi * d.gp
+	a := d.gp - d.tau*d.gpt
+	cp := -R * d.tau * d.tau * d.gtt
+	st := Props{P: p, T: T, Region: region}
+	st.V = RT / p * pgp
+	st.Rho = 1 / st.V
+	st.H = RT * tgt
+	st.U = RT * (tgt - pgp)
+	st.S = R * (tgt - d.g)
+	st.Cp = cp
+	st.Cv = cp + R*a*a/d.gpp
+	st.W = safeSqrt(RT * d.gp * d.gp / (a*a/(d.tau*d.tau*d.gtt) - d.gpp))
+	return st
+}
+
+// safeSqrt is math.Sqrt for x >= 0 and 0 otherwise, so that a property that is not defined
+// by rounding never becomes NaN.
+func safeSqrt(x float64) float64 {
+	if x > 0 {
+		return math.Sqrt(x)
+	}
+	return 0
+}

@@ -1,0 +1,142 @@
+package if97
+
+// This file finds the IF97 region of a (p, T) state (IAPWS R7-97(2012) Section 2, Figure 1)
+// and evaluates single-phase states and single properties from (p, T).
+
+// checkPT reports whether (p, T) lies in the range of validity of IAPWS-IF97 (R7-97
+// Section 2): 273.15 K <= T <= 1073.15 K with 0 < p <= 100 MPa, and 1073.15 K < T <= 2273.15 K
+// with 0 < p <= 50 MPa.
+func checkPT(p, T float64) error {
+	if !(T >= TMin) {
+		return below("T", T, TMin, "IAPWS-IF97 starts at 273.15 K")
+	}
+	if !(T <= TMax) {
+		return above("T", T, TMax, "IAPWS-IF97 ends at 2273.15 K")
+	}
+	if !(p > 0) {
+		return below("p", p, 0, "pressure must be positive")
+	}
+	if T > T25 {
+		if !(p <= P5Max) {
+			return above("p", p, P5Max, "above 1073.15 K IAPWS-IF97 (region 5) ends at 50 MPa")
+		}
+	} else if !(p <= PMax) {
+		return above("p", p, PMax, "IAPWS-IF97 ends at 100 MPa")
+	}
+	return nil
+}
+
+// regionPT returns the region (1, 2, 3 or 5) of a valid (p, T). On the saturation line
+// (p = ps(T), T <= 623.15 K) it returns 1, the saturated liquid.
+func regionPT(p, T float64) int {
+	switch {
+	case T <= T13:
+		if p >= psatEq(T) {
+			return 1
+		}
+		return 2
+	case T > T25:
+		return 5
+	case T <= TB23Max && p > PB23(T):
+		return 3
+	}
+	return 2
+}
+
+// phaseOf classifies a single-phase state; ps is used only for T < Tc.
+func phaseOf(p, T float64) Phase {
+	switch {
+	case T < Tc:
+		if T <= T13 || p > Pc || p > psatEq(T) {
+			// Region 1 is liquid by construction; in region 3 compare with ps(T).
+			return Liquid
+		}
+		return Vapour
+	case p > Pc && T > Tc:
+		return Supercritical
+	}
+	return Vapour
+}
+
+// finish sets the phase and quality of a single-phase state.
+func finish(st Props) Props {
+	switch st.Region {
+	case 1:
+		st.Phase = Liquid
+	case 2, 5:
+		st.Phase = Vapour
+		if st.P > Pc && st.T > Tc {
+			st.Phase = Supercritical
+		}
+	default:
+		st.Phase = phaseOf(st.P, st.T)
+	}
+	st.X = 0
+	if st.Phase != Liquid {
+		st.X = 1
+	}
+	return st
+}
+
+// StatePT returns the single-phase state at pressure p (Pa) and temperature T (K); the region
+// (1, 2, 3 or 5) is found from (p, T) as in R7-97 Figure 1. On the saturation line it returns
+// the saturated liquid.
+func StatePT(p, T float64) (Props, error) {
+	if err := checkPT(p, T); err != nil {
+		return Props{}, err
+	}
+	return finish(statePT(regionPT(p, T), p, T)), nil
+}
+
+// statePT evaluates the basic equation of the given region at (p, T).
+func statePT(region int, p, T float64) Props {
+	if region == 3 {
+		a := r3Helm(rho3(p, T), T, wantAll)
+		st := a.props()
+		st.P = p // exact, not the rounded p(ρ, T)
+		return st
+	}
+	d := gibbsAt(region, p, T, wantAll)
+	return d.props(p, T, region)
+}
+
+// HPT returns the specific enthalpy (J/kg) at (p, T), computing only what h needs.
+func HPT(p, T float64) (float64, error) {
+	if err := checkPT(p, T); err != nil {
+		return 0, err
+	}
+	switch r := regionPT(p, T); r {
+	case 1:
+		return h1(p, T), nil
+	case 2:
+		return h2(p, T), nil
+	case 3:
+		a := r3Helm(rho3(p, T), T, wantX|wantY)
+		return a.h(), nil
+	default:
+		return hG(r, p, T), nil
+	}
+}
+
+// SPT returns the specific entropy (J/(kg·K)) at (p, T), computing only what s needs.
+func SPT(p, T float64) (float64, error) {
+	if err := checkPT(p, T); err != nil {
+		return 0, err
+	}
+	if r := regionPT(p, T); r != 3 {
+		return sG(r, p, T), nil
+	}
+	a := r3Helm(rho3(p, T), T, wantF|wantY)
+	return a.s(), nil
+}
+
+// VPT returns the specific volume (m³/kg) at (p, T), computing only what v needs.
+func VPT(p, T float64) (float64, error) {
+	if err := checkPT(p, T); err != nil {
+		return 0, err
+	}
+	if r := regionPT(p, T); r != 3 {
+		return vG(r, p, T), nil
+	}
+	return 1 / rho3(p, T), nil
+}
