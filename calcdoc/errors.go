@@ -1,0 +1,100 @@
+package calcdoc
+
+import (
+	"fmt"
+	"sort"
+	"strings"
+	"unicode/utf8"
+)
+
+// Pos is a position in a calc file: byte offset, 1-based line and 1-based
+// column counted in characters.
+type Pos struct {
+	Off  int
+	Line int
+	Col  int
+}
+
+// Error is a message at a position of a calc file.
+type Error struct {
+	Pos Pos
+	Msg string
+}
+
+// ErrorList gathers every error of a file.
+type ErrorList []*Error
+
+// Sort orders the errors by position.
+func (l ErrorList) Sort() {
+	sort.SliceStable(l, func(i, j int) bool { return l[i].Pos.Off < l[j].Pos.Off })
+}
+
+// Format prints each error as file:line:col: message, then the source line
+// and a caret under the column.
+func (l ErrorList) Format(file string, src []byte) string {
+	var b strings.Builder
+	lines := newLineIndex(src)
+	for _, e := range l {
+		fmt.Fprintf(&b, "%s:%d:%d: %s\n", file, e.Pos.Line, e.Pos.Col, e.Msg)
+		if e.Pos.Line < 1 || e.Pos.Line > lines.count() {
+			continue
+		}
+		text := lines.text(src, e.Pos.Line)
+		if len(text) > 200 || !utf8.ValidString(text) {
+			continue
+		}
+		fmt.Fprintf(&b, "    %s\n    %s^\n", text, caretPad(text, e.Pos.Col))
+	}
+	return b.String()
+}
+
+// caretPad returns the blanks (tabs kept) that put a caret under column col.
+func caretPad(text string, col int) string {
+	var b strings.Builder
+	n := 1
+	for _, r := range text {
+		if n >= col {
+			break
+		}
+		if r == '\t' {
+			b.WriteByte('\t')
+		} else {
+			b.WriteByte(' ')
+		}
+		n++
+	}
+	return b.String()
+}
+
+// lineIndex maps byte offsets to lines and columns.
+type lineIndex struct{ starts []int }
+
+func newLineIndex(src []byte) lineIndex {
+	starts := []int{0}
+	for i, c := range src {
+		if c == '\n' {
+			starts = append(starts, i+1)
+		}
+	}
+	return lineIndex{starts}
+}
+
+func (x lineIndex) count() int { return len(x.starts) }
+
+// pos converts a byte offset to a position.
+func (x lineIndex) pos(src []byte, off int) Pos {
+	off = min(max(off, 0), len(src))
+	i := sort.Search(len(x.starts), func(i int) bool { return x.starts[i] > off }) - 1
+	col := utf8.RuneCount(src[x.starts[i]:off]) + 1
+	return Pos{Off: off, Line: i + 1, Col: col}
+}
+
+// text returns line n (1-based) without its line break.
+func (x lineIndex) text(src []byte, n int) string {
+	start := x.starts[n-1]
+	end := len(src)
+	if n < len(x.starts) {
+		end = x.starts[n] - 1
+	}
+	return strings.TrimRight(string(src[start:end]), "\r")
+}

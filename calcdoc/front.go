@@ -1,0 +1,213 @@
+package calcdoc
+
+import (
+	"bytes"
+	"fmt"
+	"net/mail"
+	"sort"
+	"strings"
+
+	"go.yaml.in/yaml/v3"
+
+	"vouch/units"
+)
+
+// Front is the calc file's front matter.
+type Front struct {
+	Title      string
+	Number     string
+	Project    string
+	Revision   string
+	Digits     int    // significant figures shown (default 4)
+	Atmosphere string // as written; Ctx holds the value
+	People     People
+	Summary    []string
+
+	Ctx units.Context
+}
+
+// People names who prepared, checked and approved the calc.
+type People struct {
+	Preparer Person
+	Checker  Person
+	Approver Person
+}
+
+// Person is a name and an e-mail address, "P. Writer <p@example.com>".
+type Person struct {
+	Name  string
+	Email string
+	Text  string // as written
+}
+
+// frontKeys are the front-matter keys; any other key is an error.
+var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary"}
+
+// peopleKeys are the roles under people.
+var peopleKeys = []string{"preparer", "checker", "approver"}
+
+// DefaultDigits is the number of significant figures shown by default.
+const DefaultDigits = 4
+
+// splitFront finds YAML front matter between --- lines at the start of src.
+// It returns the YAML text, the byte offset where it starts, and the end of
+// the closing --- line (0 when there is no front matter).
+func splitFront(src []byte) (yamlText []byte, start, end int, err *frontErr) {
+	if !bytes.HasPrefix(src, []byte("---\n")) && !bytes.HasPrefix(src, []byte("---\r\n")) {
+		return nil, 0, 0, nil
+	}
+	start = bytes.IndexByte(src, '\n') + 1
+	for i := start; i < len(src); {
+		j := bytes.IndexByte(src[i:], '\n')
+		lineEnd := len(src)
+		if j >= 0 {
+			lineEnd = i + j
+		}
+		line := strings.TrimRight(string(src[i:lineEnd]), "\r")
+		if line == "---" || line == "..." {
+			return src[start:i], start, min(lineEnd+1, len(src)), nil
+		}
+		i = lineEnd + 1
+	}
+	return nil, 0, 0, &frontErr{off: 0, msg: "front matter is not closed: add a line --- after it"}
+}
+
+type frontErr struct {
+	off  int // byte offset, when line is 0
+	line int // 1-based line within the YAML text
+	col  int
+	msg  string
+}
+
+// parseFront decodes and checks the front matter. Errors carry positions
+// relative to the YAML text.
+func parseFront(text []byte) (Front, []*frontErr) {
+	f := Front{Digits: DefaultDigits, Ctx: units.StandardAtmosphere}
+	var root yaml.Node
+	if err := yaml.Unmarshal(text, &root); err != nil {
+		return f, []*frontErr{{line: 1, col: 1, msg: "front matter is not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ")}}
+	}
+	if len(root.Content) == 0 {
+		return f, nil
+	}
+	m := root.Content[0]
+	if m.Kind != yaml.MappingNode {
+		return f, []*frontErr{{line: m.Line, col: m.Column, msg: "front matter must be a list of key: value lines"}}
+	}
+	var errs []*frontErr
+	for i := 0; i+1 < len(m.Content); i += 2 {
+		k, v := m.Content[i], m.Content[i+1]
+		if e := f.set(k, v); e != nil {
+			errs = append(errs, e...)
+		}
+	}
+	return f, errs
+}
+
+func nodeErr(n *yaml.Node, format string, args ...any) []*frontErr {
+	return []*frontErr{{line: n.Line, col: n.Column, msg: fmt.Sprintf(format, args...)}}
+}
+
+// set applies one front-matter key.
+func (f *Front) set(k, v *yaml.Node) []*frontErr {
+	switch k.Value {
+	case "title", "number", "project", "revision":
+		s, e := scalar(k, v)
+		if e != nil {
+			return e
+		}
+		*map[string]*string{"title": &f.Title, "number": &f.Number, "project": &f.Project, "revision": &f.Revision}[k.Value] = s
+	case "digits":
+		return f.setDigits(v)
+	case "atmosphere":
+		return f.setAtmosphere(k, v)
+	case "people":
+		return f.setPeople(v)
+	case "summary":
+		return f.setSummary(v)
+	default:
+		return nodeErr(k, "unknown front-matter key %q; known keys are %s", k.Value, strings.Join(sorted(frontKeys), ", "))
+	}
+	return nil
+}
+
+func sorted(s []string) []string {
+	out := append([]string(nil), s...)
+	sort.Strings(out)
+	return out
+}
+
+func scalar(k, v *yaml.Node) (string, []*frontErr) {
+	if v.Kind != yaml.ScalarNode {
+		return "", nodeErr(v, "%s must be a single value", k.Value)
+	}
+	return v.Value, nil
+}
+
+func (f *Front) setDigits(v *yaml.Node) []*frontErr {
+	var n int
+	if v.Kind != yaml.ScalarNode || v.Decode(&n) != nil || n < 2 || n > 15 {
+		return nodeErr(v, "digits must be a whole number from 2 to 15, not %q", v.Value)
+	}
+	f.Digits = n
+	return nil
+}
+
+func (f *Front) setAtmosphere(k, v *yaml.Node) []*frontErr {
+	s, e := scalar(k, v)
+	if e != nil {
+		return e
+	}
+	num, unit, ok := strings.Cut(strings.TrimSpace(s), " ")
+	var x float64
+	if _, err := fmt.Sscan(num, &x); !ok || err != nil {
+		return nodeErr(v, "atmosphere must be a pressure such as 101.325 kPa, not %q", s)
+	}
+	u, err := units.Parse(strings.TrimSpace(unit))
+	if err != nil || u.Dim != units.DimPressure || u.Kind == units.Gauge || x <= 0 {
+		return nodeErr(v, "atmosphere must be a positive absolute pressure such as 101.325 kPa, not %q", s)
+	}
+	f.Atmosphere = s
+	f.Ctx = units.Context{Atmosphere: u.Q(x, units.Context{}).V}
+	return nil
+}
+
+func (f *Front) setPeople(v *yaml.Node) []*frontErr {
+	if v.Kind != yaml.MappingNode {
+		return nodeErr(v, "people must list preparer, checker and approver")
+	}
+	var errs []*frontErr
+	for i := 0; i+1 < len(v.Content); i += 2 {
+		k, p := v.Content[i], v.Content[i+1]
+		dst := map[string]*Person{"preparer": &f.People.Preparer, "checker": &f.People.Checker, "approver": &f.People.Approver}[k.Value]
+		if dst == nil {
+			errs = append(errs, nodeErr(k, "unknown role %q under people; the roles are %s", k.Value, strings.Join(peopleKeys, ", "))...)
+			continue
+		}
+		s, e := scalar(k, p)
+		if e != nil {
+			errs = append(errs, e...)
+			continue
+		}
+		addr, err := mail.ParseAddress(s)
+		if err != nil {
+			errs = append(errs, nodeErr(p, "%s must be written Name <email>, not %q", k.Value, s)...)
+			continue
+		}
+		*dst = Person{Name: addr.Name, Email: addr.Address, Text: s}
+	}
+	return errs
+}
+
+func (f *Front) setSummary(v *yaml.Node) []*frontErr {
+	if v.Kind != yaml.SequenceNode {
+		return nodeErr(v, "summary must be a list of names, such as [eta_th, W_net]")
+	}
+	for _, n := range v.Content {
+		if n.Kind != yaml.ScalarNode {
+			return nodeErr(n, "summary must be a list of names")
+		}
+		f.Summary = append(f.Summary, n.Value)
+	}
+	return nil
+}

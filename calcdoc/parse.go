@@ -1,0 +1,211 @@
+// Package calcdoc reads a calc file — YAML front matter, Markdown prose,
+// calc blocks and inline values — evaluates it, and renders the package.
+// It is the only importer of goldmark.
+package calcdoc
+
+import (
+	"bytes"
+	"sort"
+	"strings"
+	"unicode/utf8"
+
+	"github.com/yuin/goldmark"
+	gast "github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/extension"
+	"github.com/yuin/goldmark/parser"
+	"github.com/yuin/goldmark/text"
+
+	"vouch/eval"
+)
+
+// MaxFileBytes is the largest calc file read.
+const MaxFileBytes = 8 << 20
+
+// Item is one evaluated element of the calc, in file order: a calc line or
+// an inline value.
+type Item struct {
+	Stmt    *eval.Stmt
+	Inline  bool // an inline `=expr` span
+	Block   int  // index of the calc block (calc lines)
+	Outcome *eval.Outcome
+	Err     bool // the line has an error
+}
+
+// Doc is a read calc file.
+type Doc struct {
+	Path   string
+	Src    []byte
+	Front  Front
+	Items  []*Item
+	Errors ErrorList
+	MD     gast.Node // the Markdown tree, for rendering
+	md     goldmark.Markdown
+	lines  lineIndex
+	body   []byte // Src with the front matter blanked, as goldmark parsed it
+}
+
+// newMarkdown returns the Markdown reader: CommonMark with GitHub tables
+// and strikethrough; raw HTML stays off.
+func newMarkdown() goldmark.Markdown {
+	return goldmark.New(
+		goldmark.WithExtensions(extension.Table, extension.Strikethrough),
+		goldmark.WithParserOptions(parser.WithAutoHeadingID()),
+	)
+}
+
+// Read parses a calc file's bytes. It never fails: problems are gathered in
+// Doc.Errors.
+func Read(path string, src []byte) *Doc {
+	d := &Doc{Path: path, Src: src, lines: newLineIndex(src), md: newMarkdown()}
+	if len(src) > MaxFileBytes {
+		d.errorf(0, "file is %d bytes; a calc file may be at most %d bytes", len(src), MaxFileBytes)
+		return d
+	}
+	if !utf8.Valid(src) {
+		d.errorf(firstInvalid(src), "file is not valid UTF-8 text")
+		return d
+	}
+	d.readFront()
+	d.MD = d.md.Parser().Parse(text.NewReader(d.body))
+	d.collect()
+	return d
+}
+
+func firstInvalid(src []byte) int {
+	for i := 0; i < len(src); {
+		r, w := utf8.DecodeRune(src[i:])
+		if r == utf8.RuneError && w <= 1 {
+			return i
+		}
+		i += w
+	}
+	return 0
+}
+
+func (d *Doc) errorf(off int, format string, args ...any) {
+	d.Errors = append(d.Errors, &Error{Pos: d.lines.pos(d.Src, off), Msg: sprintf(format, args...)})
+}
+
+// readFront parses the front matter and blanks it for goldmark, keeping
+// every byte offset.
+func (d *Doc) readFront() {
+	d.Front = Front{Digits: DefaultDigits}
+	d.Front.Ctx.Atmosphere = 101325
+	yml, start, end, ferr := splitFront(d.Src)
+	d.body = d.Src
+	if ferr != nil {
+		d.errorf(ferr.off, "%s", ferr.msg)
+		return
+	}
+	if end == 0 {
+		return
+	}
+	d.body = append([]byte(nil), d.Src...)
+	for i := 0; i < end; i++ {
+		if d.body[i] != '\n' {
+			d.body[i] = ' '
+		}
+	}
+	f, errs := parseFront(yml)
+	d.Front = f
+	firstLine := d.lines.pos(d.Src, start).Line
+	for _, e := range errs {
+		d.Errors = append(d.Errors, &Error{Pos: Pos{Off: start, Line: firstLine + e.line - 1, Col: e.col}, Msg: e.msg})
+	}
+}
+
+// collect walks the Markdown tree for calc blocks and inline values.
+func (d *Doc) collect() {
+	var blocks []*gast.FencedCodeBlock
+	var spans []*gast.CodeSpan
+	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
+		if !entering {
+			return gast.WalkContinue, nil
+		}
+		switch v := n.(type) {
+		case *gast.FencedCodeBlock:
+			if string(v.Language(d.body)) == "calc" {
+				blocks = append(blocks, v)
+			}
+		case *gast.CodeSpan:
+			spans = append(spans, v)
+		}
+		return gast.WalkContinue, nil
+	})
+	for i, b := range blocks {
+		d.readBlock(i, b)
+	}
+	for _, s := range spans {
+		d.readInline(s)
+	}
+	sortItems(d.Items)
+}
+
+// readBlock parses the lines of one calc fence.
+func (d *Doc) readBlock(index int, b *gast.FencedCodeBlock) {
+	d.checkClosed(b)
+	lines := b.Lines()
+	for i := 0; i < lines.Len(); i++ {
+		seg := lines.At(i)
+		raw := strings.TrimRight(string(seg.Value(d.body)), "\r\n")
+		st, errs := eval.ParseLine(raw, seg.Start, d.lines.pos(d.Src, seg.Start).Line, d.Front.Ctx)
+		d.addEvalErrors(errs)
+		if st != nil {
+			d.Items = append(d.Items, &Item{Stmt: st, Block: index})
+		} else if len(errs) > 0 {
+			d.Items = append(d.Items, &Item{Block: index, Err: true, Stmt: &eval.Stmt{Off: seg.Start}})
+		}
+	}
+}
+
+// checkClosed reports a calc fence that runs to the end of the file: the
+// line after its content must be a closing fence.
+func (d *Doc) checkClosed(b *gast.FencedCodeBlock) {
+	var rest []byte
+	if n := b.Lines().Len(); n > 0 {
+		rest = d.body[b.Lines().At(n-1).Stop:]
+	} else if _, after, ok := bytes.Cut(d.body[b.Info.Segment.Stop:], []byte("\n")); ok {
+		rest = after
+	}
+	line, _, _ := bytes.Cut(rest, []byte("\n"))
+	t := strings.TrimLeft(strings.TrimRight(string(line), "\r"), " >\t")
+	if !strings.HasPrefix(t, "```") && !strings.HasPrefix(t, "~~~") {
+		d.errorf(b.Info.Segment.Start, "calc block is not closed: add a closing fence line")
+	}
+}
+
+// readInline parses an inline `=expr` or `=expr [UNIT]` span.
+func (d *Doc) readInline(s *gast.CodeSpan) {
+	var start, stop int = -1, 0
+	for c := s.FirstChild(); c != nil; c = c.NextSibling() {
+		if t, ok := c.(*gast.Text); ok {
+			if start < 0 {
+				start = t.Segment.Start
+			}
+			stop = t.Segment.Stop
+		}
+	}
+	if start < 0 {
+		return
+	}
+	raw := string(d.body[start:stop])
+	if !strings.HasPrefix(raw, "=") || strings.Contains(raw, "\n") {
+		return
+	}
+	st, errs := eval.ParseInline(raw[1:], start+1, d.lines.pos(d.Src, start).Line, d.Front.Ctx)
+	d.addEvalErrors(errs)
+	if st != nil {
+		d.Items = append(d.Items, &Item{Stmt: st, Inline: true})
+	}
+}
+
+func (d *Doc) addEvalErrors(errs []*eval.Error) {
+	for _, e := range errs {
+		d.errorf(e.Off, "%s", e.Msg)
+	}
+}
+
+// sortItems puts calc lines and inline values in file order.
+func sortItems(items []*Item) {
+	sort.SliceStable(items, func(i, j int) bool { return items[i].Stmt.Off < items[j].Stmt.Off })
+}

@@ -1,0 +1,121 @@
+package calcdoc
+
+import (
+	"fmt"
+	"os"
+
+	"vouch/eval"
+	"vouch/units"
+)
+
+func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }
+
+// ReadFile reads and evaluates a calc file. An unreadable file is an error;
+// everything wrong inside the file is in Doc.Errors.
+func ReadFile(path string) (*Doc, error) {
+	src, err := os.ReadFile(path)
+	if err != nil {
+		return nil, err
+	}
+	d := Read(path, src)
+	d.Evaluate()
+	return d, nil
+}
+
+// Evaluate runs every calc line and inline value in file order, gathering
+// errors; a line that fails does not stop the lines after it.
+func (d *Doc) Evaluate() {
+	eng := eval.NewEngine(d.Front.Ctx)
+	for _, it := range d.Items {
+		if it.Err {
+			continue
+		}
+		out, err := eng.Exec(it.Stmt)
+		if err != nil {
+			it.Err = true
+			d.errorf(err.Off, "%s", err.Msg)
+			continue
+		}
+		it.Outcome = out
+	}
+	d.checkSummary(eng)
+	d.Errors.Sort()
+}
+
+// checkSummary reports summary names that the calc does not define.
+func (d *Doc) checkSummary(eng *eval.Engine) {
+	for _, name := range d.Front.Summary {
+		if _, ok := eng.Value(name); ok || d.failed(name) {
+			continue
+		}
+		msg := "summary names " + name + ", which the calc does not define"
+		if near := units.Nearest(name, eng.Names()); near != "" {
+			msg += "; did you mean " + near + "?"
+		}
+		d.errorf(0, "%s", msg)
+	}
+}
+
+// failed reports whether a definition of name exists but has an error.
+func (d *Doc) failed(name string) bool {
+	for _, it := range d.Items {
+		if it.Err && it.Stmt.Kind == eval.Def && it.Stmt.Name == name {
+			return true
+		}
+	}
+	return false
+}
+
+// Results returns the evaluated definitions that hold a quantity, in file
+// order.
+func (d *Doc) Results() []*Item {
+	var out []*Item
+	for _, it := range d.Items {
+		if it.Outcome == nil || it.Outcome.Skipped || it.Stmt.Kind != eval.Def {
+			continue
+		}
+		if _, ok := it.Outcome.Value.(units.Quantity); ok {
+			out = append(out, it)
+		}
+	}
+	return out
+}
+
+// Checks returns the evaluated checks in file order.
+func (d *Doc) Checks() []*Item {
+	var out []*Item
+	for _, it := range d.Items {
+		if it.Outcome != nil && !it.Outcome.Skipped && it.Stmt.Kind == eval.Check {
+			out = append(out, it)
+		}
+	}
+	return out
+}
+
+// Failed reports whether any check failed.
+func (d *Doc) Failed() bool {
+	for _, c := range d.Checks() {
+		if !c.Outcome.Pass {
+			return true
+		}
+	}
+	return false
+}
+
+// ValueText formats an outcome's value in its display unit with the calc's
+// significant figures.
+func (d *Doc) ValueText(o *eval.Outcome) string {
+	switch v := o.Value.(type) {
+	case units.Quantity:
+		s, err := v.Text(o.Display, d.Front.Digits, d.Front.Ctx)
+		if err != nil {
+			return err.Error()
+		}
+		return s
+	case bool:
+		return fmt.Sprint(v)
+	case string:
+		return fmt.Sprintf("%q", v)
+	}
+	return "(state)"
+}

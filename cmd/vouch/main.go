@@ -1,0 +1,77 @@
+// Command vouch turns Markdown calc files into checked, signed calculation
+// packages. This file wires the subcommands; the work is in calcdoc.
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+)
+
+// Version is the engine version recorded in every package.
+const Version = "0.1.0"
+
+// Exit codes (PRODUCT.md §5).
+const (
+	exitOK     = 0
+	exitErrors = 1 // the calc has errors
+	exitUsage  = 2 // bad usage
+	exitFailed = 3 // a check failed or verification failed
+)
+
+type command struct {
+	name, args, doc string
+	run             func(args []string, stdout, stderr io.Writer) int
+}
+
+var commands []command
+
+func init() {
+	commands = []command{
+		{"run", "[--json] FILE", "evaluate a calc and print its results and checks", cmdRun},
+		{"units", "", "list every unit with its SI factor", cmdUnits},
+		{"functions", "", "list the functions a calc can call", cmdFunctions},
+		{"help", "", "show this help", cmdHelp},
+	}
+}
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+func run(args []string, stdout, stderr io.Writer) int {
+	if len(args) == 0 {
+		usage(stderr)
+		return exitUsage
+	}
+	switch args[0] {
+	case "--version", "-version", "version":
+		fmt.Fprintf(stdout, "vouch %s\n", Version)
+		return exitOK
+	case "-h", "--help":
+		usage(stdout)
+		return exitOK
+	}
+	for _, c := range commands {
+		if c.name == args[0] {
+			return c.run(args[1:], stdout, stderr)
+		}
+	}
+	fmt.Fprintf(stderr, "vouch: unknown command %q\n", args[0])
+	usage(stderr)
+	return exitUsage
+}
+
+func usage(w io.Writer) {
+	fmt.Fprintln(w, "usage: vouch COMMAND [ARGS]\n\ncommands:")
+	for _, c := range commands {
+		fmt.Fprintf(w, "  %-10s %-28s %s\n", c.name, c.args, c.doc)
+	}
+	fmt.Fprintln(w, "  --version                               print the engine version")
+	fmt.Fprintln(w, "\nexit codes: 0 success, 1 the calc has errors, 2 bad usage, 3 a check or verification failed")
+}
+
+func cmdHelp(_ []string, stdout, _ io.Writer) int {
+	usage(stdout)
+	return exitOK
+}

@@ -1,0 +1,173 @@
+package main
+
+import (
+	"encoding/json"
+	"flag"
+	"fmt"
+	"io"
+	"math"
+	"strings"
+	"text/tabwriter"
+
+	"vouch/calcdoc"
+	"vouch/units"
+)
+
+// newFlags returns a flag set that reports to stderr without exiting.
+func newFlags(name string, stderr io.Writer) *flag.FlagSet {
+	fs := flag.NewFlagSet(name, flag.ContinueOnError)
+	fs.SetOutput(stderr)
+	return fs
+}
+
+func cmdRun(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("run", stderr)
+	asJSON := fs.Bool("json", false, "print results as JSON")
+	if err := fs.Parse(args); err != nil {
+		return exitUsage
+	}
+	if fs.NArg() != 1 {
+		fmt.Fprintln(stderr, "usage: vouch run [--json] FILE")
+		return exitUsage
+	}
+	d, err := calcdoc.ReadFile(fs.Arg(0))
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
+	if *asJSON {
+		writeJSON(stdout, d)
+	} else if len(d.Errors) == 0 {
+		writeTable(stdout, d)
+	}
+	if len(d.Errors) > 0 {
+		fmt.Fprint(stderr, d.Errors.Format(d.Path, d.Src))
+		return exitErrors
+	}
+	if d.Failed() {
+		return exitFailed
+	}
+	return exitOK
+}
+
+type jsonResult struct {
+	Name   string  `json:"name"`
+	Line   int     `json:"line"`
+	Value  float64 `json:"value"`
+	Unit   string  `json:"unit"`
+	SI     float64 `json:"si"`
+	SIUnit string  `json:"si_unit"`
+	Text   string  `json:"text"`
+}
+
+type jsonCheck struct {
+	Line        int    `json:"line"`
+	Expr        string `json:"expr"`
+	Pass        bool   `json:"pass"`
+	Description string `json:"description"`
+}
+
+type jsonError struct {
+	Line    int    `json:"line"`
+	Col     int    `json:"col"`
+	Message string `json:"message"`
+}
+
+type jsonRun struct {
+	File    string       `json:"file"`
+	Results []jsonResult `json:"results"`
+	Checks  []jsonCheck  `json:"checks"`
+	Errors  []jsonError  `json:"errors"`
+}
+
+func writeJSON(w io.Writer, d *calcdoc.Doc) {
+	out := jsonRun{File: d.Path, Results: []jsonResult{}, Checks: []jsonCheck{}, Errors: []jsonError{}}
+	for _, it := range d.Results() {
+		q := it.Outcome.Value.(units.Quantity)
+		v, _ := q.In(it.Outcome.Display, d.Front.Ctx)
+		out.Results = append(out.Results, jsonResult{
+			Name: it.Stmt.Name, Line: it.Stmt.Line, Value: v, Unit: unitText(it.Outcome.Display),
+			SI: q.V, SIUnit: units.SIUnitText(q.D), Text: d.ValueText(it.Outcome),
+		})
+	}
+	for _, it := range d.Checks() {
+		out.Checks = append(out.Checks, jsonCheck{Line: it.Stmt.Line, Expr: it.Stmt.Expr, Pass: it.Outcome.Pass, Description: it.Stmt.Desc})
+	}
+	for _, e := range d.Errors {
+		out.Errors = append(out.Errors, jsonError{Line: e.Pos.Line, Col: e.Pos.Col, Message: e.Msg})
+	}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	_ = enc.Encode(out)
+}
+
+// unitText is a unit's text, "" for a pure number.
+func unitText(u units.Unit) string {
+	if s := u.String(); s != "1" {
+		return s
+	}
+	return ""
+}
+
+func writeTable(w io.Writer, d *calcdoc.Doc) {
+	title := d.Front.Title
+	if title == "" {
+		title = d.Path
+	}
+	fmt.Fprintf(w, "%s\n", title)
+	if d.Front.Number != "" || d.Front.Revision != "" {
+		fmt.Fprintf(w, "%s revision %s\n", d.Front.Number, d.Front.Revision)
+	}
+	fmt.Fprintln(w)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "line\tname\tvalue\tdescription")
+	for _, it := range d.Results() {
+		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\n", it.Stmt.Line, it.Stmt.Name, alignValue(d.ValueText(it.Outcome)), it.Stmt.Desc)
+	}
+	tw.Flush()
+	checks := d.Checks()
+	if len(checks) == 0 {
+		return
+	}
+	fmt.Fprintln(w, "\nchecks")
+	tw = tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	failed := 0
+	for _, it := range checks {
+		verdict := "PASS"
+		if !it.Outcome.Pass {
+			verdict, failed = "FAIL", failed+1
+		}
+		fmt.Fprintf(tw, "%s\t%d\t%s\t%s\n", verdict, it.Stmt.Line, it.Stmt.Expr, it.Stmt.Desc)
+	}
+	tw.Flush()
+	fmt.Fprintf(w, "\n%d checks, %d passed, %d failed\n", len(checks), len(checks)-failed, failed)
+}
+
+func alignValue(s string) string { return strings.TrimSpace(s) }
+
+func cmdUnits(_ []string, stdout, _ io.Writer) int {
+	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "symbol\tSI value\tSI unit\tname\tnote")
+	for _, a := range units.Table() {
+		note := ""
+		switch {
+		case a.Kind == units.AbsTemp:
+			note = fmt.Sprintf("absolute alone (0 = %s K); an interval inside a compound unit", trimFloat(a.Offset))
+		case a.Kind == units.Gauge:
+			note = "gauge: adds the calc's atmosphere; alone only"
+		case a.Prefix:
+			note = "takes SI prefixes"
+		}
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\n", a.Symbol, trimFloat(a.Factor), units.SIUnitText(a.Dim), a.Name, note)
+	}
+	tw.Flush()
+	fmt.Fprintf(stdout, "\nSI prefixes: %s\n", strings.Join(units.Prefixes(), " "))
+	return exitOK
+}
+
+func trimFloat(v float64) string {
+	if v == math.Trunc(v) && math.Abs(v) < 1e15 {
+		return fmt.Sprintf("%.0f", v)
+	}
+	return fmt.Sprintf("%.15g", v)
+}

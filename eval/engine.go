@@ -1,0 +1,147 @@
+package eval
+
+import (
+	"errors"
+	"fmt"
+	"sort"
+
+	"vouch/units"
+)
+
+// Error is an evaluation or parse error at a byte offset of the calc file.
+type Error struct {
+	Off int
+	Msg string
+}
+
+func (e *Error) Error() string { return e.Msg }
+
+func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }
+
+func errorf(format string, args ...any) error { return errors.New(sprintf(format, args...)) }
+
+// Outcome is the evaluated result of one statement.
+type Outcome struct {
+	Stmt    *Stmt
+	Value   any        // units.Quantity, bool, string or Record
+	Display units.Unit // the unit the value is shown in (quantities)
+	Pass    bool       // a check's result
+	Skipped bool       // not evaluated because a name it reads failed
+}
+
+// Engine evaluates statements in file order and holds the defined names.
+type Engine struct {
+	Ctx    units.Context
+	vals   map[string]any
+	defs   map[string]*Stmt
+	failed map[string]bool
+}
+
+// NewEngine returns an engine with nothing defined.
+func NewEngine(ctx units.Context) *Engine {
+	return &Engine{Ctx: ctx, vals: map[string]any{}, defs: map[string]*Stmt{}, failed: map[string]bool{}}
+}
+
+// Names returns the defined names, sorted.
+func (e *Engine) Names() []string {
+	out := make([]string, 0, len(e.vals))
+	for n := range e.vals {
+		out = append(out, n)
+	}
+	sort.Strings(out)
+	return out
+}
+
+// Value returns the value of a defined name.
+func (e *Engine) Value(name string) (any, bool) {
+	v, ok := e.vals[name]
+	return v, ok
+}
+
+// Exec evaluates a statement. A definition that fails leaves its name
+// marked failed, so lines that read it are skipped without a second error.
+func (e *Engine) Exec(s *Stmt) (*Outcome, *Error) {
+	if s.Kind == Def {
+		if prev, ok := e.defs[s.Name]; ok {
+			e.failed[s.Name] = true
+			return nil, &Error{Off: s.NameOff, Msg: sprintf("%s is already defined on line %d; a name is defined once", s.Name, prev.Line)}
+		}
+		e.defs[s.Name] = s
+	}
+	out := &Outcome{Stmt: s}
+	for _, d := range s.deps {
+		if e.failed[d] {
+			out.Skipped = true
+			e.markFailed(s)
+			return out, nil
+		}
+	}
+	v, err := (&scope{e: e, s: s}).eval(s.tree)
+	if err != nil {
+		e.markFailed(s)
+		return nil, err
+	}
+	if err := e.finish(out, v); err != nil {
+		e.markFailed(s)
+		return nil, err
+	}
+	return out, nil
+}
+
+func (e *Engine) markFailed(s *Stmt) {
+	if s.Kind == Def {
+		e.failed[s.Name] = true
+	}
+}
+
+// finish checks the value against the statement kind and display unit.
+func (e *Engine) finish(out *Outcome, v any) *Error {
+	s := out.Stmt
+	out.Value = v
+	if s.Kind == Check {
+		b, ok := v.(bool)
+		if !ok {
+			return &Error{Off: s.ExprOff, Msg: sprintf("a check must be true or false, but this is %s", kindOf(v))}
+		}
+		out.Pass = b
+		return nil
+	}
+	q, isQ := v.(units.Quantity)
+	if s.hasUnit && !isQ {
+		return &Error{Off: s.UnitOff, Msg: sprintf("%s is %s, which cannot be shown in %s", s.label(), kindOf(v), s.Unit)}
+	}
+	if isQ {
+		out.Display = e.displayUnit(s, q)
+		if _, err := q.In(out.Display, e.Ctx); err != nil {
+			off := s.ExprOff
+			if s.hasUnit {
+				off = s.UnitOff
+			}
+			return &Error{Off: off, Msg: sprintf("%s: %s", s.label(), err.Error())}
+		}
+	}
+	if s.Kind == Def {
+		e.vals[s.Name] = v
+	}
+	return nil
+}
+
+// displayUnit picks the [UNIT], else the unit of a lone literal, else a
+// sensible SI unit.
+func (e *Engine) displayUnit(s *Stmt, q units.Quantity) units.Unit {
+	if s.hasUnit {
+		return s.display
+	}
+	if l := s.loneLiteral(); l != nil {
+		return l.Unit
+	}
+	return units.DefaultUnit(q)
+}
+
+// label names a statement in messages: its name, or its expression.
+func (s *Stmt) label() string {
+	if s.Kind == Def {
+		return s.Name
+	}
+	return s.Expr
+}

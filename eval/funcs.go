@@ -1,0 +1,198 @@
+package eval
+
+import (
+	"math"
+	"sort"
+
+	"github.com/expr-lang/expr/ast"
+
+	"vouch/units"
+)
+
+// Func is a function a calc can call.
+type Func struct {
+	Name    string
+	Args    string // argument kinds, for listings: "x", "A, B"
+	Doc     string // one line
+	Range   string // validity range, for listings; "" when unrestricted
+	MinArgs int
+	MaxArgs int // -1: any number
+	// Call computes the result; an error is reported at the call.
+	Call func(args []any) (any, error)
+}
+
+// funcs is the function table; property functions are added in props.go.
+var funcs = map[string]*Func{}
+
+func register(f *Func) { funcs[f.Name] = f }
+
+// Funcs returns every function sorted by name, for `vouch functions`.
+func Funcs() []*Func {
+	out := make([]*Func, 0, len(funcs))
+	for _, f := range funcs {
+		out = append(out, f)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].Name < out[j].Name })
+	return out
+}
+
+// LookupFunc returns the function of a name.
+func LookupFunc(name string) (*Func, bool) {
+	f, ok := funcs[name]
+	return f, ok
+}
+
+func init() {
+	for _, m := range []struct {
+		name, doc string
+		f         func(float64) float64
+	}{
+		{"exp", "e raised to x", math.Exp},
+		{"ln", "natural logarithm", math.Log},
+		{"log10", "base-10 logarithm", math.Log10},
+		{"sin", "sine of an angle in radians", math.Sin},
+		{"cos", "cosine of an angle in radians", math.Cos},
+		{"tan", "tangent of an angle in radians", math.Tan},
+		{"asin", "arc sine, in radians", math.Asin},
+		{"acos", "arc cosine, in radians", math.Acos},
+		{"atan", "arc tangent, in radians", math.Atan},
+		{"floor", "largest whole number not above x", math.Floor},
+		{"ceil", "smallest whole number not below x", math.Ceil},
+		{"round", "nearest whole number, halves away from zero", math.Round},
+	} {
+		register(&Func{Name: m.name, Args: "x (dimensionless)", Doc: m.doc, MinArgs: 1, MaxArgs: 1, Call: dimensionless(m.name, m.f)})
+	}
+	register(&Func{Name: "sqrt", Args: "x", Doc: "square root; the dimension's exponents must be even", MinArgs: 1, MaxArgs: 1, Call: callSqrt})
+	register(&Func{Name: "abs", Args: "x", Doc: "absolute value", MinArgs: 1, MaxArgs: 1, Call: callAbs})
+	register(&Func{Name: "min", Args: "x, y, ...", Doc: "smallest of its arguments (same dimension)", MinArgs: 1, MaxArgs: -1, Call: extreme(-1)})
+	register(&Func{Name: "max", Args: "x, y, ...", Doc: "largest of its arguments (same dimension)", MinArgs: 1, MaxArgs: -1, Call: extreme(1)})
+}
+
+func dimensionless(name string, f func(float64) float64) func([]any) (any, error) {
+	return func(args []any) (any, error) {
+		q, err := quantityArg(args, 0)
+		if err != nil {
+			return nil, err
+		}
+		if !q.D.IsNone() {
+			return nil, errorf("%s needs a dimensionless argument, not %s (%s)", name, q.D.Name(), units.DefaultUnit(q))
+		}
+		return units.Num(f(q.V)), nil
+	}
+}
+
+func callSqrt(args []any) (any, error) {
+	q, err := quantityArg(args, 0)
+	if err != nil {
+		return nil, err
+	}
+	var d units.Dim
+	for i, e := range q.D {
+		if e%2 != 0 {
+			return nil, errorf("sqrt of %s (%s) has no unit: its exponents are not all even", q.D.Name(), units.DefaultUnit(q))
+		}
+		d[i] = e / 2
+	}
+	if q.V < 0 {
+		return nil, errorf("sqrt of a negative value")
+	}
+	return units.Quantity{V: math.Sqrt(q.V), D: d, T: scaleIfTemp(d)}, nil
+}
+
+func scaleIfTemp(d units.Dim) units.Temp {
+	if d == units.DimTemperature {
+		return units.Scale
+	}
+	return units.Rel
+}
+
+func callAbs(args []any) (any, error) {
+	q, err := quantityArg(args, 0)
+	if err != nil {
+		return nil, err
+	}
+	q.V = math.Abs(q.V)
+	return q, nil
+}
+
+func extreme(sign int) func([]any) (any, error) {
+	return func(args []any) (any, error) {
+		best, err := quantityArg(args, 0)
+		if err != nil {
+			return nil, err
+		}
+		for i := 1; i < len(args); i++ {
+			q, err := quantityArg(args, i)
+			if err != nil {
+				return nil, err
+			}
+			k, err := units.Compare(q, best)
+			if err != nil {
+				return nil, err
+			}
+			if k == sign {
+				best = q
+			}
+		}
+		return best, nil
+	}
+}
+
+// quantityArg returns argument i as a quantity.
+func quantityArg(args []any, i int) (units.Quantity, error) {
+	q, ok := args[i].(units.Quantity)
+	if !ok {
+		return q, errorf("argument %d must be a number or quantity, not %s", i+1, kindOf(args[i]))
+	}
+	return q, nil
+}
+
+func (c *scope) call(v *ast.CallNode) (any, *Error) {
+	id, ok := v.Callee.(*ast.IdentifierNode)
+	if !ok {
+		return nil, c.errAt(v, "only a function name can be called")
+	}
+	f, ok := funcs[id.Value]
+	if !ok {
+		names := make([]string, 0, len(funcs))
+		for n := range funcs {
+			names = append(names, n)
+		}
+		msg := "unknown function " + id.Value
+		if near := units.Nearest(id.Value, names); near != "" {
+			msg += "; did you mean " + near + "?"
+		}
+		return nil, c.errAt(v, "%s", msg)
+	}
+	if n := len(v.Arguments); n < f.MinArgs || (f.MaxArgs >= 0 && n > f.MaxArgs) {
+		return nil, c.errAt(v, "%s(%s) takes %s, not %d", f.Name, f.Args, argCount(f), n)
+	}
+	args := make([]any, len(v.Arguments))
+	for i, a := range v.Arguments {
+		x, err := c.eval(a)
+		if err != nil {
+			return nil, err
+		}
+		args[i] = x
+	}
+	out, err := f.Call(args)
+	if err != nil {
+		return nil, c.errAt(v, "%s", err.Error())
+	}
+	if q, ok := out.(units.Quantity); ok && (math.IsNaN(q.V) || math.IsInf(q.V, 0)) {
+		return nil, c.errAt(v, "%s gives no finite result here", f.Name)
+	}
+	return out, nil
+}
+
+func argCount(f *Func) string {
+	switch {
+	case f.MaxArgs < 0:
+		return sprintf("at least %d arguments", f.MinArgs)
+	case f.MinArgs == f.MaxArgs && f.MinArgs == 1:
+		return "1 argument"
+	case f.MinArgs == f.MaxArgs:
+		return sprintf("%d arguments", f.MinArgs)
+	}
+	return sprintf("%d to %d arguments", f.MinArgs, f.MaxArgs)
+}

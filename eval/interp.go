@@ -1,0 +1,274 @@
+package eval
+
+import (
+	"math"
+	"strings"
+
+	"github.com/expr-lang/expr/ast"
+
+	"vouch/units"
+)
+
+// Record is a value with named fields, such as a water state; calcs read
+// its fields as st.h.
+type Record interface {
+	Field(name string) (any, bool)
+	FieldNames() []string
+}
+
+// scope evaluates one statement's tree.
+type scope struct {
+	e *Engine
+	s *Stmt
+}
+
+// errAt builds an error at a node.
+func (c *scope) errAt(n ast.Node, format string, args ...any) *Error {
+	return &Error{Off: c.s.offOfRune(n.Location().From), Msg: sprintf(format, args...)}
+}
+
+func (c *scope) eval(n ast.Node) (any, *Error) {
+	switch v := n.(type) {
+	case *ast.IntegerNode:
+		return units.Num(float64(v.Value)), nil
+	case *ast.FloatNode:
+		return units.Num(v.Value), nil
+	case *ast.BoolNode:
+		return v.Value, nil
+	case *ast.StringNode:
+		return v.Value, nil
+	case *ast.IdentifierNode:
+		return c.ident(v)
+	case *ast.UnaryNode:
+		return c.unary(v)
+	case *ast.BinaryNode:
+		return c.binary(v)
+	case *ast.ConditionalNode:
+		return c.conditional(v)
+	case *ast.MemberNode:
+		return c.member(v)
+	case *ast.CallNode:
+		return c.call(v)
+	}
+	return nil, c.errAt(n, "%s is not supported in a calc expression", describeNode(n))
+}
+
+func describeNode(n ast.Node) string {
+	switch n.(type) {
+	case *ast.ArrayNode:
+		return "a list"
+	case *ast.MapNode:
+		return "a map"
+	case *ast.NilNode:
+		return "nil"
+	case *ast.VariableDeclaratorNode:
+		return "let"
+	case *ast.PointerNode, *ast.PredicateNode:
+		return "a predicate"
+	}
+	return "this expression (" + n.String() + ")"
+}
+
+func (c *scope) ident(v *ast.IdentifierNode) (any, *Error) {
+	if l, ok := c.s.lits[v.Value]; ok {
+		return l.Q, nil
+	}
+	if v.Value == "pi" {
+		return units.Num(math.Pi), nil
+	}
+	if val, ok := c.e.vals[v.Value]; ok {
+		return val, nil
+	}
+	msg := "undefined name " + v.Value
+	if near := units.Nearest(v.Value, c.e.Names()); near != "" {
+		msg += "; did you mean " + near + "?"
+	}
+	return nil, c.errAt(v, "%s", msg)
+}
+
+func (c *scope) unary(v *ast.UnaryNode) (any, *Error) {
+	x, err := c.eval(v.Node)
+	if err != nil {
+		return nil, err
+	}
+	switch v.Operator {
+	case "-", "+":
+		q, ok := x.(units.Quantity)
+		if !ok {
+			return nil, c.errAt(v, "%s needs a number or quantity, not %s", v.Operator, kindOf(x))
+		}
+		if v.Operator == "-" {
+			q = units.Neg(q)
+		}
+		return q, nil
+	case "!", "not":
+		b, ok := x.(bool)
+		if !ok {
+			return nil, c.errAt(v, "%s needs a true/false value, not %s", v.Operator, kindOf(x))
+		}
+		return !b, nil
+	}
+	return nil, c.errAt(v, "operator %s is not supported", v.Operator)
+}
+
+func (c *scope) binary(v *ast.BinaryNode) (any, *Error) {
+	switch v.Operator {
+	case "&&", "and", "||", "or":
+		return c.logical(v)
+	}
+	l, err := c.eval(v.Left)
+	if err != nil {
+		return nil, err
+	}
+	r, err := c.eval(v.Right)
+	if err != nil {
+		return nil, err
+	}
+	if v.Operator == "==" || v.Operator == "!=" {
+		if lb, ok := l.(bool); ok {
+			if rb, ok := r.(bool); ok {
+				return (lb == rb) == (v.Operator == "=="), nil
+			}
+		}
+	}
+	a, aok := l.(units.Quantity)
+	b, bok := r.(units.Quantity)
+	if !aok || !bok {
+		return nil, c.errAt(v, "operator %s needs numbers or quantities, not %s and %s", v.Operator, kindOf(l), kindOf(r))
+	}
+	return c.arith(v, a, b)
+}
+
+func (c *scope) arith(v *ast.BinaryNode, a, b units.Quantity) (any, *Error) {
+	var q units.Quantity
+	var err error
+	switch v.Operator {
+	case "+":
+		q, err = units.Add(a, b)
+	case "-":
+		q, err = units.Sub(a, b)
+	case "*":
+		q = units.Mul(a, b)
+	case "/":
+		if b.V == 0 {
+			return nil, c.errAt(v, "division by zero: %s is 0", v.Right.String())
+		}
+		q = units.Div(a, b)
+	case "^", "**":
+		q, err = units.Pow(a, b)
+	case "<", "<=", ">", ">=", "==", "!=":
+		return c.compare(v, a, b)
+	default:
+		return nil, c.errAt(v, "operator %s is not supported in a calc", v.Operator)
+	}
+	if err != nil {
+		return nil, c.errAt(v, "%s", err.Error())
+	}
+	if math.IsNaN(q.V) || math.IsInf(q.V, 0) {
+		return nil, c.errAt(v, "the result of %s is not a finite number", strings.TrimSpace(c.text(v)))
+	}
+	return q, nil
+}
+
+// text returns the source text of a node as written (literals included).
+func (c *scope) text(n ast.Node) string {
+	loc := n.Location()
+	from, to := c.s.offOfRune(loc.From)-c.s.ExprOff, c.s.offOfRune(loc.To)-c.s.ExprOff
+	if from < 0 || to > len(c.s.Expr) || from >= to {
+		return n.String()
+	}
+	return c.s.Expr[from:to]
+}
+
+func (c *scope) compare(v *ast.BinaryNode, a, b units.Quantity) (any, *Error) {
+	k, err := units.Compare(a, b)
+	if err != nil {
+		return nil, c.errAt(v, "%s", err.Error())
+	}
+	switch v.Operator {
+	case "<":
+		return k < 0, nil
+	case "<=":
+		return k <= 0, nil
+	case ">":
+		return k > 0, nil
+	case ">=":
+		return k >= 0, nil
+	case "==":
+		return k == 0, nil
+	}
+	return k != 0, nil
+}
+
+func (c *scope) logical(v *ast.BinaryNode) (any, *Error) {
+	l, err := c.evalBool(v.Left, v.Operator)
+	if err != nil {
+		return nil, err
+	}
+	and := v.Operator == "&&" || v.Operator == "and"
+	if l != and { // short-circuit: false && …, true || …
+		return l, nil
+	}
+	return c.evalBool(v.Right, v.Operator)
+}
+
+func (c *scope) evalBool(n ast.Node, op string) (bool, *Error) {
+	x, err := c.eval(n)
+	if err != nil {
+		return false, err
+	}
+	b, ok := x.(bool)
+	if !ok {
+		return false, c.errAt(n, "%s needs true/false values, not %s", op, kindOf(x))
+	}
+	return b, nil
+}
+
+func (c *scope) conditional(v *ast.ConditionalNode) (any, *Error) {
+	cond, err := c.evalBool(v.Cond, "a condition")
+	if err != nil {
+		return nil, err
+	}
+	if cond {
+		return c.eval(v.Exp1)
+	}
+	return c.eval(v.Exp2)
+}
+
+func (c *scope) member(v *ast.MemberNode) (any, *Error) {
+	x, err := c.eval(v.Node)
+	if err != nil {
+		return nil, err
+	}
+	prop, ok := v.Property.(*ast.StringNode)
+	if !ok || v.Method {
+		return nil, c.errAt(v, "only a field name may follow a dot")
+	}
+	rec, ok := x.(Record)
+	if !ok {
+		return nil, c.errAt(v, "%s has no fields; .%s needs a state", kindOf(x), prop.Value)
+	}
+	f, ok := rec.Field(prop.Value)
+	if !ok {
+		return nil, c.errAt(v.Property, "a state has no field %s; it has %s", prop.Value, strings.Join(rec.FieldNames(), " "))
+	}
+	return f, nil
+}
+
+// kindOf names a value's kind for messages.
+func kindOf(x any) string {
+	switch v := x.(type) {
+	case units.Quantity:
+		if v.D.IsNone() {
+			return "a number"
+		}
+		return v.D.Name()
+	case bool:
+		return "true/false"
+	case string:
+		return "text"
+	case Record:
+		return "a state"
+	}
+	return "a value"
+}

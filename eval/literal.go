@@ -1,0 +1,277 @@
+package eval
+
+import (
+	"strconv"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"github.com/expr-lang/expr/ast"
+	"github.com/expr-lang/expr/builtin"
+	"github.com/expr-lang/expr/conf"
+	"github.com/expr-lang/expr/file"
+	"github.com/expr-lang/expr/parser"
+
+	"vouch/units"
+)
+
+// parserConfig keeps expr's node limit and turns every expr builtin off, so
+// that all calls, including min and max, reach this package's own function
+// table and nothing time-dependent can run.
+var parserConfig = func() *conf.Config {
+	c := conf.CreateNew()
+	c.MaxNodes = MaxNodes
+	for _, b := range builtin.Builtins {
+		c.Disabled[b.Name] = true
+	}
+	return c
+}()
+
+// compile guards, rewrites unit literals, parses and collects dependencies.
+func (s *Stmt) compile(ctx units.Context) *Error {
+	if e := checkNesting(s.Expr, s.ExprOff); e != nil {
+		return e
+	}
+	src, lits, e := rewriteLiterals(s.Expr, s.ExprOff, ctx)
+	if e != nil {
+		return e
+	}
+	s.src, s.lits = src, lits
+	tree, err := parser.ParseWithConfig(src, parserConfig)
+	if err != nil {
+		return s.exprError(err)
+	}
+	s.tree = tree.Node
+	s.deps = collectDeps(s.tree, lits)
+	return nil
+}
+
+// exprError converts an expr parse error to a file position.
+func (s *Stmt) exprError(err error) *Error {
+	fe, ok := err.(*file.Error)
+	if !ok {
+		return &Error{Off: s.ExprOff, Msg: err.Error()}
+	}
+	msg := fe.Message
+	if strings.HasPrefix(msg, "compilation failed: ") {
+		msg = sprintf("expression has more than %d parts", MaxNodes)
+	}
+	return &Error{Off: s.offOfRune(fe.From), Msg: msg}
+}
+
+// offOfRune converts a rune index into the rewritten expression to a file
+// offset; the rewrite keeps byte lengths, so byte offsets agree.
+func (s *Stmt) offOfRune(r int) int {
+	b := 0
+	for i := 0; i < r && b < len(s.src); i++ {
+		_, w := utf8.DecodeRuneInString(s.src[b:])
+		b += w
+	}
+	return s.ExprOff + b
+}
+
+// checkNesting refuses brackets nested deeper than MaxNesting.
+func checkNesting(expr string, off int) *Error {
+	depth := 0
+	for i := 0; i < len(expr); i++ {
+		switch expr[i] {
+		case '(', '[', '{':
+			depth++
+			if depth > MaxNesting {
+				return &Error{Off: off + i, Msg: sprintf("brackets are nested more than %d deep", MaxNesting)}
+			}
+		case ')', ']', '}':
+			depth--
+		}
+	}
+	return nil
+}
+
+// keywords after a number that are operators, not units.
+var notUnits = map[string]bool{"and": true, "or": true, "not": true, "matches": true, "contains": true,
+	"startsWith": true, "endsWith": true, "if": true, "else": true, "let": true}
+
+// rewriteLiterals replaces each "number unit" by a placeholder identifier of
+// the same byte length ("_0  ", "_1    "), so that expr's parser sees an
+// identifier and every offset keeps its meaning.
+func rewriteLiterals(expr string, off int, ctx units.Context) (string, map[string]*Literal, *Error) {
+	var out []byte
+	var lits map[string]*Literal
+	for i := 0; i < len(expr); {
+		c := expr[i]
+		switch {
+		case c == '"' || c == '\'':
+			i = skipString(expr, i)
+		case c == '_' || c >= 0x80 && startsLetter(expr[i:]) || isASCIILetter(c):
+			i += max(identLen(expr[i:]), 1)
+		case isDigit(c) || c == '.' && i+1 < len(expr) && isDigit(expr[i+1]):
+			numEnd := scanNumber(expr, i)
+			j := skipSpace(expr, numEnd)
+			uEnd := scanUnit(expr, j)
+			if uEnd == j || notUnits[expr[j:uEnd]] {
+				i = numEnd
+				continue
+			}
+			if signedStart(expr, i) {
+				i-- // a minus sign that starts an operand belongs to the literal: -5 degC
+			}
+			lit, e := makeLiteral(expr, i, numEnd, j, uEnd, off, ctx)
+			if e != nil {
+				return "", nil, e
+			}
+			if out == nil {
+				out, lits = []byte(expr), map[string]*Literal{}
+			}
+			name := placeholder(len(lits))
+			if len(name) > uEnd-i {
+				return "", nil, &Error{Off: off + i, Msg: "too many unit literals in one line"}
+			}
+			lits[name] = lit
+			copy(out[i:uEnd], name+strings.Repeat(" ", uEnd-i-len(name)))
+			i = uEnd
+		default:
+			i++
+		}
+	}
+	if out == nil {
+		return expr, nil, nil
+	}
+	return string(out), lits, nil
+}
+
+func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*Literal, *Error) {
+	v, err := strconv.ParseFloat(expr[i:numEnd], 64)
+	if err != nil {
+		return nil, &Error{Off: off + i, Msg: sprintf("cannot read the number %s", expr[i:numEnd])}
+	}
+	u, err := units.Parse(expr[j:uEnd])
+	if err != nil {
+		ue := err.(*units.Error)
+		return nil, &Error{Off: off + j + ue.Off, Msg: ue.Msg}
+	}
+	q := u.Q(v, ctx)
+	return &Literal{Text: expr[i:uEnd], Num: expr[i:numEnd], Unit: u, Q: q, Off: off + i}, nil
+}
+
+// signedStart reports whether the number at i is preceded by a minus sign
+// that starts an operand (not a binary minus).
+func signedStart(s string, i int) bool {
+	if i == 0 || s[i-1] != '-' {
+		return false
+	}
+	j := i - 2
+	for j >= 0 && s[j] == ' ' {
+		j--
+	}
+	return j < 0 || strings.IndexByte("(,=+-*/^<>?:[!&|", s[j]) >= 0
+}
+
+// placeholder names the n-th literal: "_" and n in base 36.
+func placeholder(n int) string { return "_" + strconv.FormatInt(int64(n), 36) }
+
+func isDigit(c byte) bool       { return c >= '0' && c <= '9' }
+func isASCIILetter(c byte) bool { return c|0x20 >= 'a' && c|0x20 <= 'z' }
+
+func startsLetter(s string) bool {
+	r, _ := utf8.DecodeRuneInString(s)
+	return unicode.IsLetter(r)
+}
+
+func skipString(s string, i int) int {
+	q := s[i]
+	for i++; i < len(s); i++ {
+		if s[i] == '\\' {
+			i++
+		} else if s[i] == q {
+			return i + 1
+		}
+	}
+	return len(s)
+}
+
+// scanNumber returns the end of the decimal number starting at i.
+func scanNumber(s string, i int) int {
+	for i < len(s) && isDigit(s[i]) {
+		i++
+	}
+	if i < len(s) && s[i] == '.' && (i+1 >= len(s) || s[i+1] != '.') {
+		for i++; i < len(s) && isDigit(s[i]); i++ {
+		}
+	}
+	if i < len(s) && (s[i] == 'e' || s[i] == 'E') {
+		j := i + 1
+		if j < len(s) && (s[j] == '+' || s[j] == '-') {
+			j++
+		}
+		if j < len(s) && isDigit(s[j]) {
+			for i = j; i < len(s) && isDigit(s[i]); i++ {
+			}
+		}
+	}
+	return i
+}
+
+// scanUnit returns the end of the unit text starting at i: a run of unit
+// characters with balanced parentheses, which ends at a space, a comma, an
+// unmatched ")" or any other character.
+func scanUnit(s string, i int) int {
+	if i >= len(s) || !(startsLetter(s[i:]) || s[i] == '%' || strings.HasPrefix(s[i:], "µ")) {
+		return i
+	}
+	depth, end := 0, i
+	for j := i; j < len(s); {
+		r, w := utf8.DecodeRuneInString(s[j:])
+		switch {
+		case unicode.IsLetter(r) || unicode.IsDigit(r) || strings.ContainsRune("%_^*/·", r):
+		case r == '-' && j > 0 && s[j-1] == '^':
+		case r == '(':
+			depth++
+		case r == ')' && depth > 0:
+			depth--
+		default:
+			return end
+		}
+		j += w
+		if depth == 0 {
+			end = j
+		}
+	}
+	return end
+}
+
+// collectDeps lists the identifiers an expression reads, without function
+// names, placeholders and constants, in order of first use.
+func collectDeps(n ast.Node, lits map[string]*Literal) []string {
+	var deps []string
+	seen := map[string]bool{}
+	var walk func(n ast.Node)
+	walk = func(n ast.Node) {
+		switch v := n.(type) {
+		case *ast.IdentifierNode:
+			if _, lit := lits[v.Value]; !lit && v.Value != "pi" && !seen[v.Value] {
+				seen[v.Value] = true
+				deps = append(deps, v.Value)
+			}
+		case *ast.CallNode:
+			if _, ok := v.Callee.(*ast.IdentifierNode); !ok {
+				walk(v.Callee)
+			}
+			for _, a := range v.Arguments {
+				walk(a)
+			}
+		case *ast.UnaryNode:
+			walk(v.Node)
+		case *ast.BinaryNode:
+			walk(v.Left)
+			walk(v.Right)
+		case *ast.ConditionalNode:
+			walk(v.Cond)
+			walk(v.Exp1)
+			walk(v.Exp2)
+		case *ast.MemberNode:
+			walk(v.Node)
+		}
+	}
+	walk(n)
+	return deps
+}

@@ -1,0 +1,262 @@
+// Package eval parses and evaluates calc lines: NAME = EXPR,
+// NAME [UNIT] = EXPR and check EXPR, with quantities, unit literals, the
+// math functions and the property functions. Expressions use the syntax of
+// github.com/expr-lang/expr (this package is its only importer) plus unit
+// literals and ^ for powers; the tree that expr's parser builds is evaluated
+// here, so values keep their units and every error keeps its position.
+package eval
+
+import (
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"github.com/expr-lang/expr/ast"
+
+	"vouch/units"
+)
+
+// Limits that guard the expression parser against hostile input: expr's
+// parser recurses without a depth limit.
+const (
+	MaxLineBytes = 4096 // longest calc line accepted
+	MaxNesting   = 64   // deepest bracket nesting accepted
+	MaxNodes     = 2000 // most expression nodes in one line
+)
+
+// StmtKind tells a definition from a check.
+type StmtKind uint8
+
+const (
+	// Def is NAME = EXPR or NAME [UNIT] = EXPR.
+	Def StmtKind = iota
+	// Check is check EXPR.
+	Check
+	// Inline is an inline value in prose: `=EXPR` or `=EXPR [UNIT]`.
+	Inline
+)
+
+// Stmt is one parsed calc line. Offsets are byte offsets into the calc file.
+type Stmt struct {
+	Kind    StmtKind
+	Line    int    // 1-based line in the calc file
+	Off     int    // offset of the line's first byte
+	Name    string // defined name (Def)
+	NameOff int
+	Unit    string // display unit as written, "" when none
+	UnitOff int
+	Expr    string // the expression as written
+	ExprOff int
+	Desc    string // the trailing // description
+
+	display units.Unit
+	hasUnit bool
+	src     string              // Expr with literals replaced by placeholders
+	tree    ast.Node            // parsed src
+	lits    map[string]*Literal // placeholder name → literal
+	deps    []string
+}
+
+// Literal is a number with a unit written in an expression, such as 12.5 MPa.
+type Literal struct {
+	Text string // as written: "12.5 MPa"
+	Num  string // the number part: "12.5"
+	Unit units.Unit
+	Q    units.Quantity
+	Off  int // offset of the literal in the calc file
+}
+
+// Deps returns the names the line reads, in order of first use.
+func (s *Stmt) Deps() []string { return s.deps }
+
+// Tree returns the expression tree (placeholders stand for unit literals).
+func (s *Stmt) Tree() ast.Node { return s.tree }
+
+// Literal returns the unit literal a placeholder identifier stands for.
+func (s *Stmt) Literal(ident string) (*Literal, bool) {
+	l, ok := s.lits[ident]
+	return l, ok
+}
+
+// DisplayUnit returns the [UNIT] of a definition and whether it has one.
+func (s *Stmt) DisplayUnit() (units.Unit, bool) { return s.display, s.hasUnit }
+
+// ParseLine parses one calc line (without its line break) that starts at
+// byte offset off of the file and is line number line. It returns nil and no
+// errors for a blank or comment-only line.
+func ParseLine(text string, off, line int, ctx units.Context) (*Stmt, []*Error) {
+	if len(text) > MaxLineBytes {
+		return nil, []*Error{{Off: off, Msg: sprintf("line is %d bytes long; a calc line may be at most %d bytes", len(text), MaxLineBytes)}}
+	}
+	if !utf8.ValidString(text) {
+		return nil, []*Error{{Off: off, Msg: "line is not valid UTF-8"}}
+	}
+	code, desc := splitComment(text)
+	trimmed := strings.TrimSpace(code)
+	if trimmed == "" {
+		return nil, nil
+	}
+	s := &Stmt{Line: line, Off: off, Desc: desc}
+	lead := len(code) - len(strings.TrimLeft(code, " \t"))
+	rest := strings.TrimRight(code[lead:], " \t")
+	var err *Error
+	if kw, after, ok := cutKeyword(rest, "check"); ok {
+		s.Kind = Check
+		s.ExprOff = off + lead + len(kw) + (len(after) - len(strings.TrimLeft(after, " \t")))
+		s.Expr = strings.TrimSpace(after)
+	} else if err = s.parseHead(rest, off+lead, ctx); err != nil {
+		return nil, []*Error{err}
+	}
+	if s.Expr == "" {
+		return nil, []*Error{{Off: s.ExprOff, Msg: "expected an expression"}}
+	}
+	if err := s.compile(ctx); err != nil {
+		return nil, []*Error{err}
+	}
+	return s, nil
+}
+
+// cutKeyword reports whether s starts with the word kw followed by a space.
+func cutKeyword(s, kw string) (string, string, bool) {
+	if !strings.HasPrefix(s, kw) || len(s) == len(kw) {
+		return "", "", false
+	}
+	if c := s[len(kw)]; c != ' ' && c != '\t' && c != '(' {
+		return "", "", false
+	}
+	return kw, s[len(kw):], true
+}
+
+// splitComment splits a line at the first // outside a string literal.
+func splitComment(text string) (code, desc string) {
+	var quote byte
+	for i := 0; i < len(text); i++ {
+		c := text[i]
+		switch {
+		case quote != 0 && c == '\\':
+			i++
+		case quote != 0 && c == quote:
+			quote = 0
+		case quote == 0 && (c == '"' || c == '\''):
+			quote = c
+		case quote == 0 && c == '/' && i+1 < len(text) && text[i+1] == '/':
+			return text[:i], strings.TrimSpace(text[i+2:])
+		}
+	}
+	return text, ""
+}
+
+// parseHead reads NAME [UNIT] = and sets the expression that follows.
+func (s *Stmt) parseHead(rest string, off int, ctx units.Context) *Error {
+	n := identLen(rest)
+	if n == 0 {
+		return &Error{Off: off, Msg: "expected NAME = EXPR, NAME [UNIT] = EXPR or check EXPR"}
+	}
+	s.Name, s.NameOff = rest[:n], off
+	if e := checkName(s.Name, off); e != nil {
+		return e
+	}
+	i := skipSpace(rest, n)
+	if i < len(rest) && rest[i] == '[' {
+		end := strings.IndexByte(rest[i:], ']')
+		if end < 0 {
+			return &Error{Off: off + i, Msg: "missing ] after the display unit"}
+		}
+		s.Unit = strings.TrimSpace(rest[i+1 : i+end])
+		s.UnitOff = off + i + 1 + (len(rest[i+1:i+end]) - len(strings.TrimLeft(rest[i+1:i+end], " ")))
+		u, err := units.Parse(s.Unit)
+		if err != nil {
+			ue := err.(*units.Error)
+			return &Error{Off: s.UnitOff + ue.Off, Msg: ue.Msg}
+		}
+		s.display, s.hasUnit = u, true
+		i = skipSpace(rest, i+end+1)
+	}
+	if i >= len(rest) || rest[i] != '=' || (i+1 < len(rest) && rest[i+1] == '=') {
+		return &Error{Off: off + i, Msg: sprintf("expected = after %s", s.Name)}
+	}
+	i = skipSpace(rest, i+1)
+	s.Expr, s.ExprOff = rest[i:], off+i
+	return nil
+}
+
+func skipSpace(s string, i int) int {
+	for i < len(s) && (s[i] == ' ' || s[i] == '\t') {
+		i++
+	}
+	return i
+}
+
+// identLen returns the byte length of the identifier at the start of s.
+func identLen(s string) int {
+	n := 0
+	for n < len(s) {
+		r, w := utf8.DecodeRuneInString(s[n:])
+		if !(r == '_' || unicode.IsLetter(r) || (n > 0 && unicode.IsDigit(r))) {
+			break
+		}
+		n += w
+	}
+	return n
+}
+
+// reserved are words a calc cannot use as names: expression keywords,
+// function names and constants.
+var reserved = map[string]bool{
+	"and": true, "or": true, "not": true, "in": true, "matches": true, "contains": true,
+	"startsWith": true, "endsWith": true, "let": true, "if": true, "else": true,
+	"nil": true, "true": true, "false": true, "check": true, "pi": true,
+}
+
+func checkName(name string, off int) *Error {
+	switch {
+	case name[0] == '_':
+		return &Error{Off: off, Msg: sprintf("name %s may not start with _", name)}
+	case reserved[name]:
+		return &Error{Off: off, Msg: sprintf("%s is a reserved word and cannot be a name", name)}
+	case funcs[name] != nil:
+		return &Error{Off: off, Msg: sprintf("%s is a function and cannot be a name", name)}
+	}
+	return nil
+}
+
+// loneLiteral returns the literal when the whole expression is one unit
+// literal, such as 540 degC.
+func (s *Stmt) loneLiteral() *Literal {
+	if id, ok := s.tree.(*ast.IdentifierNode); ok {
+		return s.lits[id.Value]
+	}
+	return nil
+}
+
+// ParseInline parses the text of an inline value after its "=": an
+// expression with an optional trailing [UNIT].
+func ParseInline(text string, off, line int, ctx units.Context) (*Stmt, []*Error) {
+	if len(text) > MaxLineBytes {
+		return nil, []*Error{{Off: off, Msg: sprintf("inline value is %d bytes long; at most %d are allowed", len(text), MaxLineBytes)}}
+	}
+	s := &Stmt{Kind: Inline, Line: line, Off: off - 1, Expr: text, ExprOff: off}
+	body := strings.TrimRight(text, " ")
+	if strings.HasSuffix(body, "]") {
+		if i := strings.LastIndexByte(body, '['); i >= 0 {
+			s.Unit = strings.TrimSpace(body[i+1 : len(body)-1])
+			s.UnitOff = off + i + 1
+			u, err := units.Parse(s.Unit)
+			if err != nil {
+				ue := err.(*units.Error)
+				return nil, []*Error{{Off: s.UnitOff + ue.Off, Msg: ue.Msg}}
+			}
+			s.display, s.hasUnit = u, true
+			body = body[:i]
+		}
+	}
+	lead := len(body) - len(strings.TrimLeft(body, " "))
+	s.Expr, s.ExprOff = strings.TrimSpace(body), off+lead
+	if s.Expr == "" {
+		return nil, []*Error{{Off: off, Msg: "expected an expression after ="}}
+	}
+	if err := s.compile(ctx); err != nil {
+		return nil, []*Error{err}
+	}
+	return s, nil
+}
