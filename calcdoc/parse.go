@@ -150,10 +150,13 @@ func (d *Doc) readBlock(index int, b *gast.FencedCodeBlock) {
 		raw := strings.TrimRight(string(seg.Value(d.body)), "\r\n")
 		st, errs := eval.ParseLine(raw, seg.Start, d.lines.pos(d.Src, seg.Start).Line, d.Front.Ctx)
 		d.addEvalErrors(errs)
-		if st != nil {
-			d.Items = append(d.Items, &Item{Stmt: st, Block: index})
-		} else if len(errs) > 0 {
+		switch {
+		case len(errs) > 0 && st != nil:
+			d.Items = append(d.Items, &Item{Stmt: st, Block: index, Err: true})
+		case len(errs) > 0:
 			d.Items = append(d.Items, &Item{Block: index, Err: true, Stmt: &eval.Stmt{Off: seg.Start}})
+		case st != nil:
+			d.Items = append(d.Items, &Item{Stmt: st, Block: index})
 		}
 	}
 }
@@ -170,7 +173,8 @@ func (d *Doc) checkClosed(b *gast.FencedCodeBlock) {
 	line, _, _ := bytes.Cut(rest, []byte("\n"))
 	t := strings.TrimLeft(strings.TrimRight(string(line), "\r"), " >\t")
 	if !strings.HasPrefix(t, "```") && !strings.HasPrefix(t, "~~~") {
-		d.errorf(b.Info.Segment.Start, "calc block is not closed: add a closing fence line")
+		p := d.lines.pos(d.Src, b.Info.Segment.Start)
+		d.errorf(p.Off-(p.Col-1), "calc block is not closed: add a closing fence line")
 	}
 }
 
@@ -194,7 +198,7 @@ func (d *Doc) readInline(s *gast.CodeSpan) {
 	}
 	st, errs := eval.ParseInline(raw[1:], start+1, d.lines.pos(d.Src, start).Line, d.Front.Ctx)
 	d.addEvalErrors(errs)
-	if st != nil {
+	if st != nil && len(errs) == 0 {
 		d.Items = append(d.Items, &Item{Stmt: st, Inline: true})
 	}
 }

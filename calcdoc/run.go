@@ -28,6 +28,9 @@ func (d *Doc) Evaluate() {
 	eng := eval.NewEngine(d.Front.Ctx)
 	for _, it := range d.Items {
 		if it.Err {
+			if it.Stmt.Kind == eval.Def {
+				eng.Fail(it.Stmt.Name)
+			}
 			continue
 		}
 		out, err := eng.Exec(it.Stmt)

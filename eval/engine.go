@@ -88,6 +88,14 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, *Error) {
 	return out, nil
 }
 
+// Fail marks a name whose line has an error, so that lines reading it are
+// skipped rather than reported again.
+func (e *Engine) Fail(name string) {
+	if name != "" {
+		e.failed[name] = true
+	}
+}
+
 func (e *Engine) markFailed(s *Stmt) {
 	if s.Kind == Def {
 		e.failed[s.Name] = true

@@ -262,7 +262,7 @@ func kindOf(x any) string {
 		if v.D.IsNone() {
 			return "a number"
 		}
-		return v.D.Name()
+		return "a quantity of " + v.D.Name() + " (" + units.DefaultUnit(v).String() + ")"
 	case bool:
 		return "true/false"
 	case string:

@@ -53,6 +53,9 @@ func (s *Stmt) exprError(err error) *Error {
 		return &Error{Off: s.ExprOff, Msg: err.Error()}
 	}
 	msg := fe.Message
+	if msg == "unexpected token EOF" || msg == "unexpected end of expression" {
+		msg = "the expression is incomplete"
+	}
 	if strings.HasPrefix(msg, "compilation failed: ") {
 		msg = sprintf("expression has more than %d parts", MaxNodes)
 	}

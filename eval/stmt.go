@@ -83,7 +83,8 @@ func (s *Stmt) DisplayUnit() (units.Unit, bool) { return s.display, s.hasUnit }
 
 // ParseLine parses one calc line (without its line break) that starts at
 // byte offset off of the file and is line number line. It returns nil and no
-// errors for a blank or comment-only line.
+// errors for a blank or comment-only line. With errors, the statement it
+// returns (if any) is not fit to run, but names what the line defines.
 func ParseLine(text string, off, line int, ctx units.Context) (*Stmt, []*Error) {
 	if len(text) > MaxLineBytes {
 		return nil, []*Error{{Off: off, Msg: sprintf("line is %d bytes long; a calc line may be at most %d bytes", len(text), MaxLineBytes)}}
@@ -105,13 +106,13 @@ func ParseLine(text string, off, line int, ctx units.Context) (*Stmt, []*Error) 
 		s.ExprOff = off + lead + len(kw) + (len(after) - len(strings.TrimLeft(after, " \t")))
 		s.Expr = strings.TrimSpace(after)
 	} else if err = s.parseHead(rest, off+lead, ctx); err != nil {
-		return nil, []*Error{err}
+		return s, []*Error{err}
 	}
 	if s.Expr == "" {
-		return nil, []*Error{{Off: s.ExprOff, Msg: "expected an expression"}}
+		return s, []*Error{{Off: s.ExprOff, Msg: "expected an expression"}}
 	}
 	if err := s.compile(ctx); err != nil {
-		return nil, []*Error{err}
+		return s, []*Error{err}
 	}
 	return s, nil
 }

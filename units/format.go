@@ -23,7 +23,7 @@ var displayChoices = map[Dim][]string{
 	DimViscosity:        {"Pa*s"},
 	DimConductivity:     {"W/(m*K)"},
 	DimHeatTransferCoef: {"W/(m^2*K)"},
-	DimLength:           {"mm", "m", "km"},
+	DimLength:           {"m"},
 	DimMass:             {"kg"},
 	DimTime:             {"s"},
 }

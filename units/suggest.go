@@ -5,7 +5,7 @@ import "fmt"
 // Nearest returns the candidate closest to s by edit distance, or "" when
 // none is close enough to be a plausible typo.
 func Nearest(s string, candidates []string) string {
-	best, bestD := "", len(s)/2+2
+	best, bestD := "", len(s)/4+2
 	for _, c := range candidates {
 		d := editDistance(s, c)
 		if d < bestD || (d == bestD && c < best) {
