@@ -1,0 +1,198 @@
+package provenance
+
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"fmt"
+	"io"
+	"strings"
+)
+
+// ManifestFormat names this version of the manifest layout. Canonical
+// writes it under the key "format" and ParseManifest requires it.
+const ManifestFormat = "vouch-manifest/1"
+
+// Manifest is the provenance record of a calculation package: what was
+// computed, from which inputs, by which engine, and who signed it. It is
+// embedded in the package as canonical JSON and written beside it.
+type Manifest struct {
+	Engine             string      `json:"engine"`              // engine name and version
+	Formulation        string      `json:"formulation"`         // property formulation, such as IAPWS-IF97
+	FormulationVersion string      `json:"formulation_version"` // the formulation's release or revision
+	Source             string      `json:"source"`              // calc file, slash path from the repository root
+	SourceHash         string      `json:"source_hash"`         // git blob hash of the calc file as evaluated
+	Commit             string      `json:"commit"`              // HEAD commit when evaluated
+	Clean              bool        `json:"clean"`               // whether the work tree matched HEAD
+	Data               []DataFile  `json:"data"`                // data files read, in reading order
+	Results            []Result    `json:"results"`             // every result, in file order
+	ResultsDigest      string      `json:"results_digest"`      // ResultsDigest of Results
+	Signatures         []Signature `json:"signatures"`          // not covered by Digest
+}
+
+// DataFile is a data file a calculation read.
+type DataFile struct {
+	Path string `json:"path"` // slash path from the repository root
+	Hash string `json:"hash"` // git blob hash of the content read
+}
+
+// Result is one computed value in SI base units.
+type Result struct {
+	Name string  `json:"name"` // the calc file's name for it
+	SI   float64 `json:"si"`   // value in SI base units
+	Unit string  `json:"unit"` // the SI unit, such as "m^2*kg*s^-3" or "" for a number
+}
+
+// Signature is one signer's SSHSIG over the manifest's Payload for a role.
+// Only Role (through the payload) and the manifest's Digest are signed; the
+// other fields describe the signer for the reader and are checked against
+// the signature's key and the allowed-signers file when verifying.
+type Signature struct {
+	Role        string `json:"role"`        // preparer, checker or approver
+	Principal   string `json:"principal"`   // signer's email, as in allowed-signers
+	Name        string `json:"name"`        // signer's name, for the reader
+	Fingerprint string `json:"fingerprint"` // SHA256:... of the signing key
+	Date        string `json:"date"`        // when signed, RFC 3339 in UTC
+	Signature   string `json:"signature"`   // armored SSHSIG
+}
+
+// Canonical returns the manifest as canonical JSON (see canonical.go): the
+// same manifest always gives the same bytes. A NaN or infinite result, or a
+// string that is not UTF-8, is an error.
+func (m *Manifest) Canonical() ([]byte, error) {
+	return writeCanonical(nil, m.object(true))
+}
+
+// Digest returns the SHA-256, in hex, of the canonical JSON of the manifest
+// without its signatures: the value every signature covers.
+func (m *Manifest) Digest() (string, error) {
+	b, err := writeCanonical(nil, m.object(false))
+	if err != nil {
+		return "", err
+	}
+	return sha256Hex(b), nil
+}
+
+// ResultsDigest returns the SHA-256, in hex, of the canonical JSON array of
+// the results, in the given order.
+func ResultsDigest(results []Result) (string, error) {
+	b, err := writeCanonical(nil, resultsArray(results))
+	if err != nil {
+		return "", fmt.Errorf("results: %w", err)
+	}
+	return sha256Hex(b), nil
+}
+
+// Validate checks that ResultsDigest matches Results and that Source is a
+// path inside the repository.
+func (m *Manifest) Validate() error {
+	if err := checkRel(m.Source); err != nil {
+		return fmt.Errorf("%w: source %q is not a path inside the repository", ErrManifest, m.Source)
+	}
+	got, err := ResultsDigest(m.Results)
+	if err != nil {
+		return err
+	}
+	if got != m.ResultsDigest {
+		return fmt.Errorf("%w: results digest %s does not match the results, which digest to %s",
+			ErrManifest, m.ResultsDigest, got)
+	}
+	return nil
+}
+
+// ParseManifest reads a manifest written by Canonical, or any JSON text
+// with the same keys and values (digests are recomputed from the values,
+// so whitespace and key order do not matter). Unknown keys, a missing or
+// different format, and trailing data are errors.
+func ParseManifest(data []byte) (*Manifest, error) {
+	m := new(Manifest)
+	wire := struct {
+		Format string `json:"format"`
+		*Manifest
+	}{Manifest: m}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&wire); err != nil {
+		return nil, fmt.Errorf("%w: %v", ErrManifest, err)
+	}
+	if _, err := dec.Token(); err != io.EOF {
+		return nil, fmt.Errorf("%w: data after the manifest object", ErrManifest)
+	}
+	if wire.Format != ManifestFormat {
+		return nil, fmt.Errorf("%w: format %q, want %q", ErrManifest, wire.Format, ManifestFormat)
+	}
+	return m, nil
+}
+
+// object converts the manifest for writeCanonical.
+func (m *Manifest) object(withSignatures bool) jsonObject {
+	o := jsonObject{
+		"format":              ManifestFormat,
+		"engine":              m.Engine,
+		"formulation":         m.Formulation,
+		"formulation_version": m.FormulationVersion,
+		"source":              m.Source,
+		"source_hash":         m.SourceHash,
+		"commit":              m.Commit,
+		"clean":               m.Clean,
+		"data":                dataArray(m.Data),
+		"results":             resultsArray(m.Results),
+		"results_digest":      m.ResultsDigest,
+	}
+	if withSignatures {
+		o["signatures"] = signaturesArray(m.Signatures)
+	}
+	return o
+}
+
+func dataArray(files []DataFile) []any {
+	a := make([]any, len(files))
+	for i, f := range files {
+		a[i] = jsonObject{"path": f.Path, "hash": f.Hash}
+	}
+	return a
+}
+
+func resultsArray(results []Result) []any {
+	a := make([]any, len(results))
+	for i, r := range results {
+		a[i] = jsonObject{"name": r.Name, "si": r.SI, "unit": r.Unit}
+	}
+	return a
+}
+
+func signaturesArray(sigs []Signature) []any {
+	a := make([]any, len(sigs))
+	for i, s := range sigs {
+		a[i] = jsonObject{
+			"role": s.Role, "principal": s.Principal, "name": s.Name,
+			"fingerprint": s.Fingerprint, "date": s.Date, "signature": s.Signature,
+		}
+	}
+	return a
+}
+
+func sha256Hex(b []byte) string {
+	sum := sha256.Sum256(b)
+	return hex.EncodeToString(sum[:])
+}
+
+// Payload returns the exact bytes a signature for role covers:
+//
+//	calc-package role=ROLE manifest-sha256=DIGEST
+//
+// with no trailing newline, DIGEST being Digest in hex. Binding the role
+// stops a signature made as preparer from being relabelled as checker. A
+// reader can rebuild the payload with printf and check a signature with
+// ssh-keygen -Y verify -n calc-package@vouch.
+func (m *Manifest) Payload(role string) ([]byte, error) {
+	if role == "" || strings.ContainsAny(role, " \t\r\n=") {
+		return nil, fmt.Errorf("%w: role %q must be one word", ErrManifest, role)
+	}
+	d, err := m.Digest()
+	if err != nil {
+		return nil, err
+	}
+	return []byte("calc-package role=" + role + " manifest-sha256=" + d), nil
+}

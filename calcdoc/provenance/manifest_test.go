@@ -1,0 +1,263 @@
+package provenance
+
+import (
+	"bytes"
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"math"
+	"reflect"
+	"strings"
+	"testing"
+)
+
+// sampleManifest is the record of a fictional heat balance.
+func sampleManifest(t testing.TB) *Manifest {
+	t.Helper()
+	m := &Manifest{
+		Engine:             "vouch 0.1.0",
+		Formulation:        "IAPWS-IF97",
+		FormulationVersion: "R7-97(2012)",
+		Source:             "calcs/hb-002.calc.md",
+		SourceHash:         "8baef1b4abc478178b004d62031cf7fe6db6f903",
+		Commit:             "0123456789abcdef0123456789abcdef01234567",
+		Clean:              true,
+		Data:               []DataFile{{Path: "data/loads.csv", Hash: "e69de29bb2d1d6434b8b29ae775ad8c2e48c5391"}},
+		Results: []Result{
+			{Name: "p_1", SI: 12.5e6, Unit: "Pa"},
+			{Name: "eta_th", SI: 0.4123, Unit: ""},
+		},
+	}
+	d, err := ResultsDigest(m.Results)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m.ResultsDigest = d
+	return m
+}
+
+func TestCanonicalGolden(t *testing.T) {
+	m := sampleManifest(t)
+	got, err := m.Canonical()
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := `{"clean":true,"commit":"0123456789abcdef0123456789abcdef01234567",` +
+		`"data":[{"hash":"e69de29bb2d1d6434b8b29ae775ad8c2e48c5391","path":"data/loads.csv"}],` +
+		`"engine":"vouch 0.1.0","format":"vouch-manifest/1","formulation":"IAPWS-IF97",` +
+		`"formulation_version":"R7-97(2012)",` +
+		`"results":[{"name":"p_1","si":1.25e+07,"unit":"Pa"},{"name":"eta_th","si":0.4123,"unit":""}],` +
+		`"results_digest":"` + m.ResultsDigest + `","signatures":[],` +
+		`"source":"calcs/hb-002.calc.md","source_hash":"8baef1b4abc478178b004d62031cf7fe6db6f903"}`
+	if string(got) != want {
+		t.Fatalf("Canonical() =\n%s\nwant\n%s", got, want)
+	}
+	if !json.Valid(got) {
+		t.Fatal("canonical output is not valid JSON")
+	}
+}
+
+func TestCanonicalRoundTrip(t *testing.T) {
+	m := sampleManifest(t)
+	m.Signatures = []Signature{{Role: "checker", Principal: "checker@example.com", Name: "C. Reader",
+		Fingerprint: "SHA256:abc", Date: "2025-01-02T03:04:05Z", Signature: "-----BEGIN SSH SIGNATURE-----\n"}}
+	first, err := m.Canonical()
+	if err != nil {
+		t.Fatal(err)
+	}
+	back, err := ParseManifest(first)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !reflect.DeepEqual(back, m) {
+		t.Fatalf("round trip changed the manifest:\n%+v\n%+v", back, m)
+	}
+	var pretty bytes.Buffer
+	if err := json.Indent(&pretty, first, "", "  "); err != nil {
+		t.Fatal(err)
+	}
+	again, err := ParseManifest(pretty.Bytes())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if second, _ := again.Canonical(); !bytes.Equal(first, second) {
+		t.Fatalf("indented manifest reads back differently:\n%s\n%s", first, second)
+	}
+}
+
+func TestCanonicalFloatsBitExact(t *testing.T) {
+	tests := []struct {
+		v    float64
+		text string
+	}{
+		{0.1, "0.1"},
+		{1e-300, "1e-300"},
+		{5e-324, "5e-324"}, // smallest subnormal
+		{1.0 / 3, "0.3333333333333333"},
+		{math.Copysign(0, -1), "-0"},
+		{0, "0"},
+		{math.MaxFloat64, "1.7976931348623157e+308"},
+		{2.2250738585072014e-308, "2.2250738585072014e-308"}, // smallest normal
+		{101325, "101325"},
+		{-273.15, "-273.15"},
+		{1e21, "1e+21"},
+		{1e-7, "1e-07"},
+	}
+	for _, tt := range tests {
+		m := &Manifest{Source: "a.calc.md", Results: []Result{{Name: "x", SI: tt.v, Unit: "K"}}}
+		b, err := m.Canonical()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Contains(b, []byte(`"si":`+tt.text+`,`)) {
+			t.Errorf("%v written as %s, want %s", tt.v, b, tt.text)
+		}
+		back, err := ParseManifest(b)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := back.Results[0].SI; math.Float64bits(got) != math.Float64bits(tt.v) {
+			t.Errorf("%v read back as %v (bits %x, want %x)", tt.v, got, math.Float64bits(got), math.Float64bits(tt.v))
+		}
+	}
+}
+
+func TestCanonicalRejects(t *testing.T) {
+	for _, v := range []float64{math.NaN(), math.Inf(1), math.Inf(-1)} {
+		m := &Manifest{Results: []Result{{Name: "x", SI: v}}}
+		if _, err := m.Canonical(); !errors.Is(err, ErrManifest) || !strings.Contains(err.Error(), "not finite") {
+			t.Errorf("Canonical with %v: got %v, want a not-finite error", v, err)
+		}
+		if _, err := ResultsDigest(m.Results); !errors.Is(err, ErrManifest) {
+			t.Errorf("ResultsDigest with %v: got %v, want ErrManifest", v, err)
+		}
+	}
+	m := &Manifest{Engine: "bad \xff byte"}
+	if _, err := m.Canonical(); !errors.Is(err, ErrManifest) || !strings.Contains(err.Error(), "utf-8") {
+		t.Errorf("Canonical with invalid utf-8: got %v", err)
+	}
+}
+
+func TestCanonicalStrings(t *testing.T) {
+	tests := []struct{ in, want string }{
+		{`plain`, `"plain"`},
+		{`quote " and \ backslash`, `"quote \" and \\ backslash"`},
+		{"tab\tnew\nline\rcr", `"tab\tnew\nline\rcr"`},
+		{"bell\x07 del\x7f", `"bell\u0007 del` + "\x7f" + `"`},
+		{`</script> & <b>`, `"\u003c/script\u003e \u0026 \u003cb\u003e"`},
+		{"Δp η 25 °C", `"Δp η 25 °C"`},
+	}
+	for _, tt := range tests {
+		got, err := writeString(nil, tt.in)
+		if err != nil || string(got) != tt.want {
+			t.Errorf("writeString(%q) = %s, %v; want %s", tt.in, got, err, tt.want)
+			continue
+		}
+		var back string
+		if err := json.Unmarshal(got, &back); err != nil || back != tt.in {
+			t.Errorf("%s reads back as %q, %v", got, back, err)
+		}
+	}
+}
+
+func TestDigestExcludesSignatures(t *testing.T) {
+	m := sampleManifest(t)
+	before, err := m.Digest()
+	if err != nil {
+		t.Fatal(err)
+	}
+	unsigned, _ := writeCanonical(nil, m.object(false))
+	if before != hex.EncodeToString(sha256Sum(unsigned)) || bytes.Contains(unsigned, []byte("signatures")) {
+		t.Fatalf("Digest is not the sha256 of the manifest without signatures")
+	}
+	m.Signatures = append(m.Signatures, Signature{Role: "preparer"})
+	if after, _ := m.Digest(); after != before {
+		t.Fatalf("adding a signature changed the digest: %s -> %s", before, after)
+	}
+	m.Results[1].SI = math.Nextafter(m.Results[1].SI, 1)
+	if after, _ := m.Digest(); after == before {
+		t.Fatal("changing a result by one ulp left the digest unchanged")
+	}
+}
+
+func TestResultsDigest(t *testing.T) {
+	results := []Result{{Name: "eta_th", SI: 0.4, Unit: ""}}
+	got, err := ResultsDigest(results)
+	want := hex.EncodeToString(sha256Sum([]byte(`[{"name":"eta_th","si":0.4,"unit":""}]`)))
+	if err != nil || got != want {
+		t.Fatalf("ResultsDigest = %s, %v; want %s", got, err, want)
+	}
+	if empty, _ := ResultsDigest(nil); empty != hex.EncodeToString(sha256Sum([]byte(`[]`))) {
+		t.Fatalf("ResultsDigest(nil) = %s, want the digest of []", empty)
+	}
+}
+
+func TestValidate(t *testing.T) {
+	m := sampleManifest(t)
+	if err := m.Validate(); err != nil {
+		t.Fatalf("Validate: %v", err)
+	}
+	m.Results[0].SI = 13e6
+	if err := m.Validate(); !errors.Is(err, ErrManifest) || !strings.Contains(err.Error(), "results digest") {
+		t.Fatalf("Validate after editing a result: got %v", err)
+	}
+	m = sampleManifest(t)
+	m.Source = "../elsewhere.calc.md"
+	if err := m.Validate(); !errors.Is(err, ErrManifest) {
+		t.Fatalf("Validate with an escaping source: got %v", err)
+	}
+}
+
+func TestParseManifestErrors(t *testing.T) {
+	good, _ := sampleManifest(t).Canonical()
+	tests := []struct{ name, in, mention string }{
+		{"unknown key", strings.Replace(string(good), `"clean"`, `"extra":1,"clean"`, 1), "unknown field"},
+		{"format", strings.Replace(string(good), ManifestFormat, "other/9", 1), `format "other/9"`},
+		{"no format", strings.Replace(string(good), `"format":"vouch-manifest/1",`, "", 1), `format ""`},
+		{"trailing", string(good) + "{}", "data after"},
+		{"not json", "{", "unexpected EOF"},
+		{"huge number", strings.Replace(string(good), "1.25e+07", "1e999", 1), "si"},
+	}
+	for _, tt := range tests {
+		_, err := ParseManifest([]byte(tt.in))
+		if !errors.Is(err, ErrManifest) || !strings.Contains(err.Error(), tt.mention) {
+			t.Errorf("%s: got %v, want ErrManifest mentioning %q", tt.name, err, tt.mention)
+		}
+	}
+}
+
+func TestPayload(t *testing.T) {
+	m := sampleManifest(t)
+	d, _ := m.Digest()
+	got, err := m.Payload("checker")
+	if err != nil || string(got) != "calc-package role=checker manifest-sha256="+d {
+		t.Fatalf("Payload = %q, %v", got, err)
+	}
+	for _, bad := range []string{"", "check er", "role=x", "a\n"} {
+		if _, err := m.Payload(bad); !errors.Is(err, ErrManifest) {
+			t.Errorf("Payload(%q): got %v, want ErrManifest", bad, err)
+		}
+	}
+}
+
+func sha256Sum(b []byte) []byte {
+	s := sha256.Sum256(b)
+	return s[:]
+}
+
+// A manifest's canonical form has sorted keys and no whitespace, and its
+// digest leaves the signatures out. The plant is fictional.
+func ExampleManifest_Canonical() {
+	m := &Manifest{
+		Engine:      "vouch 0.1.0",
+		Formulation: "IAPWS-IF97",
+		Source:      "calcs/hb-002.calc.md",
+		Results:     []Result{{Name: "W_net", SI: 2.5e8, Unit: "m^2*kg*s^-3"}},
+	}
+	b, _ := m.Canonical()
+	fmt.Println(string(b))
+	// Output:
+	// {"clean":false,"commit":"","data":[],"engine":"vouch 0.1.0","format":"vouch-manifest/1","formulation":"IAPWS-IF97","formulation_version":"","results":[{"name":"W_net","si":2.5e+08,"unit":"m^2*kg*s^-3"}],"results_digest":"","signatures":[],"source":"calcs/hb-002.calc.md","source_hash":""}
+}
