@@ -12,7 +12,7 @@ import (
 // Record is a value with named fields, such as a water state; calcs read
 // its fields as st.h.
 type Record interface {
-	Field(name string) (any, bool)
+	Field(name string) (any, error)
 	FieldNames() []string
 }
 
@@ -248,9 +248,9 @@ func (c *scope) member(v *ast.MemberNode) (any, *Error) {
 	if !ok {
 		return nil, c.errAt(v, "%s has no fields; .%s needs a state", kindOf(x), prop.Value)
 	}
-	f, ok := rec.Field(prop.Value)
-	if !ok {
-		return nil, c.errAt(v.Property, "a state has no field %s; it has %s", prop.Value, strings.Join(rec.FieldNames(), " "))
+	f, ferr := rec.Field(prop.Value)
+	if ferr != nil {
+		return nil, c.errAt(v.Property, "%s", ferr.Error())
 	}
 	return f, nil
 }
