@@ -1,0 +1,272 @@
+package if97
+
+import "math"
+
+// This file holds the inverse state functions StatePH and StatePS. They share one flow: find
+// the region from saturation and boundary values at the given pressure, start from the
+// backward equation of that region (R7-97 Eqs. 11, 13, 22-27; SR3-03 for region 3), and solve
+// the basic equation by Newton steps so that the state is consistent with StatePT to rounding.
+
+// yKind selects the second input: specific enthalpy or specific entropy.
+type yKind int
+
+const (
+	byH yKind = iota
+	byS
+)
+
+func (k yKind) input() string {
+	if k == byH {
+		return "h"
+	}
+	return "s"
+}
+
+// ySlope returns h and cp = dh/dT, or s and cp/T = ds/dT, at (p, T) in region 1, 2 or 5.
+func ySlope(region int, p, T float64, k yKind) (y, dy float64) {
+	want := wantY | wantYY
+	if k == byS {
+		want |= wantF
+	}
+	d := gibbsAt(region, p, T, want)
+	cp := -R * d.tau * d.tau * d.gtt
+	if k == byH {
+		return R * T * d.tau * d.gt, cp
+	}
+	return R * (d.tau*d.gt - d.g), cp / T
+}
+
+// yAt returns h or s at (p, T) in region 1, 2 or 5.
+func yAt(region int, p, T float64, k yKind) float64 {
+	if k == byH {
+		return hG(region, p, T)
+	}
+	return sG(region, p, T)
+}
+
+// solveT finds T in [lo, hi] with y(p, T) = y in region 1, 2 or 5 (y rises with T), starting at
+// T. It returns out = -1 if y is below y(p, lo), +1 if above y(p, hi), else 0.
+func solveT(region int, p, y float64, k yKind, T, lo, hi float64) (float64, int) {
+	a, b := lo, hi
+	aOK, bOK := false, false
+	if !(T > lo) {
+		T = lo
+	} else if !(T < hi) {
+		T = hi
+	}
+	for it := 0; it < 100; it++ {
+		f, df := ySlope(region, p, T, k)
+		e := f - y
+		if e == 0 {
+			return T, 0
+		}
+		if e < 0 {
+			if T >= hi {
+				return hi, +1
+			}
+			a, aOK = T, true
+		} else {
+			if T <= lo {
+				return lo, -1
+			}
+			b, bOK = T, true
+		}
+		next := T - e/df
+		if !(df > 0) || !(next > a && next < b) {
+			switch {
+			case e < 0 && !bOK:
+				next = b
+			case e > 0 && !aOK:
+				next = a
+			default:
+				next = (a + b) / 2
+			}
+		}
+		if math.Abs(next-T) <= 1e-13*T {
+			return next, 0
+		}
+		T = next
+	}
+	return T, 0
+}
+
+// StatePH returns the state at pressure p (Pa) and specific enthalpy h (J/kg): single-phase
+// (regions 1, 2, 3, 5) or two-phase (region 4).
+func StatePH(p, h float64) (Props, error) { return statePY(p, h, byH) }
+
+// StatePS returns the state at pressure p (Pa) and specific entropy s (J/(kg·K)): single-phase
+// (regions 1, 2, 3, 5) or two-phase (region 4).
+func StatePS(p, s float64) (Props, error) { return statePY(p, s, byS) }
+
+func statePY(p, y float64, k yKind) (Props, error) {
+	if !(p > 0) {
+		return Props{}, below("p", p, 0, "pressure must be positive")
+	}
+	if !(p <= PMax) {
+		return Props{}, above("p", p, PMax, "IAPWS-IF97 ends at 100 MPa")
+	}
+	if math.IsNaN(y) || math.IsInf(y, 0) {
+		return Props{}, above(k.input(), y, 0, "not a finite number")
+	}
+	switch {
+	case p < PSatMin:
+		// Only vapour: region 2 from 273.15 K, then region 5.
+		return vapourPY(p, y, k, math.NaN())
+	case p <= PSat623:
+		return subPY(p, y, k)
+	}
+	return superPY(p, y, k)
+}
+
+// liquidPY solves region 1 between 273.15 K and Tmax.
+func liquidPY(p, y float64, k yKind, Tmax float64) (Props, error) {
+	var T0 float64
+	if k == byH {
+		T0 = T1PH(p, y)
+	} else {
+		T0 = T1PS(p, y)
+	}
+	T, out := solveT(1, p, y, k, T0, TMin, Tmax)
+	if out < 0 {
+		return Props{}, below(k.input(), y, yAt(1, p, TMin, k), "below the value at 273.15 K, the lowest temperature of IAPWS-IF97")
+	}
+	return finish(gibbsProps(1, p, T)), nil
+}
+
+// vapourPY solves region 2 from Tmin (NaN: 273.15 K) to 1073.15 K, then region 5 up to
+// 2273.15 K.
+func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
+	lo := Tmin
+	if math.IsNaN(lo) {
+		lo = TMin
+	}
+	var T0 float64
+	if k == byH {
+		T0 = T2PH(p, y)
+	} else {
+		T0 = T2PS(p, y)
+	}
+	T, out := solveT(2, p, y, k, T0, lo, T25)
+	if out < 0 {
+		return Props{}, below(k.input(), y, yAt(2, p, lo, k), "below the lowest value at this pressure")
+	}
+	if out == 0 {
+		return finish(gibbsProps(2, p, T)), nil
+	}
+	// Region 5.
+	if p > P5Max {
+		return Props{}, above(k.input(), y, yAt(2, p, T25, k), "above 50 MPa IAPWS-IF97 ends at 1073.15 K")
+	}
+	T, out = solveT(5, p, y, k, T25+(TMax-T25)*0.3, T25, TMax)
+	if out > 0 {
+		return Props{}, above(k.input(), y, yAt(5, p, TMax, k), "above the value at 2273.15 K, the highest temperature of IAPWS-IF97")
+	}
+	return finish(gibbsProps(5, p, T)), nil
+}
+
+// subPY handles PSatMin <= p <= ps(623.15 K): liquid, two-phase or vapour, decided by the
+// saturated-liquid and saturated-vapour values at Ts(p).
+func subPY(p, y float64, k yKind) (Props, error) {
+	Ts := tsatEq(p)
+	if yf := yAt(1, p, Ts, k); y < yf {
+		return liquidPY(p, y, k, Ts)
+	}
+	if yg := yAt(2, p, Ts, k); y > yg {
+		return vapourPY(p, y, k, Ts)
+	}
+	l, g := satStates(p, Ts)
+	return mixY(l, g, y, k), nil
+}
+
+// mixY returns the two-phase state whose h or s is y.
+func mixY(l, g Props, y float64, k yKind) Props {
+	var x float64
+	if k == byH {
+		x = (y - l.H) / (g.H - l.H)
+	} else {
+		x = (y - l.S) / (g.S - l.S)
+	}
+	return mix(l, g, math.Min(1, math.Max(0, x)))
+}
+
+// superPY handles p > ps(623.15 K): region 1 up to 623.15 K, region 3 up to the B23 line,
+// region 2 and 5 above it; below 22.064 MPa region 3 holds a part of the two-phase region.
+func superPY(p, y float64, k yKind) (Props, error) {
+	if y <= yAt(1, p, T13, k) {
+		return liquidPY(p, y, k, T13)
+	}
+	TB := TB23(p)
+	if y >= yAt(2, p, TB, k) {
+		return vapourPY(p, y, k, TB)
+	}
+	if p < Pc {
+		lo, hi, ps := hf623, hg623, 0.0
+		if k == byS {
+			lo, hi = sf623, sg623
+		}
+		if y >= lo && y <= hi {
+			if k == byH {
+				ps = P3SatH(y)
+			} else {
+				ps = P3SatS(y)
+			}
+		}
+		if p <= ps*1.01 {
+			Ts := tsatEq(p)
+			l, g := satStates(p, Ts)
+			yf, yg := l.H, g.H
+			if k == byS {
+				yf, yg = l.S, g.S
+			}
+			if y >= yf && y <= yg {
+				return mixY(l, g, y, k), nil
+			}
+		}
+	}
+	return finish(region3PY(p, y, k)), nil
+}
+
+// region3PY solves region 3 at (p, y) by Newton steps in (ρ, T) on R7-97 Eq. (28), starting
+// from the backward equations of IAPWS SR3-03(2014).
+func region3PY(p, y float64, k yKind) Props {
+	var T, rho float64
+	if k == byH {
+		T, rho = T3PH(p, y), 1/V3PH(p, y)
+	} else {
+		T, rho = T3PS(p, y), 1/V3PS(p, y)
+	}
+	for it := 0; it < 60; it++ {
+		a := r3Helm(rho, T, wantAll)
+		f1 := a.p() - p
+		var f2, y1, y2 float64
+		if k == byH {
+			f2, y1, y2 = a.h()-y, a.dhdrho(), a.dhdT()
+		} else {
+			f2, y1, y2 = a.s()-y, a.dsdrho(), a.dsdT()
+		}
+		p1, p2 := a.dpdrho(), a.dpdT()
+		det := p1*y2 - p2*y1
+		if det == 0 {
+			break
+		}
+		dr := -(f1*y2 - p2*f2) / det
+		dT := -(p1*f2 - f1*y1) / det
+		// Damp steps that would leave the neighbourhood of the start.
+		sc := 1.0
+		if l := 0.05 * rho; math.Abs(dr) > l {
+			sc = l / math.Abs(dr)
+		}
+		if math.Abs(dT)*sc > 5 {
+			sc = 5 / math.Abs(dT)
+		}
+		rho += sc * dr
+		T += sc * dT
+		if math.Abs(dr) <= 1e-13*rho && math.Abs(dT) <= 1e-13*T {
+			break
+		}
+	}
+	a := r3Helm(rho, T, wantAll)
+	st := a.props()
+	st.P = p
+	return st
+}
