@@ -9,8 +9,8 @@ import "math"
 
 // Saturation end points at 623.15 K (R7-97 Eq. 30 with regions 1 and 2): they bound the part of
 // the saturation line that lies in region 3 (IAPWS SR3-03(2014) Section 4.3 quotes
-// h' = 1670.858218 kJ/kg, h'' = 2563.592004 kJ/kg, s' = 3.778281340 kJ/(kg·K),
-// s'' = 5.210887825 kJ/(kg·K)).
+// h' = 1670.858218 kJ/kg, h” = 2563.592004 kJ/kg, s' = 3.778281340 kJ/(kg·K),
+// s” = 5.210887825 kJ/(kg·K)).
 var (
 	hf623 = h1(PSat623, T13)
 	hg623 = h2(PSat623, T13)
