@@ -1,0 +1,87 @@
+package helmholtz
+
+import "math"
+
+// Ancillary equations: smooth fits of the saturation line of each
+// equation, used only as starting values for the saturation solver and to
+// find the phase quickly where a state is far from the saturation line.
+// Their coefficients are fitted to the equation itself by the test
+// TestDerived (run it with -update to refit) and stored in derived_gen.go.
+// With theta = 1 - T/Tc:
+//
+//	ln(p/Pc)     = (Tc/T) sum_i P_i  theta^(kP_i/6)
+//	rho'/RhoC    = 1 +    sum_i L_i  theta^(kL_i/6)
+//	ln(rho''/RhoC) = (Tc/T) sum_i V_i theta^(kV_i/6)
+//
+// where Tc, Pc and RhoC are the critical point of the equation.
+const nAnc = 8
+
+// fastMax is the highest T/Tc at which the phase is decided from the
+// ancillaries alone when a state is far enough from saturation.
+const fastMax = 0.98
+
+// Exponents of theta, in sixths.
+var (
+	ancKP = [nAnc]int{6, 9, 12, 15, 21, 30, 36, 48}
+	ancKL = [nAnc]int{2, 3, 4, 6, 9, 15, 24, 36}
+	ancKV = [nAnc]int{2, 3, 4, 6, 9, 15, 24, 36}
+)
+
+// ancillary holds the fitted coefficients and the critical point of the
+// equation (found by TestDerived as the point where dp/drho and
+// d2p/drho2 vanish).
+type ancillary struct {
+	Tc, Pc, RhoC float64
+	RhoMax       float64 // liquid density at (Tmin, Pmax)
+	Pmin         float64 // saturation pressure at Tmin
+	P, L, V      [nAnc]float64
+	// PErr, LErr, VErr are the largest relative deviations of the fits from
+	// the equation up to fastMax*Tc, where the solvers use them to decide
+	// the phase; they widen their margins by them.
+	PErr, LErr, VErr float64
+}
+
+// ancSat is one estimated saturation point.
+type ancSat struct{ p, rhoL, rhoV float64 }
+
+// sixths returns theta^(k/6) for k = 0..48.
+func sixths(theta float64, pw *[49]float64) {
+	s := math.Cbrt(math.Sqrt(theta))
+	pw[0] = 1
+	for k := 1; k < len(pw); k++ {
+		pw[k] = pw[k-1] * s
+	}
+}
+
+// estimate evaluates the ancillaries at T < Tc.
+func (a *ancillary) estimate(T float64) ancSat {
+	var pw [49]float64
+	sixths(1-T/a.Tc, &pw)
+	var sp, sl, sv float64
+	for i := 0; i < nAnc; i++ {
+		sp += a.P[i] * pw[ancKP[i]]
+		sl += a.L[i] * pw[ancKL[i]]
+		sv += a.V[i] * pw[ancKV[i]]
+	}
+	r := a.Tc / T
+	return ancSat{p: a.Pc * math.Exp(r*sp), rhoL: a.RhoC * (1 + sl), rhoV: a.RhoC * math.Exp(r*sv)}
+}
+
+// tsatEstimate inverts the vapour-pressure ancillary by Newton's method in
+// 1/T; p must lie below Pc.
+func (a *ancillary) tsatEstimate(p float64) float64 {
+	y := math.Log(p / a.Pc)
+	T := a.Tc / (1 - y/7) // rough start: ln(p/pc) ~ 7 (1 - Tc/T)
+	for it := 0; it < 50; it++ {
+		f := math.Log(a.estimate(T).p/a.Pc) - y
+		h := 1e-6 * T
+		g := (math.Log(a.estimate(T-h).p/a.Pc) - y - f) / -h
+		dT := f / g
+		dT = math.Max(math.Min(dT, 0.5*T), -0.5*(a.Tc-T))
+		T -= dT
+		if math.Abs(dT) < 1e-12*T {
+			break
+		}
+	}
+	return T
+}

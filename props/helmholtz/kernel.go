@@ -1,0 +1,193 @@
+package helmholtz
+
+import "math"
+
+// Limits of the kernel's fixed-size work arrays; gen checks every table
+// against them.
+const (
+	maxTerms = 24 // residual terms per equation
+	maxPow   = 10 // highest density exponent d or l
+)
+
+// term is one residual term
+//
+//	n delta^d tau^t exp(-delta^l) exp(-eta (delta-eps)^2 - beta (tau-gamma)^2)
+//
+// with l = 0 meaning no exp(-delta^l) factor and eta = beta = 0 meaning no
+// Gaussian factor. Polynomial terms have l = 0 and no Gaussian factor.
+type term struct {
+	n, t                  float64
+	d, l                  int
+	eta, beta, gamma, eps float64
+}
+
+// powTerm is an ideal-gas term n tau^t (integration constants and the
+// integrated cp0 polynomial).
+type powTerm struct{ n, t float64 }
+
+// idealTerm is an ideal-gas term with coefficient n and a characteristic
+// temperature reduced by Tred.
+type idealTerm struct{ n, theta float64 }
+
+// equation holds one equation of state in reduced form. Residual terms are
+// sorted polynomial, exponential, Gaussian; nPol and nExp count the first
+// two kinds.
+type equation struct {
+	tRed, rhoRed float64
+	nPol, nExp   int
+	terms        []term
+
+	logTau float64     // alpha0 += logTau ln tau
+	pow    []powTerm   // alpha0 += n tau^t
+	pe     []idealTerm // alpha0 += n ln(1 - exp(-theta tau))
+	sinh   []idealTerm // alpha0 += n ln sinh(theta tau)
+	cosh   []idealTerm // alpha0 -= n ln cosh(theta tau)
+}
+
+// tauPart holds everything of the residual part that depends on tau only:
+// for term i, A = n tau^t exp(-beta (tau-gamma)^2), a1 = tau A'/A and
+// a2 = tau^2 A”/A. Solvers that hold T fixed compute it once.
+type tauPart struct {
+	tau        float64
+	A, a1, a2  [maxTerms]float64
+	ideal      idealTau
+	idealValid bool
+}
+
+// idealTau is the ideal-gas part without its ln delta term: alpha0 - ln
+// delta, tau alpha0_tau and tau^2 alpha0_tautau.
+type idealTau struct{ a, t, tt float64 }
+
+// resid holds alphar and its scaled derivatives:
+// d = delta ar_delta, dd = delta^2 ar_deltadelta, t = tau ar_tau,
+// tt = tau^2 ar_tautau, dt = delta tau ar_deltatau.
+type resid struct{ a, d, dd, t, tt, dt float64 }
+
+// newTauPart evaluates the tau factors of every residual term (one exp
+// each) and, if withIdeal, the ideal-gas part.
+func (e *equation) newTauPart(tau float64, withIdeal bool, tp *tauPart) {
+	tp.tau = tau
+	lt := math.Log(tau)
+	for i := range e.terms {
+		k := &e.terms[i]
+		if k.beta == 0 {
+			tp.A[i] = k.n * math.Exp(k.t*lt)
+			tp.a1[i] = k.t
+			tp.a2[i] = k.t * (k.t - 1)
+			continue
+		}
+		dt := tau - k.gamma
+		tp.A[i] = k.n * math.Exp(k.t*lt-k.beta*dt*dt)
+		a1 := k.t - 2*k.beta*tau*dt
+		tp.a1[i] = a1
+		tp.a2[i] = a1*a1 - k.t - 2*k.beta*tau*tau
+	}
+	tp.idealValid = withIdeal
+	if withIdeal {
+		tp.ideal = e.idealAt(tau, lt)
+	}
+}
+
+// residual sums the residual terms at delta, given their tau factors.
+func (e *equation) residual(tp *tauPart, delta float64) resid {
+	var pw [maxPow + 1]float64
+	pw[0] = 1
+	for i := 1; i <= maxPow; i++ {
+		pw[i] = pw[i-1] * delta
+	}
+	var r resid
+	add := func(i int, b0, b1, b2 float64) {
+		g := tp.A[i] * b0
+		a1 := tp.a1[i]
+		r.a += g
+		r.d += g * b1
+		r.dd += g * b2
+		r.t += g * a1
+		r.tt += g * tp.a2[i]
+		r.dt += g * a1 * b1
+	}
+	terms := e.terms
+	for i := 0; i < e.nPol; i++ {
+		d := float64(terms[i].d)
+		add(i, pw[terms[i].d], d, d*(d-1))
+	}
+	var el [maxPow + 1]float64 // exp(-delta^l), computed once per l
+	for i := e.nPol; i < e.nPol+e.nExp; i++ {
+		k := &terms[i]
+		if el[k.l] == 0 {
+			el[k.l] = math.Exp(-pw[k.l])
+		}
+		d, l, dl := float64(k.d), float64(k.l), pw[k.l]
+		b1 := d - l*dl
+		add(i, pw[k.d]*el[k.l], b1, b1*b1-d-l*(l-1)*dl)
+	}
+	for i := e.nPol + e.nExp; i < len(terms); i++ {
+		k := &terms[i]
+		dd := delta - k.eps
+		d := float64(k.d)
+		b1 := d - 2*k.eta*delta*dd
+		add(i, pw[k.d]*math.Exp(-k.eta*dd*dd), b1, b1*b1-d-2*k.eta*delta*delta)
+	}
+	return r
+}
+
+// idealAt evaluates the ideal-gas part without ln delta; lt = ln tau.
+func (e *equation) idealAt(tau, lt float64) idealTau {
+	v := idealTau{a: e.logTau * lt, t: e.logTau, tt: -e.logTau}
+	for _, p := range e.pow {
+		x := p.n * math.Exp(p.t*lt)
+		v.a += x
+		v.t += p.t * x
+		v.tt += p.t * (p.t - 1) * x
+	}
+	for _, p := range e.pe {
+		x := p.theta * tau
+		em := math.Exp(-x)
+		q := 1 - em
+		v.a += p.n * math.Log1p(-em)
+		v.t += p.n * x * em / q
+		v.tt -= p.n * x * x * em / (q * q)
+	}
+	for _, p := range e.sinh {
+		x := p.theta * tau
+		em := math.Exp(-2 * x)
+		q := 1 - em
+		v.a += p.n * (x - math.Ln2 + math.Log1p(-em))
+		v.t += p.n * x * (1 + em) / q
+		v.tt -= p.n * 4 * x * x * em / (q * q)
+	}
+	for _, p := range e.cosh {
+		x := p.theta * tau
+		em := math.Exp(-2 * x)
+		q := 1 + em
+		v.a -= p.n * (x - math.Ln2 + math.Log1p(em))
+		v.t -= p.n * x * (1 - em) / q
+		v.tt -= p.n * 4 * x * x * em / (q * q)
+	}
+	return v
+}
+
+// Reduced holds the reduced Helmholtz energy and its partial derivatives at
+// one (tau, delta): the ideal-gas part A0 and the residual part Ar, with
+// suffixes naming the variables of differentiation (d for delta, t for
+// tau). A0d = 1/delta and A0dd = -1/delta^2 are omitted.
+type Reduced struct {
+	A0, A0t, A0tt                  float64
+	Ar, Ard, Ardd, Art, Artt, Ardt float64
+}
+
+// Alpha evaluates the reduced Helmholtz energy and its derivatives at
+// tau = Tred/T and delta = rho/RhoRed, without any range check. It is the
+// kernel the properties are built from, exported for tests and for callers
+// that need derivatives the Props type does not carry.
+func (f *Fluid) Alpha(tau, delta float64) Reduced {
+	var tp tauPart
+	f.eos.newTauPart(tau, true, &tp)
+	r := f.eos.residual(&tp, delta)
+	i := tp.ideal
+	return Reduced{
+		A0: i.a + math.Log(delta), A0t: i.t / tau, A0tt: i.tt / (tau * tau),
+		Ar: r.a, Ard: r.d / delta, Ardd: r.dd / (delta * delta),
+		Art: r.t / tau, Artt: r.tt / (tau * tau), Ardt: r.dt / (delta * tau),
+	}
+}
