@@ -1,0 +1,99 @@
+package main
+
+import (
+	"go/parser"
+	"go/token"
+	"os"
+	"path/filepath"
+	"sort"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// allowed lists, per package of this module, the packages of this module
+// and the third-party modules it may import (STYLE.md habit 9: imports run
+// cmd → calcdoc → eval → props → units). Standard-library imports are free,
+// except for the numerics packages, which may import only math.
+var allowed = map[string][]string{
+	"cmd/vouch":          {"calcdoc", "calcdoc/provenance", "eval", "units", "props"},
+	"calcdoc":            {"calcdoc/provenance", "eval", "props", "units", "templates", "svgplot", "github.com/yuin/goldmark", "go.yaml.in/yaml/v3"},
+	"calcdoc/provenance": {"github.com/go-git/go-git/v5", "golang.org/x/crypto"},
+	"eval":               {"props", "units", "github.com/expr-lang/expr"},
+	"props":              {"props/if97", "props/helmholtz", "units"},
+	"props/if97":         {},
+	"props/helmholtz":    {},
+	"units":              {},
+	"templates":          {},
+	"svgplot":            {},
+}
+
+// mathOnly are the numerics packages: their non-test files import only math.
+var mathOnly = map[string]bool{"props/if97": true, "props/helmholtz": true}
+
+func TestImportLayout(t *testing.T) {
+	root := filepath.Join("..", "..")
+	imports := map[string]map[string]bool{}
+	err := filepath.WalkDir(root, func(path string, d os.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		if d.IsDir() && (strings.HasPrefix(d.Name(), ".") || d.Name() == "testdata" || d.Name() == "gen") {
+			return filepath.SkipDir
+		}
+		if d.IsDir() || !strings.HasSuffix(path, ".go") || strings.HasSuffix(path, "_test.go") {
+			return nil
+		}
+		rel, _ := filepath.Rel(root, filepath.Dir(path))
+		rel = filepath.ToSlash(rel)
+		f, err := parser.ParseFile(token.NewFileSet(), path, nil, parser.ImportsOnly)
+		if err != nil {
+			return err
+		}
+		if imports[rel] == nil {
+			imports[rel] = map[string]bool{}
+		}
+		for _, im := range f.Imports {
+			p, _ := strconv.Unquote(im.Path.Value)
+			imports[rel][p] = true
+		}
+		return nil
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var pkgs []string
+	for p := range imports {
+		pkgs = append(pkgs, p)
+	}
+	sort.Strings(pkgs)
+	for _, pkg := range pkgs {
+		ok, known := allowed[pkg]
+		if !known {
+			t.Errorf("package %s is not in the layout table of layout_test.go; add it with its allowed imports", pkg)
+			continue
+		}
+		for im := range imports[pkg] {
+			if !permitted(pkg, im, ok) {
+				t.Errorf("%s imports %s, which the layout does not allow", pkg, im)
+			}
+		}
+	}
+}
+
+func permitted(pkg, im string, ok []string) bool {
+	if mathOnly[pkg] {
+		return im == "math"
+	}
+	own := strings.HasPrefix(im, "vouch/")
+	if !own && !strings.Contains(strings.SplitN(im, "/", 2)[0], ".") {
+		return true // standard library
+	}
+	im = strings.TrimPrefix(im, "vouch/")
+	for _, a := range ok {
+		if im == a || strings.HasPrefix(im, a+"/") && !own {
+			return true
+		}
+	}
+	return false
+}
