@@ -49,6 +49,8 @@ const (
 	reasonHmax  = "highest enthalpy at this pressure within the equation's range"
 	reasonSmin  = "lowest entropy at this pressure within the equation's range"
 	reasonSmax  = "highest entropy at this pressure within the equation's range"
+	reasonHminS = "lowest enthalpy at this entropy within the equation's range"
+	reasonHmaxS = "highest enthalpy at this entropy within the equation's range"
 )
 
 // Reasons used in SolveError.
