@@ -1,0 +1,231 @@
+package calcdoc
+
+import (
+	"html"
+	"strconv"
+	"strings"
+
+	"vouch/units"
+)
+
+// greek maps letter names to Greek letters (lower and upper case).
+var greek = map[string]string{
+	"alpha": "α", "beta": "β", "gamma": "γ", "delta": "δ", "epsilon": "ε", "zeta": "ζ", "eta": "η",
+	"theta": "θ", "iota": "ι", "kappa": "κ", "lambda": "λ", "mu": "μ", "nu": "ν", "xi": "ξ", "pi": "π",
+	"rho": "ρ", "sigma": "σ", "tau": "τ", "phi": "φ", "chi": "χ", "psi": "ψ", "omega": "ω",
+	"Gamma": "Γ", "Delta": "Δ", "Theta": "Θ", "Lambda": "Λ", "Xi": "Ξ", "Pi": "Π", "Sigma": "Σ",
+	"Phi": "Φ", "Psi": "Ψ", "Omega": "Ω",
+}
+
+// NameMathML typesets a calc name: the part before the first _ is the
+// symbol (a Greek letter when it names one), the rest its subscript, with
+// further _ shown as commas; "dot" right after the symbol puts a dot over
+// it (m_dot → ṁ).
+func NameMathML(name string) string {
+	base, sub, _ := strings.Cut(name, "_")
+	sym := greekOr(base)
+	if rest, ok := cutWord(sub, "dot"); ok {
+		sym = "<mover accent=\"true\">" + sym + "<mo>˙</mo></mover>"
+		sub = rest
+	}
+	if sub == "" {
+		return sym
+	}
+	parts := strings.Split(sub, "_")
+	for i, p := range parts {
+		parts[i] = html.EscapeString(greekText(p))
+	}
+	return "<msub>" + sym + "<mi mathvariant=\"normal\">" + strings.Join(parts, ",") + "</mi></msub>"
+}
+
+// cutWord removes a leading word and the _ after it.
+func cutWord(s, w string) (string, bool) {
+	if s == w {
+		return "", true
+	}
+	if strings.HasPrefix(s, w+"_") {
+		return s[len(w)+1:], true
+	}
+	return s, false
+}
+
+func greekOr(base string) string {
+	if g, ok := greek[base]; ok {
+		return "<mi>" + g + "</mi>"
+	}
+	if len([]rune(base)) > 1 {
+		return "<mi mathvariant=\"italic\">" + html.EscapeString(base) + "</mi>"
+	}
+	return "<mi>" + html.EscapeString(base) + "</mi>"
+}
+
+func greekText(s string) string {
+	if g, ok := greek[s]; ok {
+		return g
+	}
+	return s
+}
+
+// NameText is a name typeset as plain HTML text with a subscript, for
+// tables outside MathML.
+func NameText(name string) string {
+	base, sub, _ := strings.Cut(name, "_")
+	sym := html.EscapeString(greekText(base))
+	if rest, ok := cutWord(sub, "dot"); ok {
+		sym += "\u0307"
+		sub = rest
+	}
+	if sub == "" {
+		return "<i>" + sym + "</i>"
+	}
+	parts := strings.Split(sub, "_")
+	for i, p := range parts {
+		parts[i] = html.EscapeString(greekText(p))
+	}
+	return "<i>" + sym + "</i><sub>" + strings.Join(parts, ",") + "</sub>"
+}
+
+// groupDigits inserts thin spaces between groups of three digits (ISO
+// 80000-1) in the integer part when it has five or more digits, and in the
+// fraction when it has five or more.
+func groupDigits(s string) string {
+	sign := ""
+	if strings.HasPrefix(s, "-") {
+		sign, s = "−", s[1:]
+	}
+	intPart, frac, hasFrac := strings.Cut(s, ".")
+	if len(intPart) >= 5 {
+		var b strings.Builder
+		for i, c := range intPart {
+			if i > 0 && (len(intPart)-i)%3 == 0 {
+				b.WriteString("\u2009")
+			}
+			b.WriteRune(c)
+		}
+		intPart = b.String()
+	}
+	if hasFrac && len(frac) >= 5 {
+		var b strings.Builder
+		for i, c := range frac {
+			if i > 0 && i%3 == 0 {
+				b.WriteString("\u2009")
+			}
+			b.WriteRune(c)
+		}
+		frac = b.String()
+	}
+	if hasFrac {
+		return sign + intPart + "." + frac
+	}
+	return sign + intPart
+}
+
+// NumberText formats a number with significant figures as an engineer
+// writes it: grouped digits, and "1.234 × 10⁻⁵" where fixed notation would
+// be unreadable. It returns HTML.
+func NumberText(v float64, digits int) string {
+	s := units.FormatSig(v, digits)
+	mant, exp, sci := strings.Cut(s, "e")
+	if !sci {
+		return groupDigits(s)
+	}
+	return groupDigits(mant) + "\u2009×\u200910<sup>" + strings.Replace(exp, "-", "−", 1) + "</sup>"
+}
+
+// numberMathML writes a number: with significant figures, or exactly as the
+// shortest text that reads back to it when exact is set.
+func numberMathML(v float64, digits int, exact bool) string {
+	var s string
+	if exact {
+		s = strconv.FormatFloat(v, 'g', -1, 64)
+		if strings.ContainsAny(s, "e") && v >= 1e-3 && v < 1e15 {
+			s = strconv.FormatFloat(v, 'f', -1, 64)
+		}
+	} else {
+		s = units.FormatSig(v, digits)
+	}
+	mant, exp, sci := strings.Cut(s, "e")
+	if !sci {
+		return "<mn>" + groupDigits(s) + "</mn>"
+	}
+	exp = strings.TrimPrefix(exp, "+")
+	return "<mrow><mn>" + groupDigits(mant) + "</mn><mo>×</mo><msup><mn>10</mn><mn>" + strings.Replace(exp, "-", "−", 1) + "</mn></msup></mrow>"
+}
+
+func parseNum(s string) float64 {
+	v, _ := strconv.ParseFloat(s, 64)
+	return v
+}
+
+var superscripts = strings.NewReplacer("-", "⁻", "0", "⁰", "1", "¹", "2", "²", "3", "³", "4", "⁴", "5", "⁵", "6", "⁶", "7", "⁷", "8", "⁸", "9", "⁹")
+
+// UnitText typesets a unit as text: kJ/(kg·K), m³/kg, °C. It returns plain
+// text (escape it for HTML).
+func UnitText(u units.Unit) string {
+	syms, pows := u.Symbols()
+	var num, den []string
+	for i, s := range syms {
+		t := units.Typeset(s)
+		n := pows[i]
+		if n < 0 {
+			n = -n
+		}
+		if n != 1 {
+			t += superscripts.Replace(strconv.Itoa(n))
+		}
+		if pows[i] > 0 {
+			num = append(num, t)
+		} else {
+			den = append(den, t)
+		}
+	}
+	if len(num) == 0 && len(den) == 0 {
+		return ""
+	}
+	n := strings.Join(num, "·")
+	if n == "" {
+		n = "1"
+	}
+	switch len(den) {
+	case 0:
+		return n
+	case 1:
+		return n + "/" + den[0]
+	}
+	return n + "/(" + strings.Join(den, "·") + ")"
+}
+
+// unitMathML writes a unit after a number.
+func unitMathML(u units.Unit) string {
+	t := UnitText(u)
+	if t == "" {
+		return ""
+	}
+	if t == "%" || strings.HasPrefix(t, "°") {
+		return "<mtext>\u2009" + html.EscapeString(t) + "</mtext>"
+	}
+	return "<mtext>\u2009" + html.EscapeString(t) + "</mtext>"
+}
+
+// quantityMathML writes a quantity in a unit with significant figures.
+func quantityMathML(q units.Quantity, u units.Unit, digits int, ctx units.Context) string {
+	v, err := q.In(u, ctx)
+	if err != nil {
+		u = units.DefaultUnit(units.Quantity{V: q.V, D: q.D})
+		v = q.V / u.Factor
+	}
+	return "<mrow>" + numberMathML(v, digits, false) + unitMathML(u) + "</mrow>"
+}
+
+// QuantityText formats a quantity in a unit as HTML text: "3449 kJ/kg".
+func QuantityText(q units.Quantity, u units.Unit, digits int, ctx units.Context) string {
+	v, err := q.In(u, ctx)
+	if err != nil {
+		return html.EscapeString(err.Error())
+	}
+	s := NumberText(v, digits)
+	if t := UnitText(u); t != "" {
+		s += "\u2009" + html.EscapeString(t)
+	}
+	return s
+}

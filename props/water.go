@@ -1,0 +1,151 @@
+package props
+
+import (
+	"errors"
+	"fmt"
+
+	"vouch/props/if97"
+	"vouch/units"
+)
+
+// IF97 names the water formulation in packages and manifests.
+const (
+	IF97          = "IAPWS-IF97"
+	IF97Version   = "IAPWS R7-97(2012), SR2-01(2014), SR3-03(2014), SR4-04(2014), SR5-05(2016); transport R12-08, R15-11"
+	IF97Reference = "IF97: u and s of saturated liquid at the triple point are zero"
+)
+
+// Water returns the state of water or steam from two properties, read from
+// their dimensions (IAPWS-IF97).
+func Water(a, b units.Quantity) (*State, error) {
+	ka, kb, qa, qb, err := pair("water", a, b)
+	if err != nil {
+		return nil, err
+	}
+	if err := positive("water", ka, qa, kb, qb); err != nil {
+		return nil, err
+	}
+	var p if97.Props
+	switch string(ka) + "," + string(kb) {
+	case "p,T":
+		p, err = if97.StatePT(qa.V, qb.V)
+	case "p,h":
+		p, err = if97.StatePH(qa.V, qb.V)
+	case "p,s":
+		p, err = if97.StatePS(qa.V, qb.V)
+	case "h,s":
+		p, err = if97.StateHS(qa.V, qb.V)
+	case "p,x":
+		p, err = if97.StatePX(qa.V, qb.V)
+	case "T,x":
+		p, err = if97.StateTX(qa.V, qb.V)
+	case "p,v":
+		p, err = if97.StatePV(qa.V, qb.V)
+	case "T,v":
+		p, err = if97.StateTV(qa.V, qb.V)
+	default:
+		return nil, fmt.Errorf("water(%s, %s) is not a pair the formulation can solve; use one of %s", ka, kb, joinFields(Pairs))
+	}
+	if err != nil {
+		return nil, rangeMessage(fmt.Sprintf("water(%s, %s)", ka, kb), IF97, err)
+	}
+	return waterState(p), nil
+}
+
+// waterState adds the transport properties and converts to quantities.
+func waterState(p if97.Props) *State {
+	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
+		Phase: p.Phase.String(), Region: p.Region, TwoPhase: p.Phase == if97.TwoPhase}
+	if !n.TwoPhase || p.X == 0 || p.X == 1 {
+		if mu, err := if97.Viscosity(p.Rho, p.T); err == nil {
+			n.Mu = mu
+		}
+		if k, err := if97.Conductivity(p.Rho, p.T); err == nil {
+			n.K = k
+		}
+	}
+	return n.state("water", IF97, IF97Reference)
+}
+
+// WaterSat returns the saturation line of water at a pressure or a
+// temperature (IAPWS-IF97 region 4).
+func WaterSat(x units.Quantity) (*Sat, error) {
+	var s if97.Sat
+	var err error
+	var name string
+	switch x.D {
+	case units.DimPressure:
+		name = "water_sat(p)"
+		s, err = if97.SatP(x.V)
+	case units.DimTemperature:
+		name = "water_sat(T)"
+		s, err = if97.SatT(x.V)
+	default:
+		return nil, fmt.Errorf("water_sat needs a pressure or a temperature, not %s", x.D.Name())
+	}
+	if err != nil {
+		return nil, rangeMessage(name, IF97, err)
+	}
+	return numSat{P: s.P, T: s.T, Hf: s.Hf, Hg: s.Hg, Sf: s.Sf, Sg: s.Sg, Vf: s.Vf, Vg: s.Vg}.sat("water", IF97, IF97Reference), nil
+}
+
+// positive refuses non-positive pressures, temperatures and volumes before
+// the numerics see them.
+func positive(fn string, ka kind, qa units.Quantity, kb kind, qb units.Quantity) error {
+	for _, a := range []struct {
+		k kind
+		q units.Quantity
+	}{{ka, qa}, {kb, qb}} {
+		if (a.k == kP || a.k == kT || a.k == kV) && !(a.q.V > 0) {
+			return fmt.Errorf("%s: %s = %s must be above zero", fn, a.k, showValue(string(a.k), a.q.V))
+		}
+	}
+	return nil
+}
+
+// rangeError is what both numerics packages return for an input outside
+// their range.
+type rangeError interface {
+	error
+	Detail() (input string, value, limit float64, above bool, reason string)
+}
+
+// rangeMessage turns a numerics range error into a message with values.
+func rangeMessage(call, formulation string, err error) error {
+	var re *if97.RangeError
+	if errors.As(err, &re) {
+		return fmt.Errorf("%s: %s", call, limitText(re.Input, re.Value, re.Limit, re.Above, re.Reason, formulation))
+	}
+	if r, ok := err.(rangeError); ok {
+		in, v, l, above, why := r.Detail()
+		return fmt.Errorf("%s: %s", call, limitText(in, v, l, above, why, formulation))
+	}
+	return fmt.Errorf("%s: %v", call, err)
+}
+
+func limitText(input string, v, limit float64, above bool, reason, formulation string) string {
+	side := "below the lower"
+	if above {
+		side = "above the upper"
+	}
+	msg := fmt.Sprintf("%s = %s is %s limit %s of %s", input, showValue(input, v), side, showValue(input, limit), formulation)
+	if reason != "" {
+		msg += " (" + reason + ")"
+	}
+	return msg
+}
+
+// showValue formats an SI value of a named input in the unit engineers use
+// for it.
+func showValue(input string, v float64) string {
+	unit := map[string]string{"p": "MPa", "T": "K", "h": "kJ/kg", "s": "kJ/(kg*K)", "v": "m^3/kg", "rho": "kg/m^3", "u": "kJ/kg"}[input]
+	if unit == "" {
+		return units.FormatSig(v, 6)
+	}
+	u := units.MustParse(unit)
+	s := units.FormatSig(v/u.Factor, 6) + " " + unit
+	if input == "T" {
+		s += " (" + units.FormatSig(v-273.15, 6) + " °C)"
+	}
+	return s
+}
