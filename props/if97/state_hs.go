@@ -257,4 +257,3 @@ func twoPhaseHS(h, s float64) (Props, bool) {
 	}
 	return mix(l, gv, math.Min(1, math.Max(0, x))), true
 }
-
