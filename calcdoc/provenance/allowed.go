@@ -39,6 +39,7 @@ type AllowedSignersError struct {
 	Msg  string
 }
 
+// Error formats the error as "line N: message".
 func (e *AllowedSignersError) Error() string { return fmt.Sprintf("line %d: %s", e.Line, e.Msg) }
 
 // Unwrap returns ErrAllowedSigners.

@@ -57,9 +57,14 @@ type Signature struct {
 	Signature   string `json:"signature"`   // armored SSHSIG
 }
 
-// Canonical returns the manifest as canonical JSON (see canonical.go): the
-// same manifest always gives the same bytes. A NaN or infinite result, or a
-// string that is not UTF-8, is an error.
+// Canonical returns the manifest as canonical JSON, so that the same
+// manifest gives the same bytes on every machine: keys sorted by their
+// bytes, no whitespace, numbers as strconv.FormatFloat(f, 'g', -1, 64)
+// writes them (the shortest text that reads back to the same bits), strings
+// as UTF-8 with only the escapes \" \\ \n \r \t, \u00XX for other control
+// characters and \u003c \u003e \u0026 for < > & (so the text can sit in an
+// HTML script element), and nil slices as []. A NaN or infinite number, or
+// a string that is not UTF-8, is an error. The result has no final newline.
 func (m *Manifest) Canonical() ([]byte, error) {
 	return writeCanonical(nil, m.object(true))
 }

@@ -1,0 +1,32 @@
+package provenance
+
+import (
+	"go/parser"
+	"go/token"
+	"path/filepath"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// TestImportsNoVouchPackage holds the one-way import rule: calcdoc imports
+// this package, and this package imports nothing of vouch.
+func TestImportsNoVouchPackage(t *testing.T) {
+	files, err := filepath.Glob("*.go")
+	if err != nil {
+		t.Fatal(err)
+	}
+	fset := token.NewFileSet()
+	for _, f := range files {
+		ast, err := parser.ParseFile(fset, f, nil, parser.ImportsOnly)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, imp := range ast.Imports {
+			path, _ := strconv.Unquote(imp.Path.Value)
+			if path == "vouch" || strings.HasPrefix(path, "vouch/") {
+				t.Errorf("%s imports %s: provenance must import no vouch package", f, path)
+			}
+		}
+	}
+}
