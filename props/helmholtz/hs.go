@@ -10,7 +10,7 @@ func (f *Fluid) StateHS(h, s float64) (Props, error) {
 	var last Props
 	var err error
 	eval := func(lnp float64) (float64, float64) {
-		p := math.Exp(lnp)
+		p := math.Min(math.Exp(lnp), f.Pmax) // exp(ln Pmax) may round above Pmax
 		last, err = f.StatePS(p, s)
 		if err != nil {
 			return hsSignal(err), 0

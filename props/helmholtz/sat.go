@@ -103,9 +103,12 @@ func (f *Fluid) satNewton(tp *tauPart, T, rhoL, rhoV float64) (satPoint, bool) {
 		// Far below Tc the liquid pressure is a small difference of large
 		// terms: its round-off, not satTol, bounds f1, and the iteration
 		// has converged when its steps are at round-off.
-		if math.Abs(f2) <= satTol && (math.Abs(f1) <= satTol*pV ||
-			math.Abs(xL) <= 1e-13*dL && math.Abs(xV) <= 1e-13*dV) {
+		if math.Abs(f1) <= satTol*pV && math.Abs(f2) <= satTol {
 			return f.satDone(tp, T, dL, dV), true
+		}
+		if math.Abs(xL) <= 1e-12*dL && math.Abs(xV) <= 1e-12*dV {
+			// One more step reaches round-off: convergence is quadratic.
+			return f.satDone(tp, T, dL+xL, dV+xV), true
 		}
 		dL = clampStep(dL, xL)
 		dV = clampStep(dV, xV)
