@@ -76,6 +76,9 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 	if err := f.checkP(p); err != nil {
 		return Props{}, err
 	}
+	if err := checkFinite(byName(by), target); err != nil {
+		return Props{}, err
+	}
 	if p >= f.Pc || p < f.Pmin() { // no saturation state at this pressure
 		return f.solveIsobar(op, p, target, by, isobar{lo: f.Tmin, hi: f.Tmax})
 	}
@@ -114,6 +117,21 @@ type isobar struct {
 	lo, hi, ylo, yhi float64
 	loKnown, hiKnown bool
 	cap              float64
+}
+
+func byName(by int) string {
+	if by == byH {
+		return "h"
+	}
+	return "s"
+}
+
+// checkFinite rejects NaN and infinite inputs.
+func checkFinite(in string, v float64) error {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return &RangeError{Input: in, Value: v, Limit: math.Copysign(math.MaxFloat64, v), Above: v > 0, Reason: reasonFinite}
+	}
+	return nil
 }
 
 func pick(pr Props, by int) float64 {

@@ -7,6 +7,12 @@ import "math"
 // using (dh/dp) at constant s = v, from the lowest saturation pressure of
 // the equation (divided by 100) up to Pmax.
 func (f *Fluid) StateHS(h, s float64) (Props, error) {
+	if err := checkFinite("h", h); err != nil {
+		return Props{}, err
+	}
+	if err := checkFinite("s", s); err != nil {
+		return Props{}, err
+	}
 	var last Props
 	var err error
 	eval := func(lnp float64) (float64, float64) {

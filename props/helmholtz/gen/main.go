@@ -236,6 +236,13 @@ func emit(f *file) (string, error) {
 		return "", err
 	}
 	logTau, pow, rest, gotConst := idealPart(f, R, tRed)
+	if gotConst && m.a1 != 0 { // gen's constants replace the file's
+		if len(pow) < 2 || !strings.HasSuffix(pow[0], ", 0}") || !strings.HasSuffix(pow[1], ", 1}") {
+			return "", fmt.Errorf("integration constants are not the first two ideal rows")
+		}
+		pow = pow[2:]
+		gotConst = false
+	}
 	if !gotConst {
 		if m.a1 == 0 && m.a2 == 0 {
 			return "", fmt.Errorf("no integration constants in file or gen table")
@@ -248,7 +255,7 @@ func emit(f *file) (string, error) {
 		return "", fmt.Errorf("unknown reference state %q", m.ref)
 	}
 	if !gotConst {
-		ref += " (integration constants derived for this convention; the paper gives none)"
+		ref += " (integration constants derived for this convention, not taken from the paper)"
 	}
 	var b strings.Builder
 	fmt.Fprintf(&b, "// %s: %s\n// %s\nvar %s = Fluid{\n", varName(f.id), f.header["fluid"], f.header["paper"], varName(f.id))
