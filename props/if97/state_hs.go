@@ -58,12 +58,14 @@ func StateHS(h, s float64) (Props, error) {
 		}
 	default:
 		var ok bool
+		p0 := p
 		p, T, ok = gibbsHS(region, h, s, p, T)
-		if region == 2 && ok && T > T25 {
-			p, T, ok = gibbsHS(5, h, s, p, T)
+		if region == 2 && (!ok || T > T25) {
+			p, T, ok = gibbsHS(5, h, s, p0, math.Max(T, 1500))
 			region = 5
 		}
 		if ok {
+			p = snapLimit(p, T)
 			if err := checkPT(p, T); err != nil {
 				return Props{}, err
 			}
@@ -202,20 +204,19 @@ func twoPhaseHS(h, s float64) (Props, bool) {
 		}
 		return l.H + (s-l.S)*(v.H-l.H)/(v.S-l.S) - h
 	}
-	// g < 0 at 273.15 K for a state above the 273.15 K isobar; scan upward for the first sign
-	// change (beyond the valid root, where x would leave 0..1, g can turn negative again).
-	a, fa := TMin, g(TMin)
-	if fa > 0 {
+	// On [273.15 K, Tend], where Tend is the saturation temperature whose s' (liquid side) or
+	// s'' (vapour side) equals s, the quality lies in 0..1 and g rises; beyond Tend g can turn
+	// negative again.
+	Tend, ok := satTempOfS(s)
+	if !ok {
 		return Props{}, false
 	}
-	b, fb := a, fa
-	const n = 32
-	for k := 1; k <= n && fb < 0; k++ {
-		a, fa = b, fb
-		b = TMin + (Tc-TMin)*float64(k)/n
-		fb = g(b)
+	a, fa := TMin, g(TMin)
+	b, fb := Tend, g(Tend)
+	if fa > 0 && fa <= 1e-9*math.Abs(h) {
+		fa = 0
 	}
-	if fb < 0 {
+	if fa > 0 || fb < 0 {
 		return Props{}, false
 	}
 	side := 0
@@ -256,4 +257,46 @@ func twoPhaseHS(h, s float64) (Props, bool) {
 		return Props{}, false
 	}
 	return mix(l, gv, math.Min(1, math.Max(0, x))), true
+}
+
+// satTempOfS returns the saturation temperature at which the saturated liquid (s <= sc) or the
+// saturated vapour (s > sc) has entropy s.
+func satTempOfS(s float64) (float64, bool) {
+	liquid := s <= sc3
+	sat := func(T float64) float64 {
+		p := Pc
+		if T < Tc {
+			p = psatEq(T)
+		}
+		l, g := satStates(p, T)
+		if liquid {
+			return l.S
+		}
+		return -g.S
+	}
+	f := func(T float64) (float64, float64) {
+		const d = 1e-4
+		T0 := math.Min(T, Tc-d)
+		a := sat(T0)
+		return sat(T), (sat(T0+d) - a) / d
+	}
+	y := s
+	if !liquid {
+		y = -s
+	}
+	T, out := rising(f, y, (TMin+Tc)/2, TMin, Tc)
+	return T, out == 0
+}
+
+// snapLimit moves a pressure that passes the upper limit of IAPWS-IF97 at T by rounding only
+// (relative 1e-9) onto the limit.
+func snapLimit(p, T float64) float64 {
+	lim := PMax
+	if T > T25 {
+		lim = P5Max
+	}
+	if p > lim && p <= lim*(1+1e-9) {
+		return lim
+	}
+	return p
 }

@@ -57,7 +57,7 @@ func solveT(region int, p, y float64, k yKind, T, lo, hi float64) (float64, int)
 	for it := 0; it < 100; it++ {
 		f, df := ySlope(region, p, T, k)
 		e := f - y
-		if e == 0 {
+		if e == 0 || (T <= lo || T >= hi) && math.Abs(e) <= 1e-12*math.Abs(y) {
 			return T, 0
 		}
 		if e < 0 {

@@ -20,7 +20,7 @@ func rising(f func(x float64) (v, dv float64), y, x, lo, hi float64) (float64, i
 	for it := 0; it < 200; it++ {
 		v, dv := f(x)
 		e := v - y
-		if e == 0 {
+		if e == 0 || (x <= lo || x >= hi) && math.Abs(e) <= 1e-12*(math.Abs(y)+1) {
 			return x, 0
 		}
 		if e < 0 {
