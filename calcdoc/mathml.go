@@ -227,7 +227,7 @@ func idName(id *ast.IdentifierNode, ok bool) string {
 	return id.Value
 }
 
-// member writes st_1.h as h with the state's subscript: h₁.
+// member writes st_1.h as h(st₁): the field of the state.
 func (m *mathml) member(v *ast.MemberNode) {
 	prop, _ := v.Property.(*ast.StringNode)
 	if m.values != nil {
@@ -240,14 +240,9 @@ func (m *mathml) member(v *ast.MemberNode) {
 	if prop != nil {
 		field = prop.Value
 	}
-	if id, ok := v.Node.(*ast.IdentifierNode); ok {
-		sub := strings.TrimPrefix(id.Value, "st_")
-		m.w("<msub>" + NameMathML(field) + "<mrow>" + NameMathML(sub) + "</mrow></msub>")
-		return
-	}
-	m.w("<msub>" + NameMathML(field) + "<mrow>")
+	m.w("<mrow>" + NameMathML(field) + "<mo>(</mo>")
 	m.node(v.Node)
-	m.w("</mrow></msub>")
+	m.w("<mo>)</mo></mrow>")
 }
 
 // memberValue looks up a field of a named state for substitution.

@@ -27,6 +27,7 @@ type Outcome struct {
 	Display units.Unit // the unit the value is shown in (quantities)
 	Pass    bool       // a check's result
 	Skipped bool       // not evaluated because a name it reads failed
+	Sources []string   // formulations of the property calls the line makes
 }
 
 // Engine evaluates statements in file order and holds the defined names.
@@ -76,11 +77,13 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, *Error) {
 			return out, nil
 		}
 	}
-	v, err := (&scope{e: e, s: s}).eval(s.tree)
+	sc := &scope{e: e, s: s}
+	v, err := sc.eval(s.tree)
 	if err != nil {
 		e.markFailed(s)
 		return nil, err
 	}
+	out.Sources = sc.sources
 	if err := e.finish(out, v); err != nil {
 		e.markFailed(s)
 		return nil, err

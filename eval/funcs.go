@@ -179,6 +179,7 @@ func (c *scope) call(v *ast.CallNode) (any, *Error) {
 	if err != nil {
 		return nil, c.errAt(v, "%s", err.Error())
 	}
+	c.note(out)
 	if q, ok := out.(units.Quantity); ok && (math.IsNaN(q.V) || math.IsInf(q.V, 0)) {
 		return nil, c.errAt(v, "%s gives no finite result here", f.Name)
 	}

@@ -16,10 +16,31 @@ type Record interface {
 	FieldNames() []string
 }
 
+// Sourced is a value that names the formulation it comes from, such as a
+// water state ("IAPWS-IF97").
+type Sourced interface {
+	Source() string
+}
+
 // scope evaluates one statement's tree.
 type scope struct {
-	e *Engine
-	s *Stmt
+	e       *Engine
+	s       *Stmt
+	sources []string // formulations of the property calls, in order
+}
+
+// note records the formulation of a property result once.
+func (c *scope) note(v any) {
+	src, ok := v.(Sourced)
+	if !ok {
+		return
+	}
+	for _, s := range c.sources {
+		if s == src.Source() {
+			return
+		}
+	}
+	c.sources = append(c.sources, src.Source())
 }
 
 // errAt builds an error at a node.

@@ -261,3 +261,11 @@ func ParseInline(text string, off, line int, ctx units.Context) (*Stmt, []*Error
 	}
 	return s, nil
 }
+
+// IsLiteralInput reports whether the line defines a name as one unit
+// literal shown in its own unit (p_1 = 12.5 MPa), so the value as written
+// is the result.
+func (s *Stmt) IsLiteralInput() bool {
+	l := s.loneLiteral()
+	return l != nil && (!s.hasUnit || s.display.String() == l.Unit.String())
+}

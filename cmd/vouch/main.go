@@ -29,6 +29,7 @@ var commands []command
 func init() {
 	commands = []command{
 		{"run", "[--json] FILE", "evaluate a calc and print its results and checks", cmdRun},
+		{"render", "FILE... [-o DIR]", "write the HTML package of each calc", cmdRender},
 		{"units", "", "list every unit with its SI factor", cmdUnits},
 		{"functions", "", "list the functions a calc can call", cmdFunctions},
 		{"help", "", "show this help", cmdHelp},

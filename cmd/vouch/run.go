@@ -20,17 +20,35 @@ func newFlags(name string, stderr io.Writer) *flag.FlagSet {
 	return fs
 }
 
+// parseArgs parses flags that may come before, between or after the
+// positional arguments, and returns the positional ones.
+func parseArgs(fs *flag.FlagSet, args []string) ([]string, error) {
+	var pos []string
+	for {
+		if err := fs.Parse(args); err != nil {
+			return nil, err
+		}
+		rest := fs.Args()
+		if len(rest) == 0 {
+			return pos, nil
+		}
+		pos = append(pos, rest[0])
+		args = rest[1:]
+	}
+}
+
 func cmdRun(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("run", stderr)
 	asJSON := fs.Bool("json", false, "print results as JSON")
-	if err := fs.Parse(args); err != nil {
+	files, err := parseArgs(fs, args)
+	if err != nil {
 		return exitUsage
 	}
-	if fs.NArg() != 1 {
+	if len(files) != 1 {
 		fmt.Fprintln(stderr, "usage: vouch run [--json] FILE")
 		return exitUsage
 	}
-	d, err := calcdoc.ReadFile(fs.Arg(0))
+	d, err := calcdoc.ReadFile(files[0])
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors

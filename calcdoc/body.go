@@ -1,0 +1,251 @@
+package calcdoc
+
+import (
+	"html"
+	"strings"
+
+	gast "github.com/yuin/goldmark/ast"
+	"github.com/yuin/goldmark/renderer"
+	"github.com/yuin/goldmark/util"
+
+	"vouch/eval"
+	"vouch/units"
+)
+
+// kindCalcBlock and kindCalcInline are the Markdown node kinds that stand
+// for calc blocks and inline values when the body is rendered.
+var (
+	kindCalcBlock  = gast.NewNodeKind("CalcBlock")
+	kindCalcInline = gast.NewNodeKind("CalcInline")
+)
+
+// calcBlock replaces a calc fence in the Markdown tree.
+type calcBlock struct {
+	gast.BaseBlock
+	items []*Item
+}
+
+func (n *calcBlock) Kind() gast.NodeKind             { return kindCalcBlock }
+func (n *calcBlock) Dump(src []byte, level int)      { gast.DumpHelper(n, src, level, nil, nil) }
+func (n *calcBlock) IsRaw() bool                     { return true }
+func (n *calcInline) Kind() gast.NodeKind            { return kindCalcInline }
+func (n *calcInline) Dump(src []byte, level int)     { gast.DumpHelper(n, src, level, nil, nil) }
+func (n *calcInline) Inline()                        {}
+
+// calcInline replaces an inline `=expr` span.
+type calcInline struct {
+	gast.BaseInline
+	item *Item
+}
+
+// replaceCalcNodes swaps calc fences and inline values for the nodes the
+// body renderer draws.
+func (d *Doc) replaceCalcNodes() {
+	byBlock := map[int][]*Item{}
+	inline := map[int]*Item{}
+	for _, it := range d.Items {
+		if it.Inline {
+			inline[it.Stmt.ExprOff] = it
+		} else {
+			byBlock[it.Block] = append(byBlock[it.Block], it)
+		}
+	}
+	var blocks []*gast.FencedCodeBlock
+	var spans []*gast.CodeSpan
+	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
+		if entering {
+			if f, ok := n.(*gast.FencedCodeBlock); ok && string(f.Language(d.body)) == "calc" {
+				blocks = append(blocks, f)
+			} else if s, ok := n.(*gast.CodeSpan); ok && d.spanItem(s, inline) != nil {
+				spans = append(spans, s)
+			}
+		}
+		return gast.WalkContinue, nil
+	})
+	for i, f := range blocks {
+		f.Parent().ReplaceChild(f.Parent(), f, &calcBlock{items: byBlock[i]})
+	}
+	for _, s := range spans {
+		s.Parent().ReplaceChild(s.Parent(), s, &calcInline{item: d.spanItem(s, inline)})
+	}
+}
+
+func (d *Doc) spanItem(s *gast.CodeSpan, inline map[int]*Item) *Item {
+	if t, ok := s.FirstChild().(*gast.Text); ok {
+		return inline[t.Segment.Start+1+leadingSpaces(d.body[t.Segment.Start+1:])]
+	}
+	return nil
+}
+
+func leadingSpaces(b []byte) int {
+	n := 0
+	for n < len(b) && b[n] == ' ' {
+		n++
+	}
+	return n
+}
+
+// demoteHeadings moves the prose headings one level down, below the
+// package's own section headings.
+func demoteHeadings(doc gast.Node) {
+	gast.Walk(doc, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
+		if h, ok := n.(*gast.Heading); ok && entering && h.Level < 6 {
+			h.Level++
+		}
+		return gast.WalkContinue, nil
+	})
+}
+
+// bodyRenderer draws calc blocks and inline values; every other node is
+// drawn by goldmark's own HTML renderer, with raw HTML off.
+type bodyRenderer struct{ d *Doc }
+
+func (r *bodyRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
+	reg.Register(kindCalcBlock, r.block)
+	reg.Register(kindCalcInline, r.inline)
+}
+
+func (r *bodyRenderer) block(w util.BufWriter, _ []byte, n gast.Node, entering bool) (gast.WalkStatus, error) {
+	if !entering {
+		return gast.WalkContinue, nil
+	}
+	w.WriteString("<div class=\"calc\">\n")
+	for _, it := range n.(*calcBlock).items {
+		if it.Outcome != nil {
+			w.WriteString(r.d.lineHTML(it))
+		}
+	}
+	w.WriteString("</div>\n")
+	return gast.WalkSkipChildren, nil
+}
+
+func (r *bodyRenderer) inline(w util.BufWriter, _ []byte, n gast.Node, entering bool) (gast.WalkStatus, error) {
+	if entering {
+		it := n.(*calcInline).item
+		w.WriteString("<span class=\"val\">" + r.d.valueHTML(it.Outcome) + "</span>")
+	}
+	return gast.WalkSkipChildren, nil
+}
+
+// lineHTML draws one calc line: formula = numbers substituted = result.
+func (d *Doc) lineHTML(it *Item) string {
+	s, o := it.Stmt, it.Outcome
+	var b strings.Builder
+	class := "calc-line"
+	if s.Kind == eval.Check {
+		class += " check"
+	}
+	b.WriteString(sprintf("<div class=\"%s\" id=\"L%d\"><div class=\"ln\">%d</div><div>", class, s.Line, s.Line))
+	b.WriteString("<math display=\"block\"><mrow>" + d.equation(it) + "</mrow></math>")
+	if s.Kind == eval.Check {
+		b.WriteString(verdictHTML(o.Pass))
+	}
+	if st, ok := o.Value.(eval.Record); ok {
+		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits) + "</div>")
+	}
+	if s.Desc != "" {
+		b.WriteString("<div class=\"desc\">" + html.EscapeString(s.Desc) + "</div>")
+	}
+	for _, src := range o.Sources {
+		b.WriteString("<div class=\"src\">Properties: " + html.EscapeString(src) + "</div>")
+	}
+	b.WriteString("</div></div>\n")
+	return b.String()
+}
+
+func verdictHTML(pass bool) string {
+	if pass {
+		return "<span class=\"verdict pass\">PASS</span>"
+	}
+	return "<span class=\"verdict fail\">FAIL</span>"
+}
+
+// equation builds the MathML of a line: name = formula = substitution =
+// result, leaving out the parts that would repeat.
+func (d *Doc) equation(it *Item) string {
+	s, o := it.Stmt, it.Outcome
+	formula := d.formula(s, false)
+	parts := []string{}
+	if s.Kind == eval.Def {
+		parts = append(parts, NameMathML(s.Name))
+	}
+	parts = append(parts, formula)
+	if len(s.Deps()) > 0 {
+		if sub := d.formula(s, true); sub != formula {
+			parts = append(parts, sub)
+		}
+	}
+	if s.Kind == eval.Def && !s.IsLiteralInput() {
+		if res := d.resultMathML(o); res != "" && res != parts[len(parts)-1] {
+			parts = append(parts, res)
+		}
+	}
+	sep := "<mo>=</mo>"
+	if s.Kind == eval.Check {
+		sep = "<mo>⇒</mo>"
+	}
+	return strings.Join(parts, sep)
+}
+
+// formula writes the expression with symbols, or with values substituted.
+func (d *Doc) formula(s *eval.Stmt, substitute bool) string {
+	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx}
+	if substitute {
+		m.values = d.outcomeOf
+	}
+	m.node(s.Tree())
+	return m.b.String()
+}
+
+// resultMathML writes a line's result in its display unit.
+func (d *Doc) resultMathML(o *eval.Outcome) string {
+	if q, ok := o.Value.(units.Quantity); ok {
+		return quantityMathML(q, o.Display, d.Front.Digits, d.Front.Ctx)
+	}
+	if b, ok := o.Value.(bool); ok {
+		return "<mi>" + map[bool]string{true: "true", false: "false"}[b] + "</mi>"
+	}
+	return ""
+}
+
+// valueHTML formats an outcome's value as HTML text.
+func (d *Doc) valueHTML(o *eval.Outcome) string {
+	switch v := o.Value.(type) {
+	case units.Quantity:
+		return QuantityText(v, o.Display, d.Front.Digits, d.Front.Ctx)
+	case bool:
+		return map[bool]string{true: "true", false: "false"}[v]
+	case string:
+		return html.EscapeString(v)
+	}
+	return "(state)"
+}
+
+// stateFields shown under a property call, in order.
+var stateShown = []string{"p", "T", "h", "s", "v", "x", "hf", "hg", "sf", "sg", "vf", "vg"}
+
+// stateHTML lists a state's main fields on one line.
+func stateHTML(st eval.Record, digits int) string {
+	var parts []string
+	for _, f := range stateShown {
+		v, err := st.Field(f)
+		if err != nil {
+			continue
+		}
+		q, ok := v.(units.Quantity)
+		if !ok {
+			continue
+		}
+		u := units.DefaultUnit(q)
+		if f == "T" {
+			u = units.MustParse("degC")
+		}
+		parts = append(parts, NameText(f)+"&#8239;=&#8239;"+QuantityText(q, u, digits, units.StandardAtmosphere))
+	}
+	if ph, err := st.Field("phase"); err == nil {
+		if s, ok := ph.(string); ok {
+			parts = append(parts, html.EscapeString(s))
+		}
+	}
+	return strings.Join(parts, ", ")
+}

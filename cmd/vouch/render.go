@@ -1,0 +1,94 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"vouch/calcdoc"
+)
+
+func cmdRender(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("render", stderr)
+	outDir := fs.String("o", "", "directory for the packages (default: beside each calc)")
+	files, err := parseArgs(fs, args)
+	if err != nil {
+		return exitUsage
+	}
+	if len(files) == 0 {
+		fmt.Fprintln(stderr, "usage: vouch render FILE... [-o DIR]")
+		return exitUsage
+	}
+	code := exitOK
+	for _, path := range files {
+		c := renderOne(path, *outDir, stdout, stderr)
+		code = max(code, c)
+	}
+	return code
+}
+
+// renderOne evaluates and renders one calc; a calc with errors writes
+// nothing and leaves an earlier package untouched.
+func renderOne(path, outDir string, stdout, stderr io.Writer) int {
+	d, err := calcdoc.ReadFile(path)
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
+	if len(d.Errors) > 0 {
+		fmt.Fprint(stderr, d.Errors.Format(d.Path, d.Src))
+		fmt.Fprintf(stderr, "vouch: %s has errors; no package written\n", path)
+		return exitErrors
+	}
+	html, err := d.Render(calcdoc.RenderOptions{Engine: Version})
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %s: %v\n", path, err)
+		return exitErrors
+	}
+	dest := packagePath(path, outDir)
+	if err := writeAtomic(dest, html); err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
+	fmt.Fprintf(stdout, "wrote %s\n", dest)
+	if d.Failed() {
+		return exitFailed
+	}
+	return exitOK
+}
+
+// packagePath is NAME.html for NAME.calc.md, in outDir or beside the calc.
+func packagePath(path, outDir string) string {
+	base := strings.TrimSuffix(strings.TrimSuffix(filepath.Base(path), ".md"), ".calc") + ".html"
+	if outDir == "" {
+		return filepath.Join(filepath.Dir(path), base)
+	}
+	return filepath.Join(outDir, base)
+}
+
+// writeAtomic writes to a temporary file in the same directory and renames
+// it into place, so a reader never sees a partial package.
+func writeAtomic(dest string, data []byte) error {
+	if err := os.MkdirAll(filepath.Dir(dest), 0o755); err != nil {
+		return err
+	}
+	tmp, err := os.CreateTemp(filepath.Dir(dest), ".vouch-*.tmp")
+	if err != nil {
+		return err
+	}
+	defer os.Remove(tmp.Name())
+	if _, err := tmp.Write(data); err != nil {
+		tmp.Close()
+		return err
+	}
+	if err := tmp.Chmod(0o644); err != nil {
+		tmp.Close()
+		return err
+	}
+	if err := tmp.Close(); err != nil {
+		return err
+	}
+	return os.Rename(tmp.Name(), dest)
+}
