@@ -25,12 +25,12 @@ type calcBlock struct {
 	items []*Item
 }
 
-func (n *calcBlock) Kind() gast.NodeKind             { return kindCalcBlock }
-func (n *calcBlock) Dump(src []byte, level int)      { gast.DumpHelper(n, src, level, nil, nil) }
-func (n *calcBlock) IsRaw() bool                     { return true }
-func (n *calcInline) Kind() gast.NodeKind            { return kindCalcInline }
-func (n *calcInline) Dump(src []byte, level int)     { gast.DumpHelper(n, src, level, nil, nil) }
-func (n *calcInline) Inline()                        {}
+func (n *calcBlock) Kind() gast.NodeKind         { return kindCalcBlock }
+func (n *calcBlock) Dump(src []byte, level int)  { gast.DumpHelper(n, src, level, nil, nil) }
+func (n *calcBlock) IsRaw() bool                 { return true }
+func (n *calcInline) Kind() gast.NodeKind        { return kindCalcInline }
+func (n *calcInline) Dump(src []byte, level int) { gast.DumpHelper(n, src, level, nil, nil) }
+func (n *calcInline) Inline()                    {}
 
 // calcInline replaces an inline `=expr` span.
 type calcInline struct {
