@@ -11,20 +11,20 @@ func MetastableVapourPT(p, T float64) (Props, error) {
 		return Props{}, below("p", p, Pt, "the metastable-vapour equation starts at the triple-point pressure")
 	}
 	if !(p <= 10e6) {
-		return Props{}, above("p", p, 10e6, "the metastable-vapour equation ends at 10 MPa")
+		return Props{}, above("p", p, 10e6, "the highest pressure of the metastable-vapour equation")
 	}
 	Ts := tsatEq(p)
 	if !(T <= Ts) {
 		return Props{}, above("T", T, Ts, "above the saturation temperature the vapour is not metastable")
 	}
 	if !(T >= TMin) {
-		return Props{}, below("T", T, TMin, "IAPWS-IF97 starts at 273.15 K")
+		return Props{}, below("T", T, TMin, "the lowest temperature of IAPWS-IF97")
 	}
 	d := r2mGibbs(p, T, wantAll)
 	st := d.props(p, T, 2)
 	hf, hg := h1(p, Ts), h2(p, Ts)
 	if hmin := hf + 0.95*(hg-hf); st.H < hmin {
-		return Props{}, below("T", T, metaTMin(p, hmin, Ts), "below the 5 % equilibrium-moisture line, the end of the metastable-vapour equation")
+		return Props{}, below("T", T, metaTMin(p, hmin, Ts), "below the equilibrium-moisture limit of the metastable-vapour equation")
 	}
 	st.Phase, st.X = Vapour, 1
 	return st, nil

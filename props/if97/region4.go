@@ -59,7 +59,7 @@ func Tsat(p float64) (float64, error) {
 
 func checkSatT(T float64) error {
 	if !(T >= TMin) {
-		return below("T", T, TMin, "the saturation line of IAPWS-IF97 starts at 273.15 K")
+		return below("T", T, TMin, "the saturation line starts at the lowest temperature of IAPWS-IF97")
 	}
 	if !(T <= Tc) {
 		return above("T", T, Tc, "the saturation line ends at the critical temperature")
@@ -69,7 +69,7 @@ func checkSatT(T float64) error {
 
 func checkSatP(p float64) error {
 	if !(p >= PSatMin) {
-		return below("p", p, PSatMin, "the saturation line of IAPWS-IF97 starts at the saturation pressure at 273.15 K")
+		return below("p", p, PSatMin, "the saturation line starts at the saturation pressure at the lowest temperature of IAPWS-IF97")
 	}
 	if !(p <= Pc) {
 		return above("p", p, Pc, "the saturation line ends at the critical pressure")

@@ -148,10 +148,10 @@ func mix(l, g Props, x float64) Props {
 
 func checkX(x float64) error {
 	if !(x >= 0) {
-		return below("x", x, 0, "the vapour quality lies between 0 and 1")
+		return below("x", x, 0, "the vapour quality lies between saturated liquid and saturated vapour")
 	}
 	if !(x <= 1) {
-		return above("x", x, 1, "the vapour quality lies between 0 and 1")
+		return above("x", x, 1, "the vapour quality lies between saturated liquid and saturated vapour")
 	}
 	return nil
 }

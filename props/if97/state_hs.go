@@ -45,7 +45,7 @@ func StateHS(h, s float64) (Props, error) {
 				return st, nil
 			}
 			if h < hd-margin {
-				return Props{}, below("T", TMin, TMin, "the state (h, s) lies in the two-phase region below 273.15 K")
+				return Props{}, below("T", TMin, TMin, "the state (h, s) lies in the two-phase region below the lowest temperature of IAPWS-IF97")
 			}
 		}
 	}

@@ -8,20 +8,20 @@ package if97
 // with 0 < p <= 50 MPa.
 func checkPT(p, T float64) error {
 	if !(T >= TMin) {
-		return below("T", T, TMin, "IAPWS-IF97 starts at 273.15 K")
+		return below("T", T, TMin, "the lowest temperature of IAPWS-IF97")
 	}
 	if !(T <= TMax) {
-		return above("T", T, TMax, "IAPWS-IF97 ends at 2273.15 K")
+		return above("T", T, TMax, "the highest temperature of IAPWS-IF97")
 	}
 	if !(p > 0) {
 		return below("p", p, 0, "pressure must be positive")
 	}
 	if T > T25 {
 		if !(p <= P5Max) {
-			return above("p", p, P5Max, "above 1073.15 K IAPWS-IF97 (region 5) ends at 50 MPa")
+			return above("p", p, P5Max, "the highest pressure of region 5 of IAPWS-IF97")
 		}
 	} else if !(p <= PMax) {
-		return above("p", p, PMax, "IAPWS-IF97 ends at 100 MPa")
+		return above("p", p, PMax, "the highest pressure of IAPWS-IF97")
 	}
 	return nil
 }

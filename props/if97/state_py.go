@@ -103,7 +103,7 @@ func statePY(p, y float64, k yKind) (Props, error) {
 		return Props{}, below("p", p, 0, "pressure must be positive")
 	}
 	if !(p <= PMax) {
-		return Props{}, above("p", p, PMax, "IAPWS-IF97 ends at 100 MPa")
+		return Props{}, above("p", p, PMax, "the highest pressure of IAPWS-IF97")
 	}
 	if math.IsNaN(y) || math.IsInf(y, 0) {
 		return Props{}, above(k.input(), y, 0, "not a finite number")
@@ -128,7 +128,7 @@ func liquidPY(p, y float64, k yKind, Tmax float64) (Props, error) {
 	}
 	T, out := solveT(1, p, y, k, T0, TMin, Tmax)
 	if out < 0 {
-		return Props{}, below(k.input(), y, yAt(1, p, TMin, k), "below the value at 273.15 K, the lowest temperature of IAPWS-IF97")
+		return Props{}, below(k.input(), y, yAt(1, p, TMin, k), "below the value at the lowest temperature of IAPWS-IF97")
 	}
 	return finish(gibbsProps(1, p, T)), nil
 }
@@ -155,11 +155,11 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 	}
 	// Region 5.
 	if p > P5Max {
-		return Props{}, above(k.input(), y, yAt(2, p, T25, k), "above 50 MPa IAPWS-IF97 ends at 1073.15 K")
+		return Props{}, above(k.input(), y, yAt(2, p, T25, k), "above the highest pressure of region 5, IAPWS-IF97 ends at the highest temperature of region 2")
 	}
 	T, out = solveT(5, p, y, k, T25+(TMax-T25)*0.3, T25, TMax)
 	if out > 0 {
-		return Props{}, above(k.input(), y, yAt(5, p, TMax, k), "above the value at 2273.15 K, the highest temperature of IAPWS-IF97")
+		return Props{}, above(k.input(), y, yAt(5, p, TMax, k), "above the value at the highest temperature of IAPWS-IF97")
 	}
 	return finish(gibbsProps(5, p, T)), nil
 }

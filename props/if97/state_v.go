@@ -154,7 +154,7 @@ func region3TV(T, v float64) (Props, error) {
 	a := r3Helm(rho, T, wantAll)
 	st := a.props()
 	if st.P > PMax {
-		return Props{}, below("v", v, 1/rho3(PMax, T), "below the value at 100 MPa, the highest pressure of IAPWS-IF97")
+		return Props{}, below("v", v, 1/rho3(PMax, T), "below the value at the highest pressure of IAPWS-IF97")
 	}
 	return finish(st), nil
 }
@@ -215,12 +215,12 @@ func vapourPV(p, v, Tmin float64) (Props, error) {
 		return finish(gibbsProps(2, p, T)), nil
 	}
 	if p > P5Max {
-		return Props{}, above("v", v, vG(2, p, T25), "above 50 MPa IAPWS-IF97 ends at 1073.15 K")
+		return Props{}, above("v", v, vG(2, p, T25), "above the highest pressure of region 5, IAPWS-IF97 ends at the highest temperature of region 2")
 	}
 	f5 := func(T float64) (float64, float64) { return vOfT(5, p, T) }
 	T, out = rising(f5, v, math.Min(TMax, math.Max(T25, p*v/R)), T25, TMax)
 	if out > 0 {
-		return Props{}, above("v", v, vG(5, p, TMax), "above the value at 2273.15 K, the highest temperature of IAPWS-IF97")
+		return Props{}, above("v", v, vG(5, p, TMax), "above the value at the highest temperature of IAPWS-IF97")
 	}
 	return finish(gibbsProps(5, p, T)), nil
 }

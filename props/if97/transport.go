@@ -58,10 +58,10 @@ var lamABounds = [4]float64{0.310559006, 0.776397516, 1.242236025, 1.863354037}
 
 func checkTransport(rho, T float64) error {
 	if !(T >= TMin) {
-		return below("T", T, TMin, "the transport equations are used from 273.15 K")
+		return below("T", T, TMin, "the lowest temperature of the transport equations")
 	}
 	if !(T <= trTMax) {
-		return above("T", T, trTMax, "the transport equations end at 1173.15 K")
+		return above("T", T, trTMax, "the highest temperature of the transport equations")
 	}
 	if !(rho >= 0) {
 		return below("rho", rho, 0, "density must not be negative")
@@ -225,7 +225,7 @@ func twoPhaseRho(rho float64, st Props) error {
 // reasonable in the supercooled liquid; 273.15 K is the lower limit of IAPWS-IF97.)
 func SurfaceTension(T float64) (float64, error) {
 	if !(T >= TMin) {
-		return 0, below("T", T, TMin, "the surface tension equation is used from 273.15 K")
+		return 0, below("T", T, TMin, "the lowest temperature of the surface tension equation")
 	}
 	if !(T <= Tc) {
 		return 0, above("T", T, Tc, "there is no surface tension above the critical temperature")
