@@ -39,7 +39,7 @@ func TestSanityGrid(t *testing.T) {
 	}
 }
 
-// TestClausiusClapeyron checks dps/dT from R7-97 Eq. (30) against (s''-s')/(v''-v') from the
+// TestClausiusClapeyron checks dps/dT from R7-97 Eq. (30) against (s”-s')/(v”-v') from the
 // basic equations. IF97's saturation equation and basic equations are separate fits that agree
 // only to the tolerances of R7-97 Table 44 (|Δps/ps| <= 0.05 %, actual maximum 0.0069 %), so the
 // slope cannot agree to rounding: the test asks for 1e-3 (the largest deviation found is logged: about 5e-4, near the critical point),
