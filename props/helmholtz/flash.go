@@ -235,7 +235,7 @@ func (f *Fluid) isobarPoint(op string, p, T, cap float64) (Props, error) {
 	}
 	if !ok {
 		var err error
-		if rho, _, err = f.densityTP(op, T, p); err != nil {
+		if rho, _, err = f.densityAt(op, &tp, T, p); err != nil {
 			return Props{}, err
 		}
 	}

@@ -96,16 +96,7 @@ func (e *equation) residual(tp *tauPart, delta float64) resid {
 		pw[i] = pw[i-1] * delta
 	}
 	var r resid
-	add := func(i int, b0, b1, b2 float64) {
-		g := tp.A[i] * b0
-		a1 := tp.a1[i]
-		r.a += g
-		r.d += g * b1
-		r.dd += g * b2
-		r.t += g * a1
-		r.tt += g * tp.a2[i]
-		r.dt += g * a1 * b1
-	}
+	add := func(i int, b0, b1, b2 float64) { r.add(tp.A[i]*b0, tp.a1[i], tp.a2[i], b1, b2) }
 	terms := e.terms
 	for i := 0; i < e.nPol; i++ {
 		d := float64(terms[i].d)
@@ -135,7 +126,14 @@ func (e *equation) residual(tp *tauPart, delta float64) resid {
 func (e *equation) idealAt(tau, lt float64) idealTau {
 	v := idealTau{a: e.logTau * lt, t: e.logTau, tt: -e.logTau}
 	for _, p := range e.pow {
-		x := p.n * math.Exp(p.t*lt)
+		x := p.n
+		switch p.t {
+		case 0:
+		case 1:
+			x *= tau
+		default:
+			x *= math.Exp(p.t * lt)
+		}
 		v.a += x
 		v.t += p.t * x
 		v.tt += p.t * (p.t - 1) * x
@@ -191,3 +189,4 @@ func (f *Fluid) Alpha(tau, delta float64) Reduced {
 		Art: r.t / tau, Artt: r.tt / (tau * tau), Ardt: r.dt / (delta * tau),
 	}
 }
+

@@ -64,9 +64,10 @@ func (f *Fluid) at(tp *tauPart, T, rho float64) point {
 
 // eval evaluates the equation at (T, rho) from scratch.
 func (f *Fluid) eval(T, rho float64) point {
-	var tp tauPart
-	f.eos.newTauPart(f.eos.tRed/T, true, &tp)
-	return f.at(&tp, T, rho)
+	tau := f.eos.tRed / T
+	lt := math.Log(tau)
+	delta := rho / f.eos.rhoRed
+	return point{T: T, rho: rho, tau: tau, delta: delta, i: f.eos.idealAt(tau, lt), r: f.eos.fused(tau, lt, delta)}
 }
 
 func (q *point) p(R float64) float64  { return q.rho * R * q.T * (1 + q.r.d) }

@@ -92,11 +92,13 @@ func (f *Fluid) StatePT(p, T float64) (Props, error) {
 	if err := f.checkP(p); err != nil {
 		return Props{}, err
 	}
-	rho, _, err := f.densityTP("StatePT", T, p)
+	var tp tauPart
+	f.eos.newTauPart(f.eos.tRed/T, true, &tp)
+	rho, _, err := f.densityAt("StatePT", &tp, T, p)
 	if err != nil {
 		return Props{}, err
 	}
-	q := f.eval(T, rho)
+	q := f.at(&tp, T, rho)
 	pr := f.props(&q)
 	pr.P = p
 	f.setPhase(&pr, rho)
@@ -108,13 +110,18 @@ func (f *Fluid) StatePT(p, T float64) (Props, error) {
 func (f *Fluid) densityTP(op string, T, p float64) (float64, bool, error) {
 	var tp tauPart
 	f.eos.newTauPart(f.eos.tRed/T, false, &tp)
+	return f.densityAt(op, &tp, T, p)
+}
+
+// densityAt is densityTP with the tau factors for T already made.
+func (f *Fluid) densityAt(op string, tp *tauPart, T, p float64) (float64, bool, error) {
 	if T >= f.Tc {
-		if rho, ok := f.superDensity(&tp, T, p); ok {
+		if rho, ok := f.superDensity(tp, T, p); ok {
 			return rho, rho > f.RhoC, nil
 		}
 		return 0, false, &SolveError{Op: op, Reason: f.critWhy(T, p)}
 	}
-	if rho, liquid, ok := f.densityFast(&tp, T, p); ok {
+	if rho, liquid, ok := f.densityFast(tp, T, p); ok {
 		return rho, liquid, nil
 	}
 	sp, err := f.satT(op, T)
@@ -126,9 +133,9 @@ func (f *Fluid) densityTP(op string, T, p float64) (float64, bool, error) {
 	case math.Abs(p-sp.p) <= 1e-12*p:
 		return 0, false, &SolveError{Op: op, Reason: whyOnSat}
 	case liquid:
-		rho, ok = f.liquidDensity(&tp, T, p, sp.liq.rho)
+		rho, ok = f.liquidDensity(tp, T, p, sp.liq.rho)
 	default:
-		rho, ok = f.vapourDensity(&tp, T, p, sp.vap.rho)
+		rho, ok = f.vapourDensity(tp, T, p, sp.vap.rho)
 	}
 	if !ok {
 		return 0, false, &SolveError{Op: op, Reason: f.critWhy(T, p)}
