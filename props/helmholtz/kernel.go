@@ -189,4 +189,3 @@ func (f *Fluid) Alpha(tau, delta float64) Reduced {
 		Art: r.t / tau, Artt: r.tt / (tau * tau), Ardt: r.dt / (delta * tau),
 	}
 }
-
