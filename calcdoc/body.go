@@ -146,6 +146,10 @@ func (d *Doc) lineHTML(it *Item) string {
 	if s.Desc != "" {
 		b.WriteString("<div class=\"desc\">" + html.EscapeString(s.Desc) + "</div>")
 	}
+	if sv := o.Solve; sv != nil {
+		b.WriteString(sprintf("<div class=\"desc\">Solved by bracketing (Brent's method) in %d evaluations; remaining residual %s.</div>",
+			sv.Iterations, QuantityText(sv.Residual, units.DefaultUnit(sv.Residual), 3, d.Front.Ctx)))
+	}
 	for _, src := range o.Sources {
 		b.WriteString("<div class=\"src\">Properties: " + html.EscapeString(src) + "</div>")
 	}

@@ -266,6 +266,10 @@ func (m *mathml) memberValue(v *ast.MemberNode) (any, bool) {
 
 func (m *mathml) call(v *ast.CallNode) {
 	name := v.Callee.String()
+	if name == "solve" && len(v.Arguments) == 3 {
+		m.solve(v)
+		return
+	}
 	if name == "sqrt" && len(v.Arguments) == 1 {
 		m.w("<msqrt>")
 		m.node(v.Arguments[0])
@@ -288,4 +292,18 @@ func (m *mathml) call(v *ast.CallNode) {
 		m.node(a)
 	}
 	m.w("<mo>)</mo></mrow>")
+}
+
+// solve writes solve(L == R, LO, HI) as "L = R, solved for NAME in [LO, HI]".
+func (m *mathml) solve(v *ast.CallNode) {
+	m.w("<mrow>")
+	m.node(v.Arguments[0])
+	m.text("mtext", " solved for ")
+	m.w(NameMathML(m.stmt.Name))
+	m.text("mtext", " in ")
+	m.w("<mo>[</mo>")
+	m.node(v.Arguments[1])
+	m.w("<mo separator=\"true\">,</mo>")
+	m.node(v.Arguments[2])
+	m.w("<mo>]</mo></mrow>")
 }

@@ -28,6 +28,7 @@ type Outcome struct {
 	Pass    bool       // a check's result
 	Skipped bool       // not evaluated because a name it reads failed
 	Sources []string   // formulations of the property calls the line makes
+	Solve   *Solution  // how solve found the value, for NAME = solve(...)
 }
 
 // Engine evaluates statements in file order and holds the defined names.
@@ -83,7 +84,7 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, *Error) {
 		e.markFailed(s)
 		return nil, err
 	}
-	out.Sources = sc.sources
+	out.Sources, out.Solve = sc.sources, sc.solution
 	if err := e.finish(out, v); err != nil {
 		e.markFailed(s)
 		return nil, err

@@ -187,3 +187,57 @@ func FuzzParseLine(f *testing.F) {
 		}
 	})
 }
+
+func TestSolveKnownRoots(t *testing.T) {
+	e := NewEngine(units.StandardAtmosphere)
+	cases := []struct {
+		line string
+		want float64
+	}{
+		{"a = solve(a^2 == 2, 0, 2)", math.Sqrt2},                   // exact root √2
+		{"b = solve(b^3 - 2*b - 5 == 0, 2, 3)", 2.0945514815423265}, // Wallis's cubic, root to 17 figures (common numerical-analysis test, value from memory, recomputed here by Newton)
+		{"c [m] = solve(c * 3 == 7 m, 0 m, 10 m)", 7.0 / 3},         // exact
+		{"d = solve(cos(d) == d, 0, 1)", 0.7390851332151607},        // Dottie number (from memory; fixed point of cos)
+		{"f = solve(exp(f) == 10, 0, 5)", math.Log(10)},             // exact ln 10
+	}
+	for i, c := range cases {
+		s, errs := ParseLine(c.line, 0, i+1, e.Ctx)
+		if errs != nil {
+			t.Fatal(errs[0].Msg)
+		}
+		out, err := e.Exec(s)
+		if err != nil {
+			t.Fatalf("%s: %s", c.line, err.Msg)
+		}
+		got := out.Value.(units.Quantity).V
+		if math.Abs(got-c.want) > 1e-9*math.Abs(c.want) {
+			t.Errorf("%s = %.16g, want %.16g", c.line, got, c.want)
+		}
+		if out.Solve == nil || out.Solve.Iterations > 30 {
+			t.Errorf("%s: solve record %+v (at most 30 evaluations expected)", c.line, out.Solve)
+		}
+	}
+}
+
+func TestSolveErrors(t *testing.T) {
+	cases := map[string]string{
+		"y = solve(y^2 == -1, 0, 2)":      "the equation does not change sign between the bounds: left − right is 1.000 at 0.000 and 5.000 at 2.000; choose bounds around the root",
+		"z = solve(z == 2 m, 0, 3)":       "the two sides of the equation disagree: a number and a quantity of length (m)",
+		"w = solve(w == 2, 0 m, 3)":       "the bounds of solve disagree: a quantity of length (m) and a number",
+		"v = solve(v > 2, 0, 3)":          "the first argument of solve must be an equation LEFT == RIGHT",
+		"u = 1 + solve(u == 2, 0, 3)":     "solve must be the whole expression of a definition: NAME = solve(LEFT == RIGHT, LO, HI)",
+		"q [kJ/kg] = solve(q == 2, 0, 3)": "the bounds of solve are a number, but q is shown in kJ/kg, which is specific enthalpy",
+		"r = solve(r == 2, 3, 0)":         "solve needs LO below HI",
+	}
+	for line, want := range cases {
+		e := NewEngine(units.StandardAtmosphere)
+		s, errs := ParseLine(line, 0, 1, e.Ctx)
+		if errs != nil {
+			t.Fatalf("%s: %s", line, errs[0].Msg)
+		}
+		_, err := e.Exec(s)
+		if err == nil || err.Msg != want {
+			t.Errorf("%s:\n got %v\nwant %s", line, err, want)
+		}
+	}
+}

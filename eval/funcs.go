@@ -62,6 +62,8 @@ func init() {
 	} {
 		register(&Func{Name: m.name, Args: "x (dimensionless)", Doc: m.doc, MinArgs: 1, MaxArgs: 1, Call: dimensionless(m.name, m.f)})
 	}
+	register(&Func{Name: "solve", Args: "LEFT == RIGHT, LO, HI", MinArgs: 3, MaxArgs: 3,
+		Doc: "NAME = solve(...): the NAME between LO and HI for which LEFT equals RIGHT (Brent's method, to 1e-10 of the bracket)"})
 	register(&Func{Name: "sqrt", Args: "x", Doc: "square root; the dimension's exponents must be even", MinArgs: 1, MaxArgs: 1, Call: callSqrt})
 	register(&Func{Name: "abs", Args: "x", Doc: "absolute value", MinArgs: 1, MaxArgs: 1, Call: callAbs})
 	register(&Func{Name: "min", Args: "x, y, ...", Doc: "smallest of its arguments (same dimension)", MinArgs: 1, MaxArgs: -1, Call: extreme(-1)})
@@ -151,6 +153,9 @@ func (c *scope) call(v *ast.CallNode) (any, *Error) {
 	id, ok := v.Callee.(*ast.IdentifierNode)
 	if !ok {
 		return nil, c.errAt(v, "only a function name can be called")
+	}
+	if id.Value == "solve" {
+		return c.solve(v)
 	}
 	f, ok := funcs[id.Value]
 	if !ok {

@@ -24,9 +24,10 @@ type Sourced interface {
 
 // scope evaluates one statement's tree.
 type scope struct {
-	e       *Engine
-	s       *Stmt
-	sources []string // formulations of the property calls, in order
+	e        *Engine
+	s        *Stmt
+	sources  []string  // formulations of the property calls, in order
+	solution *Solution // set by solve
 }
 
 // note records the formulation of a property result once.

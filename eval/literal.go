@@ -43,6 +43,9 @@ func (s *Stmt) compile(ctx units.Context) *Error {
 	}
 	s.tree = tree.Node
 	s.deps = collectDeps(s.tree, lits)
+	if s.Kind == Def {
+		s.deps = without(s.deps, s.Name) // solve reads the name it defines
+	}
 	return nil
 }
 
@@ -240,6 +243,16 @@ func scanUnit(s string, i int) int {
 		}
 	}
 	return end
+}
+
+func without(list []string, name string) []string {
+	out := list[:0:0]
+	for _, n := range list {
+		if n != name {
+			out = append(out, n)
+		}
+	}
+	return out
 }
 
 // collectDeps lists the identifiers an expression reads, without function

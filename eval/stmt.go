@@ -206,7 +206,7 @@ func identLen(s string) int {
 var reserved = map[string]bool{
 	"and": true, "or": true, "not": true, "in": true, "matches": true, "contains": true,
 	"startsWith": true, "endsWith": true, "let": true, "if": true, "else": true,
-	"nil": true, "true": true, "false": true, "check": true, "pi": true,
+	"nil": true, "true": true, "false": true, "check": true, "pi": true, "solve": true,
 }
 
 func checkName(name string, off int) *Error {

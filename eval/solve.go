@@ -1,0 +1,190 @@
+package eval
+
+import (
+	"math"
+
+	"github.com/expr-lang/expr/ast"
+
+	"vouch/units"
+)
+
+// Solution records how solve found a value, for the package.
+type Solution struct {
+	Lo, Hi     units.Quantity // the bracket
+	Residual   units.Quantity // left − right at the solution
+	Iterations int            // evaluations of the equation
+}
+
+// Solve tolerances: the root is found to a relative 1e-10 of the bracket
+// within at most maxSolveEvals evaluations.
+const (
+	solveRelTol   = 1e-10
+	maxSolveEvals = 100
+)
+
+// solve evaluates NAME = solve(LEFT == RIGHT, LO, HI) by Brent's method:
+// the value of NAME between LO and HI for which LEFT equals RIGHT.
+func (c *scope) solve(v *ast.CallNode) (any, *Error) {
+	if c.s.Kind != Def || c.s.tree != ast.Node(v) {
+		return nil, c.errAt(v, "solve must be the whole expression of a definition: NAME = solve(LEFT == RIGHT, LO, HI)")
+	}
+	if len(v.Arguments) != 3 {
+		return nil, c.errAt(v, "solve(LEFT == RIGHT, LO, HI) takes 3 arguments, not %d", len(v.Arguments))
+	}
+	eq, ok := v.Arguments[0].(*ast.BinaryNode)
+	if !ok || eq.Operator != "==" {
+		return nil, c.errAt(v.Arguments[0], "the first argument of solve must be an equation LEFT == RIGHT")
+	}
+	lo, hi, err := c.bracket(v)
+	if err != nil {
+		return nil, err
+	}
+	f := func(x float64) (float64, units.Quantity, *Error) { return c.residual(eq, lo, x) }
+	return c.brent(v, f, lo, hi)
+}
+
+// bracket evaluates LO and HI and checks that they agree in dimension.
+func (c *scope) bracket(v *ast.CallNode) (units.Quantity, units.Quantity, *Error) {
+	var q [2]units.Quantity
+	for i, a := range v.Arguments[1:] {
+		x, err := c.eval(a)
+		if err != nil {
+			return q[0], q[1], err
+		}
+		qq, ok := x.(units.Quantity)
+		if !ok {
+			return q[0], q[1], c.errAt(a, "a solve bound must be a number or quantity, not %s", kindOf(x))
+		}
+		q[i] = qq
+	}
+	if q[0].D != q[1].D {
+		return q[0], q[1], c.errAt(v, "the bounds of solve disagree: %s and %s", kindOf(q[0]), kindOf(q[1]))
+	}
+	if c.s.hasUnit && c.s.display.Dim != q[0].D {
+		return q[0], q[1], c.errAt(v, "the bounds of solve are %s, but %s is shown in %s, which is %s", kindOf(q[0]), c.s.Name, c.s.Unit, c.s.display.Dim.Name())
+	}
+	if !(q[0].V < q[1].V) {
+		return q[0], q[1], c.errAt(v, "solve needs LO below HI")
+	}
+	return q[0], q[1], nil
+}
+
+// residual evaluates LEFT − RIGHT with NAME set to x (in the bounds' unit kind).
+func (c *scope) residual(eq *ast.BinaryNode, like units.Quantity, x float64) (float64, units.Quantity, *Error) {
+	name := c.s.Name
+	c.e.vals[name] = units.Quantity{V: x, D: like.D, T: like.T}
+	defer delete(c.e.vals, name)
+	l, err := c.eval(eq.Left)
+	if err != nil {
+		return 0, units.Quantity{}, err
+	}
+	r, err := c.eval(eq.Right)
+	if err != nil {
+		return 0, units.Quantity{}, err
+	}
+	lq, ok1 := l.(units.Quantity)
+	rq, ok2 := r.(units.Quantity)
+	if !ok1 || !ok2 {
+		return 0, units.Quantity{}, c.errAt(eq, "both sides of the equation must be numbers or quantities")
+	}
+	if lq.D != rq.D {
+		return 0, units.Quantity{}, c.errAt(eq, "the two sides of the equation disagree: %s and %s", kindOf(lq), kindOf(rq))
+	}
+	return lq.V - rq.V, units.Quantity{V: lq.V - rq.V, D: lq.D}, nil
+}
+
+type residualFunc func(x float64) (float64, units.Quantity, *Error)
+
+// brent finds the root of f between lo and hi (R. P. Brent, Algorithms for
+// Minimization without Derivatives, 1973, ch. 4: bisection, secant and
+// inverse quadratic interpolation).
+func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (any, *Error) {
+	a, b := lo.V, hi.V
+	fa, _, err := f(a)
+	if err != nil {
+		return nil, err
+	}
+	fb, rb, err := f(b)
+	if err != nil {
+		return nil, err
+	}
+	if fa*fb > 0 {
+		_, ra, _ := f(a)
+		return nil, c.errAt(v, "the equation does not change sign between the bounds: left − right is %s at %s and %s at %s; choose bounds around the root",
+			quantityText(ra), quantityText(lo), quantityText(rb), quantityText(hi))
+	}
+	tol := solveRelTol * (b - a)
+	n := 2
+	cc, fc := a, fa
+	d := b - a
+	e := d
+	for n < maxSolveEvals {
+		if fb == 0 {
+			break
+		}
+		if fb*fc > 0 {
+			cc, fc, d = a, fa, b-a
+			e = d
+		}
+		if math.Abs(fc) < math.Abs(fb) {
+			a, b, cc = b, cc, b
+			fa, fb, fc = fb, fc, fb
+		}
+		m := 0.5 * (cc - b)
+		if math.Abs(m) <= tol {
+			break
+		}
+		d, e = brentStep(a, b, cc, fa, fb, fc, m, d, e, tol)
+		a, fa = b, fb
+		if math.Abs(d) > tol {
+			b += d
+		} else {
+			b += math.Copysign(tol, m)
+		}
+		fb, rb, err = f(b)
+		if err != nil {
+			return nil, err
+		}
+		n++
+	}
+	if n >= maxSolveEvals {
+		return nil, c.errAt(v, "solve did not converge in %d evaluations", maxSolveEvals)
+	}
+	c.solution = &Solution{Lo: lo, Hi: hi, Residual: rb, Iterations: n}
+	return units.Quantity{V: b, D: lo.D, T: lo.T}, nil
+}
+
+// brentStep chooses interpolation or bisection; it returns the step and the
+// step before it.
+func brentStep(a, b, c, fa, fb, fc, m, d, e, tol float64) (float64, float64) {
+	if math.Abs(e) < tol || math.Abs(fa) <= math.Abs(fb) {
+		return m, m
+	}
+	var p, q float64
+	s := fb / fa
+	if a == c {
+		p, q = 2*m*s, 1-s
+	} else {
+		qq, r := fa/fc, fb/fc
+		p = s * (2*m*qq*(qq-r) - (b-a)*(r-1))
+		q = (qq - 1) * (r - 1) * (s - 1)
+	}
+	if p > 0 {
+		q = -q
+	} else {
+		p = -p
+	}
+	if 2*p < math.Min(3*m*q-math.Abs(tol*q), math.Abs(e*q)) {
+		return p / q, d
+	}
+	return m, m
+}
+
+func quantityText(q units.Quantity) string {
+	u := units.DefaultUnit(q)
+	s, err := q.Text(u, 4, units.StandardAtmosphere)
+	if err != nil {
+		return units.FormatSig(q.V, 4)
+	}
+	return s
+}
