@@ -82,7 +82,9 @@ func solveT(region int, p, y float64, k yKind, T, lo, hi float64) (float64, int)
 				next = (a + b) / 2
 			}
 		}
-		if math.Abs(next-T) <= 1e-13*T {
+		// Newton converges quadratically here: after a step below 1e-7 T the error left is
+		// far below 1e-13 T, so the next evaluation can be skipped.
+		if math.Abs(next-T) <= 1e-7*T && next > a && next < b && df > 0 {
 			return next, 0
 		}
 		T = next
@@ -168,6 +170,21 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 // saturated-liquid and saturated-vapour values at Ts(p).
 func subPY(p, y float64, k yKind) (Props, error) {
 	Ts := tsatEq(p)
+	// Fast path: when the region 1 backward equation puts the state well below Ts, solve
+	// region 1 directly; the bracket [273.15 K, Ts] rejects a wrong guess (out > 0).
+	var T0 float64
+	if k == byH {
+		T0 = T1PH(p, y)
+	} else {
+		T0 = T1PS(p, y)
+	}
+	if T0 < Ts-0.5 {
+		if T, out := solveT(1, p, y, k, T0, TMin, Ts); out == 0 {
+			return finish(gibbsProps(1, p, T)), nil
+		} else if out < 0 {
+			return Props{}, below(k.input(), y, yAt(1, p, TMin, k), "below the value at the lowest temperature of IAPWS-IF97")
+		}
+	}
 	if yf := yAt(1, p, Ts, k); y < yf {
 		return liquidPY(p, y, k, Ts)
 	}
