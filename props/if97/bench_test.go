@@ -53,14 +53,14 @@ func benchState(b *testing.B, f func(a, c float64) (Props, error), a, c float64)
 	}
 }
 
-func BenchmarkStatePTRegion1(b *testing.B) { benchState(b, StatePT, 3e6, 400) }
-func BenchmarkStatePTRegion2(b *testing.B) { benchState(b, StatePT, 1e6, 700) }
-func BenchmarkStatePTRegion3(b *testing.B) { benchState(b, StatePT, 25e6, 650) }
-func BenchmarkStatePTRegion5(b *testing.B) { benchState(b, StatePT, 1e6, 1500) }
-func BenchmarkStatePHRegion1(b *testing.B) { benchState(b, StatePH, 3e6, 500e3) }
-func BenchmarkStatePHRegion2(b *testing.B) { benchState(b, StatePH, 1e6, 3200e3) }
+func BenchmarkStatePTRegion1(b *testing.B)  { benchState(b, StatePT, 3e6, 400) }
+func BenchmarkStatePTRegion2(b *testing.B)  { benchState(b, StatePT, 1e6, 700) }
+func BenchmarkStatePTRegion3(b *testing.B)  { benchState(b, StatePT, 25e6, 650) }
+func BenchmarkStatePTRegion5(b *testing.B)  { benchState(b, StatePT, 1e6, 1500) }
+func BenchmarkStatePHRegion1(b *testing.B)  { benchState(b, StatePH, 3e6, 500e3) }
+func BenchmarkStatePHRegion2(b *testing.B)  { benchState(b, StatePH, 1e6, 3200e3) }
 func BenchmarkStatePHTwoPhase(b *testing.B) { benchState(b, StatePH, 1e6, 2000e3) }
-func BenchmarkStatePSRegion1(b *testing.B) { benchState(b, StatePS, 3e6, 1500) }
-func BenchmarkStatePSRegion2(b *testing.B) { benchState(b, StatePS, 1e6, 7000) }
-func BenchmarkStatePHRegion3(b *testing.B) { benchState(b, StatePH, 25e6, 2000e3) }
-func BenchmarkStateHSRegion2(b *testing.B) { benchState(b, StateHS, 3200e3, 7000) }
+func BenchmarkStatePSRegion1(b *testing.B)  { benchState(b, StatePS, 3e6, 1500) }
+func BenchmarkStatePSRegion2(b *testing.B)  { benchState(b, StatePS, 1e6, 7000) }
+func BenchmarkStatePHRegion3(b *testing.B)  { benchState(b, StatePH, 25e6, 2000e3) }
+func BenchmarkStateHSRegion2(b *testing.B)  { benchState(b, StateHS, 3200e3, 7000) }
