@@ -38,10 +38,13 @@ type Doc struct {
 	Front  Front
 	Items  []*Item
 	Errors ErrorList
-	MD     gast.Node // the Markdown tree, for rendering
-	md     goldmark.Markdown
-	lines  lineIndex
-	body   []byte // Src with the front matter blanked, as goldmark parsed it
+	Sweeps []*Sweep
+	// Progress, when set, is told how far a sweep has come.
+	Progress func(name string, done, total int)
+	MD       gast.Node // the Markdown tree, for rendering
+	md       goldmark.Markdown
+	lines    lineIndex
+	body     []byte // Src with the front matter blanked, as goldmark parsed it
 }
 
 // newMarkdown returns the Markdown reader: CommonMark with GitHub tables
@@ -116,7 +119,7 @@ func (d *Doc) readFront() {
 
 // collect walks the Markdown tree for calc blocks and inline values.
 func (d *Doc) collect() {
-	var blocks []*gast.FencedCodeBlock
+	var blocks, sweeps []*gast.FencedCodeBlock
 	var spans []*gast.CodeSpan
 	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
 		if !entering {
@@ -124,8 +127,11 @@ func (d *Doc) collect() {
 		}
 		switch v := n.(type) {
 		case *gast.FencedCodeBlock:
-			if string(v.Language(d.body)) == "calc" {
+			switch string(v.Language(d.body)) {
+			case "calc":
 				blocks = append(blocks, v)
+			case "sweep":
+				sweeps = append(sweeps, v)
 			}
 		case *gast.CodeSpan:
 			spans = append(spans, v)
@@ -137,6 +143,9 @@ func (d *Doc) collect() {
 	}
 	for _, s := range spans {
 		d.readInline(s)
+	}
+	for _, s := range sweeps {
+		d.readSweep(s)
 	}
 	sortItems(d.Items)
 }

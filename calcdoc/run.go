@@ -41,6 +41,9 @@ func (d *Doc) Evaluate() {
 		}
 		it.Outcome = out
 	}
+	if len(d.Errors) == 0 {
+		d.runSweeps(eng)
+	}
 	d.checkSummary(eng)
 	d.Errors.Sort()
 }

@@ -157,3 +157,23 @@ func (s *Stmt) label() string {
 	}
 	return s.Expr
 }
+
+// Fork returns an engine that starts with the values of e, except for the
+// names in redo, which it leaves undefined so their lines can run again
+// (a sweep re-evaluates only what depends on the varied input).
+func (e *Engine) Fork(redo map[string]bool) *Engine {
+	f := NewEngine(e.Ctx)
+	for n, v := range e.vals {
+		if !redo[n] {
+			f.vals[n] = v
+			f.defs[n] = e.defs[n]
+		}
+	}
+	return f
+}
+
+// Set defines a name directly, as a sweep does for its varied input.
+func (e *Engine) Set(name string, v any) {
+	e.vals[name] = v
+	e.defs[name] = &Stmt{Kind: Def, Name: name}
+}

@@ -143,6 +143,9 @@ func writeTable(w io.Writer, d *calcdoc.Doc) {
 		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\n", it.Stmt.Line, it.Stmt.Name, alignValue(d.ValueText(it.Outcome)), it.Stmt.Desc)
 	}
 	tw.Flush()
+	for _, sw := range d.Sweeps {
+		writeSweep(w, d, sw)
+	}
 	checks := d.Checks()
 	if len(checks) == 0 {
 		return
@@ -188,4 +191,35 @@ func trimFloat(v float64) string {
 		return fmt.Sprintf("%.0f", v)
 	}
 	return fmt.Sprintf("%.15g", v)
+}
+
+// writeSweep prints a sweep as a table, failed checks marked per point.
+func writeSweep(w io.Writer, d *calcdoc.Doc, sw *calcdoc.Sweep) {
+	fmt.Fprintf(w, "\nsweep of %s (line %d)\n", sw.Var, sw.Line)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	head := []string{sw.Var}
+	for _, c := range sw.Show {
+		head = append(head, c.Name)
+	}
+	fmt.Fprintln(tw, strings.Join(head, "\t")+"\tchecks\t")
+	for i, x := range sw.X {
+		cells := []string{sweepText(d, x, sw.XUnit)}
+		for j, c := range sw.Show {
+			cells = append(cells, sweepText(d, sw.Rows[i][j], d.ColumnUnit(c, sw.Rows[i][j])))
+		}
+		verdict := "PASS"
+		if len(sw.Failed[i]) > 0 {
+			verdict = "FAIL line " + strings.Trim(strings.Join(strings.Fields(fmt.Sprint(sw.Failed[i])), ", "), "[]")
+		}
+		fmt.Fprintln(tw, strings.Join(cells, "\t")+"\t"+verdict+"\t")
+	}
+	tw.Flush()
+}
+
+func sweepText(d *calcdoc.Doc, q units.Quantity, u units.Unit) string {
+	s, err := q.Text(u, d.Front.Digits, d.Front.Ctx)
+	if err != nil {
+		return err.Error()
+	}
+	return s
 }

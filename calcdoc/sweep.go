@@ -1,0 +1,186 @@
+package calcdoc
+
+import (
+	"strconv"
+	"strings"
+
+	gast "github.com/yuin/goldmark/ast"
+
+	"vouch/eval"
+	"vouch/units"
+)
+
+// Sweep is a `sweep` block: one input varied over a range, with chosen
+// results shown at every point.
+//
+//	vary NAME from A to B in N steps     (N intervals, N+1 points)
+//	vary NAME over [A, B, C]
+//	show NAME [UNIT], NAME, ...
+//	plot NAME, ...
+type Sweep struct {
+	Line, Off int
+	Var       string
+	VarOff    int
+	bounds    []*eval.Stmt // from, to; or the listed values
+	steps     int          // intervals, for from/to
+	Show      []SweepColumn
+	Plot      []string
+	plotOffs  []int
+
+	X      []units.Quantity // the varied input at each point
+	XUnit  units.Unit
+	Rows   [][]units.Quantity // Show values at each point
+	Failed [][]int            // lines of the checks that fail at each point
+	block  int
+}
+
+// SweepColumn is one shown result.
+type SweepColumn struct {
+	Name    string
+	Unit    units.Unit
+	HasUnit bool
+	Off     int
+}
+
+// MaxSweepPoints bounds a sweep.
+const MaxSweepPoints = 100000
+
+// readSweep parses a sweep block's lines.
+func (d *Doc) readSweep(b *gast.FencedCodeBlock) {
+	d.checkClosed(b)
+	sw := &Sweep{Off: b.Info.Segment.Start, Line: d.lines.pos(d.Src, b.Info.Segment.Start).Line, block: len(d.Sweeps)}
+	lines := b.Lines()
+	for i := 0; i < lines.Len(); i++ {
+		seg := lines.At(i)
+		raw := strings.TrimRight(string(seg.Value(d.body)), "\r\n")
+		code, _, _ := strings.Cut(raw, "//")
+		if strings.TrimSpace(code) == "" {
+			continue
+		}
+		lead := len(code) - len(strings.TrimLeft(code, " \t"))
+		d.sweepLine(sw, strings.TrimSpace(code), seg.Start+lead)
+	}
+	if sw.Var == "" {
+		d.errorf(sw.Off, "a sweep block needs a line: vary NAME from A to B in N steps, or vary NAME over [A, B]")
+		return
+	}
+	if len(sw.Show) == 0 && len(sw.Plot) == 0 {
+		d.errorf(sw.Off, "a sweep block needs a line: show NAME, ... or plot NAME")
+		return
+	}
+	d.Sweeps = append(d.Sweeps, sw)
+}
+
+func (d *Doc) sweepLine(sw *Sweep, code string, off int) {
+	word, rest, _ := strings.Cut(code, " ")
+	restOff := off + len(word) + 1
+	switch word {
+	case "vary":
+		d.sweepVary(sw, rest, restOff)
+	case "show":
+		d.sweepShow(sw, rest, restOff)
+	case "plot":
+		for _, f := range splitList(rest, restOff) {
+			sw.Plot = append(sw.Plot, f.text)
+			sw.plotOffs = append(sw.plotOffs, f.off)
+		}
+	default:
+		d.errorf(off, "unknown sweep line %q; a sweep has vary, show and plot lines", word)
+	}
+}
+
+// sweepVary reads "NAME from A to B in N steps" or "NAME over [A, B, C]".
+func (d *Doc) sweepVary(sw *Sweep, s string, off int) {
+	name, rest, _ := strings.Cut(s, " ")
+	sw.Var, sw.VarOff = name, off
+	rest = strings.TrimSpace(rest)
+	restOff := off + strings.Index(s, rest)
+	if strings.HasPrefix(rest, "over ") {
+		list := strings.TrimSpace(rest[5:])
+		lo := restOff + strings.Index(rest, list)
+		if !strings.HasPrefix(list, "[") || !strings.HasSuffix(list, "]") {
+			d.errorf(lo, "write the values in brackets: vary %s over [A, B, C]", name)
+			return
+		}
+		for _, f := range splitList(list[1:len(list)-1], lo+1) {
+			d.addBound(sw, f.text, f.off)
+		}
+		return
+	}
+	from, ok1 := cutWord2(rest, "from ")
+	a, after, ok2 := strings.Cut(from, " to ")
+	b, n, ok3 := strings.Cut(after, " in ")
+	n = strings.TrimSuffix(strings.TrimSpace(n), " steps")
+	steps, err := strconv.Atoi(strings.TrimSuffix(n, " step"))
+	if !ok1 || !ok2 || !ok3 || err != nil || steps < 1 {
+		d.errorf(restOff, "write: vary %s from A to B in N steps (N a whole number of intervals), or vary %s over [A, B, C]", name, name)
+		return
+	}
+	sw.steps = steps
+	d.addBound(sw, a, restOff+len("from "))
+	d.addBound(sw, b, restOff+len("from ")+len(a)+len(" to "))
+}
+
+func cutWord2(s, w string) (string, bool) {
+	if strings.HasPrefix(s, w) {
+		return s[len(w):], true
+	}
+	return s, false
+}
+
+func (d *Doc) addBound(sw *Sweep, text string, off int) {
+	st, errs := eval.ParseInline(text, off, d.lines.pos(d.Src, off).Line, d.Front.Ctx)
+	d.addEvalErrors(errs)
+	if len(errs) == 0 {
+		sw.bounds = append(sw.bounds, st)
+	}
+}
+
+func (d *Doc) sweepShow(sw *Sweep, s string, off int) {
+	for _, f := range splitList(s, off) {
+		name, unit, hasUnit := strings.Cut(f.text, "[")
+		col := SweepColumn{Name: strings.TrimSpace(name), Off: f.off}
+		if hasUnit {
+			ut := strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(unit), "]"))
+			u, err := units.Parse(ut)
+			if err != nil {
+				d.errorf(f.off+strings.Index(f.text, "[")+1, "%s", err.Error())
+				continue
+			}
+			col.Unit, col.HasUnit = u, true
+		}
+		sw.Show = append(sw.Show, col)
+	}
+}
+
+type field struct {
+	text string
+	off  int
+}
+
+// splitList splits a comma list outside brackets, keeping offsets.
+func splitList(s string, off int) []field {
+	var out []field
+	depth, start := 0, 0
+	flush := func(end int) {
+		t := s[start:end]
+		if tt := strings.TrimSpace(t); tt != "" {
+			out = append(out, field{tt, off + start + strings.Index(t, tt)})
+		}
+	}
+	for i, c := range s {
+		switch c {
+		case '(', '[':
+			depth++
+		case ')', ']':
+			depth--
+		case ',':
+			if depth == 0 {
+				flush(i)
+				start = i + 1
+			}
+		}
+	}
+	flush(len(s))
+	return out
+}

@@ -1,0 +1,155 @@
+package calcdoc
+
+import (
+	"vouch/eval"
+	"vouch/units"
+)
+
+// runSweeps evaluates every sweep after the main pass.
+func (d *Doc) runSweeps(eng *eval.Engine) {
+	for _, sw := range d.Sweeps {
+		d.runSweep(eng, sw)
+	}
+}
+
+// sweepPlan is what a sweep re-evaluates: the lines that depend on the
+// varied input, in file order.
+func (d *Doc) sweepPlan(v string) (redo map[string]bool, items []*Item) {
+	redo = map[string]bool{v: true}
+	for _, it := range d.Items {
+		if it.Inline || it.Err || it.Outcome == nil {
+			continue
+		}
+		if !readsAny(it.Stmt.Deps(), redo) {
+			continue
+		}
+		if it.Stmt.Kind == eval.Def {
+			redo[it.Stmt.Name] = true
+		}
+		items = append(items, it)
+	}
+	return redo, items
+}
+
+func readsAny(deps []string, set map[string]bool) bool {
+	for _, n := range deps {
+		if set[n] {
+			return true
+		}
+	}
+	return false
+}
+
+func (d *Doc) runSweep(eng *eval.Engine, sw *Sweep) {
+	input := d.itemOf(sw.Var)
+	if input == nil {
+		d.errorf(sw.VarOff, "vary %s: the calc does not define %s", sw.Var, sw.Var)
+		return
+	}
+	xs, ok := d.sweepValues(eng, sw, input)
+	if !ok {
+		return
+	}
+	for _, c := range sw.Show {
+		if _, ok := eng.Value(c.Name); !ok {
+			d.errorf(c.Off, "show %s: the calc does not define %s", c.Name, c.Name)
+			return
+		}
+	}
+	redo, items := d.sweepPlan(sw.Var)
+	sw.X, sw.XUnit = xs, input.Outcome.Display
+	for i, x := range xs {
+		if !d.sweepPoint(eng, sw, redo, items, x) {
+			return
+		}
+		if d.Progress != nil {
+			d.Progress(sw.Var, i+1, len(xs))
+		}
+	}
+}
+
+// sweepValues evaluates the bounds or the listed values.
+func (d *Doc) sweepValues(eng *eval.Engine, sw *Sweep, input *Item) ([]units.Quantity, bool) {
+	base, ok := input.Outcome.Value.(units.Quantity)
+	if !ok {
+		d.errorf(sw.VarOff, "vary %s: %s is not a number or quantity", sw.Var, sw.Var)
+		return nil, false
+	}
+	var qs []units.Quantity
+	for _, b := range sw.bounds {
+		out, err := eng.Exec(b)
+		if err != nil {
+			d.errorf(err.Off, "%s", err.Msg)
+			return nil, false
+		}
+		q, isQ := out.Value.(units.Quantity)
+		if !isQ || q.D != base.D {
+			d.errorf(b.ExprOff, "vary %s: %s is %s, but %s is %s", sw.Var, b.Expr, kindName(out.Value), sw.Var, kindName(base))
+			return nil, false
+		}
+		qs = append(qs, q)
+	}
+	if sw.steps == 0 {
+		return qs, len(qs) > 0
+	}
+	if sw.steps+1 > MaxSweepPoints {
+		d.errorf(sw.VarOff, "vary %s: %d steps are more than the %d a sweep may have", sw.Var, sw.steps, MaxSweepPoints-1)
+		return nil, false
+	}
+	out := make([]units.Quantity, sw.steps+1)
+	for i := range out {
+		t := float64(i) / float64(sw.steps)
+		out[i] = units.Quantity{V: qs[0].V + t*(qs[1].V-qs[0].V), D: base.D, T: qs[0].T}
+	}
+	return out, true
+}
+
+func kindName(v any) string {
+	if q, ok := v.(units.Quantity); ok {
+		return q.D.Name()
+	}
+	return "not a quantity"
+}
+
+// sweepPoint re-evaluates the dependent lines at one value of the input.
+func (d *Doc) sweepPoint(eng *eval.Engine, sw *Sweep, redo map[string]bool, items []*Item, x units.Quantity) bool {
+	f := eng.Fork(redo)
+	f.Set(sw.Var, x)
+	var failed []int
+	for _, it := range items {
+		out, err := f.Exec(it.Stmt)
+		if err != nil {
+			xt, _ := x.Text(sw.XUnit, d.Front.Digits, d.Front.Ctx)
+			d.errorf(sw.VarOff, "sweep point %s = %s: line %d: %s", sw.Var, xt, it.Stmt.Line, err.Msg)
+			return false
+		}
+		if it.Stmt.Kind == eval.Check && !out.Pass {
+			failed = append(failed, it.Stmt.Line)
+		}
+	}
+	row := make([]units.Quantity, len(sw.Show))
+	for i, c := range sw.Show {
+		v, _ := f.Value(c.Name)
+		q, ok := v.(units.Quantity)
+		if !ok {
+			d.errorf(c.Off, "show %s: %s is not a number or quantity", c.Name, c.Name)
+			return false
+		}
+		row[i] = q
+	}
+	sw.Rows = append(sw.Rows, row)
+	sw.Failed = append(sw.Failed, failed)
+	return true
+}
+
+// ColumnUnit is the unit a sweep column is shown in: its [UNIT], else the
+// display unit of the name's own line, else a sensible SI unit.
+func (d *Doc) ColumnUnit(c SweepColumn, q units.Quantity) units.Unit {
+	if c.HasUnit {
+		return c.Unit
+	}
+	if it := d.itemOf(c.Name); it != nil && it.Outcome.Display.Dim == q.D {
+		return it.Outcome.Display
+	}
+	return units.DefaultUnit(q)
+}
