@@ -23,7 +23,8 @@ const (
 func r1Gibbs(p, T float64, want uint8) gibbs {
 	pi, tau := p/r1PStar, r1TStar/T
 	x, y := 7.1-pi, tau-1.222
-	s := r1Sums(x, y, want)
+	var s termSums
+	r1Sums(x, y, want, &s)
 	ix, iy := 1/x, 1/y
 	return gibbs{pi: pi, tau: tau, g: s.f, gp: -s.x * ix, gt: s.y * iy,
 		gpp: s.xx * ix * ix, gtt: s.yy * iy * iy, gpt: -s.xy * ix * iy}
@@ -32,7 +33,7 @@ func r1Gibbs(p, T float64, want uint8) gibbs {
 // idealGibbs adds the ideal-gas part γ° = ln π + Σ n°_i τ^J°_i (R7-97 Eqs. 16, 33; Tables 13,
 // 40) to the residual sums r of Eqs. (17), (19) or (34), where r was evaluated at x = π and
 // y = τ - shift.
-func idealGibbs(pi, tau, y float64, o, r termSums, want uint8) gibbs {
+func idealGibbs(pi, tau, y float64, o, r *termSums, want uint8) gibbs {
 	ip, it, iy := 1/pi, 1/tau, 1/y
 	d := gibbs{pi: pi, tau: tau}
 	if want&wantF != 0 {
@@ -51,7 +52,10 @@ func idealGibbs(pi, tau, y float64, o, r termSums, want uint8) gibbs {
 func r2Gibbs(p, T float64, want uint8) gibbs {
 	pi, tau := p/r2PStar, r2TStar/T
 	y := tau - 0.5
-	return idealGibbs(pi, tau, y, r2oSums(tau, want&^(wantX|wantXX|wantXY)), r2rSums(pi, y, want), want)
+	var o, r termSums
+	r2oSums(tau, want&^(wantX|wantXX|wantXY), &o)
+	r2rSums(pi, y, want, &r)
+	return idealGibbs(pi, tau, y, &o, &r, want)
 }
 
 // r2mGibbs returns γ of the metastable-vapour region, R7-97 Eq. (18): Eq. (16) with the
@@ -59,13 +63,19 @@ func r2Gibbs(p, T float64, want uint8) gibbs {
 func r2mGibbs(p, T float64, want uint8) gibbs {
 	pi, tau := p/r2PStar, r2TStar/T
 	y := tau - 0.5
-	return idealGibbs(pi, tau, y, r2moSums(tau, want&^(wantX|wantXX|wantXY)), r2mrSums(pi, y, want), want)
+	var o, r termSums
+	r2moSums(tau, want&^(wantX|wantXX|wantXY), &o)
+	r2mrSums(pi, y, want, &r)
+	return idealGibbs(pi, tau, y, &o, &r, want)
 }
 
 // r5Gibbs returns γ of region 5, R7-97 Eq. (32), with the derivatives of Tables 40 and 41.
 func r5Gibbs(p, T float64, want uint8) gibbs {
 	pi, tau := p/r5PStar, r5TStar/T
-	return idealGibbs(pi, tau, tau, r5oSums(tau, want&^(wantX|wantXX|wantXY)), r5rSums(pi, tau, want), want)
+	var o, r termSums
+	r5oSums(tau, want&^(wantX|wantXX|wantXY), &o)
+	r5rSums(pi, tau, want, &r)
+	return idealGibbs(pi, tau, tau, &o, &r, want)
 }
 
 // gibbsAt evaluates the equation of the given region (1, 2 or 5).
@@ -102,12 +112,17 @@ func vG(region int, p, T float64) float64 {
 // h1 returns the specific enthalpy of region 1, R7-97 Table 3, at (p, T) without range checks.
 func h1(p, T float64) float64 {
 	y := r1TStar/T - 1.222
-	return R * r1TStar * r1Sums(7.1-p/r1PStar, y, wantY).y / y
+	var s termSums
+	r1Sums(7.1-p/r1PStar, y, wantY, &s)
+	return R * r1TStar * s.y / y
 }
 
 // h2 returns the specific enthalpy of region 2, R7-97 Table 12, at (p, T) without range checks.
 func h2(p, T float64) float64 {
 	tau := r2TStar / T
 	y := tau - 0.5
-	return R * r2TStar * (r2oSums(tau, wantY).y/tau + r2rSums(p/r2PStar, y, wantY).y/y)
+	var o, r termSums
+	r2oSums(tau, wantY, &o)
+	r2rSums(p/r2PStar, y, wantY, &r)
+	return R * r2TStar * (o.y/tau + r.y/y)
 }

@@ -10,8 +10,8 @@ package if97
 // Table 2: Coefficients and exponents of the dimensionless Gibbs free energy for region 1, Eq. (7)
 // Equation: gamma(pi,tau) = g/(R T) = sum_i n_i (7.1 - pi)^I_i (tau - 1.222)^J_i
 // Reducing quantities / notes: pi = p/p*, tau = T*/T, p* = 16.53 MPa, T* = 1386 K, R = 0.461526 kJ kg-1 K-1
-// Only the sums selected by want are computed (see termSums).
-func r1Sums(x, y float64, want uint8) (s termSums) {
+// Only the sums selected by want are computed and stored in s (see termSums).
+func r1Sums(x, y float64, want uint8, s *termSums) {
 	x2 := x * x
 	x3 := x * x2
 	x4 := x2 * x2
@@ -117,7 +117,6 @@ func r1Sums(x, y float64, want uint8) (s termSums) {
 		a3 := -0.021841717175414*t13 - 2.64851071985076e-05*t18 + 4.4850563816e-05*t23 + 1.120618553264408e-07*t27 - 2.902203139240009e-20*t31
 		s.xy = (a0 + a1) + (a2 + a3)
 	}
-	return s
 }
 
 // t1ph returns Σ n_i x^I_i y^J_i with x = π and y = η + 1 for

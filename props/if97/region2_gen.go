@@ -10,8 +10,8 @@ package if97
 // Table 10: Coefficients and exponents of the ideal-gas part gamma^o of the dimensionless Gibbs free energy for region 2, Eq. (16)
 // Equation: gamma^o(pi,tau) = ln(pi) + sum_i n^o_i tau^J^o_i
 // Reducing quantities / notes: pi = p/p*, tau = T*/T, p* = 1 MPa, T* = 540 K. Footnote a: when Eq. (16) is used inside Eq. (18) (metastable vapour) use n^o_1 = -0.96937268393049e1 and n^o_2 = 0.10087275970006e2 instead (see r7-97_t10a_region2_ideal_metastable_n1_n2.csv)
-// Only the sums selected by want are computed (see termSums).
-func r2oSums(y float64, want uint8) (s termSums) {
+// Only the sums selected by want are computed and stored in s (see termSums).
+func r2oSums(y float64, want uint8, s *termSums) {
 	y2 := y * y
 	y3 := y * y2
 	yi := 1 / y
@@ -40,7 +40,6 @@ func r2oSums(y float64, want uint8) (s termSums) {
 		a3 := 8.5444915028664 * yi2
 		s.yy = (a0 + a1) + (a2 + a3)
 	}
-	return s
 }
 
 // r2rSums returns the weighted sums of the terms n_i x^I_i y^J_i with x = π and y = τ - 0.5 for
@@ -48,8 +47,8 @@ func r2oSums(y float64, want uint8) (s termSums) {
 // Table 11: Coefficients and exponents of the residual part gamma^r of the dimensionless Gibbs free energy for region 2, Eq. (17)
 // Equation: gamma^r(pi,tau) = sum_i n_i pi^I_i (tau - 0.5)^J_i
 // Reducing quantities / notes: pi = p/p*, tau = T*/T, p* = 1 MPa, T* = 540 K
-// Only the sums selected by want are computed (see termSums).
-func r2rSums(x, y float64, want uint8) (s termSums) {
+// Only the sums selected by want are computed and stored in s (see termSums).
+func r2rSums(x, y float64, want uint8, s *termSums) {
 	x2 := x * x
 	x3 := x * x2
 	x4 := x2 * x2
@@ -173,5 +172,4 @@ func r2rSums(x, y float64, want uint8) (s termSums) {
 		a3 := -0.30195167236758*t5 - 0.613162139108022*t9 - 0.0270610641758664*t14 + 5.78704472622084e-06*t18 - 5018.10580616184*t22 - 2370.5666178623424*t27 - 1.40254511313154e-07*t31 + 3.56743381421684e-22*t35 + 0.0044106220917290865*t39 - 0.0013136263247976432*t43
 		s.xy = (a0 + a1) + (a2 + a3)
 	}
-	return s
 }

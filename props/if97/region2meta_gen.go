@@ -11,8 +11,8 @@ package if97
 // Equation: gamma^o(pi,tau) = ln(pi) + sum_i n^o_i tau^J^o_i
 // Reducing quantities / notes: pi = p/p*, tau = T*/T, p* = 1 MPa, T* = 540 K. Footnote a: when Eq. (16) is used inside Eq. (18) (metastable vapour) use n^o_1 = -0.96937268393049e1 and n^o_2 = 0.10087275970006e2 instead (see r7-97_t10a_region2_ideal_metastable_n1_n2.csv)
 // Table 10, footnote a: Replacement values of n^o_1 and n^o_2 when Eq. (16) is used inside Eq. (18) (metastable-vapor region); all other n^o_i, J^o_i as in Table 10
-// Only the sums selected by want are computed (see termSums).
-func r2moSums(y float64, want uint8) (s termSums) {
+// Only the sums selected by want are computed and stored in s (see termSums).
+func r2moSums(y float64, want uint8, s *termSums) {
 	y2 := y * y
 	y3 := y * y2
 	yi := 1 / y
@@ -41,7 +41,6 @@ func r2moSums(y float64, want uint8) (s termSums) {
 		a3 := 8.5444915028664 * yi2
 		s.yy = (a0 + a1) + (a2 + a3)
 	}
-	return s
 }
 
 // r2mrSums returns the weighted sums of the terms n_i x^I_i y^J_i with x = π and y = τ - 0.5 for
@@ -49,8 +48,8 @@ func r2moSums(y float64, want uint8) (s termSums) {
 // Table 16: Coefficients and exponents of the residual part gamma^r for the metastable-vapor region, Eq. (19)
 // Equation: gamma^r(pi,tau) = sum_i n_i pi^I_i (tau - 0.5)^J_i  (Eq. 18 = Eq. 16 with footnote n^o_1,n^o_2 + Eq. 19)
 // Reducing quantities / notes: pi = p/p*, tau = T*/T, p* = 1 MPa, T* = 540 K; valid from saturated-vapour line to 5 % equilibrium moisture, triple-point pressure to 10 MPa
-// Only the sums selected by want are computed (see termSums).
-func r2mrSums(x, y float64, want uint8) (s termSums) {
+// Only the sums selected by want are computed and stored in s (see termSums).
+func r2mrSums(x, y float64, want uint8, s *termSums) {
 	x2 := x * x
 	x3 := x * x2
 	x4 := x2 * x2
@@ -117,5 +116,4 @@ func r2mrSums(x, y float64, want uint8) (s termSums) {
 		a3 := 0.0040195606760414*t5 - 4.130068465372224*t9 - 0.13228250741405*t13
 		s.xy = (a0 + a1) + (a2 + a3)
 	}
-	return s
 }

@@ -10,9 +10,9 @@ package if97
 // Table 30: Coefficients and exponents of the dimensionless Helmholtz free energy for region 3, Eq. (28)
 // Equation: phi(delta,tau) = f/(R T) = n_1 ln(delta) + sum_{i=2..40} n_i delta^I_i tau^J_i  (row i=1 has no I,J: it is the ln(delta) coefficient)
 // Reducing quantities / notes: delta = rho/rho*, tau = T*/T, rho* = rho_c = 322 kg/m3, T* = T_c = 647.096 K, R = 0.461526 kJ kg-1 K-1
-// Only the sums selected by want are computed (see termSums).
+// Only the sums selected by want are computed and stored in s (see termSums).
 // The ln δ term (row 1, n1 = 0.10658070028513e1) is not part of the sums; see r3LnN.
-func r3Sums(x, y float64, want uint8) (s termSums) {
+func r3Sums(x, y float64, want uint8, s *termSums) {
 	x2 := x * x
 	x3 := x * x2
 	x4 := x2 * x2
@@ -105,7 +105,6 @@ func r3Sums(x, y float64, want uint8) (s termSums) {
 		a3 := -10.91532008087319*t11 + 1.734503622682776*t16 - 0.3943086584350224*t21 + 73.34334809148568*t26 + 1.131129019981104*t31 + 0.01042613165305512*t35
 		s.xy = (a0 + a1) + (a2 + a3)
 	}
-	return s
 }
 
 // r3LnN is n1 of R7-97 Table 30, the coefficient of ln δ in Eq. (28).

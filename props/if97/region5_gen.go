@@ -10,8 +10,8 @@ package if97
 // Table 37: Coefficients and exponents of the ideal-gas part gamma^o for region 5, Eq. (33)
 // Equation: gamma^o(pi,tau) = ln(pi) + sum_i n^o_i tau^J^o_i
 // Reducing quantities / notes: pi = p/p*, tau = T*/T, p* = 1 MPa, T* = 1000 K
-// Only the sums selected by want are computed (see termSums).
-func r5oSums(y float64, want uint8) (s termSums) {
+// Only the sums selected by want are computed and stored in s (see termSums).
+func r5oSums(y float64, want uint8, s *termSums) {
 	y2 := y * y
 	yi := 1 / y
 	yi2 := yi * yi
@@ -37,7 +37,6 @@ func r5oSums(y float64, want uint8) (s termSums) {
 		a3 := -0.65923253077834 * y2
 		s.yy = (a0 + a1) + (a2 + a3)
 	}
-	return s
 }
 
 // r5rSums returns the weighted sums of the terms n_i x^I_i y^J_i with x = π and y = τ for
@@ -45,8 +44,8 @@ func r5oSums(y float64, want uint8) (s termSums) {
 // Table 38: Coefficients and exponents of the residual part gamma^r for region 5, Eq. (34)
 // Equation: gamma^r(pi,tau) = sum_i n_i pi^I_i tau^J_i
 // Reducing quantities / notes: pi = p/p*, tau = T*/T, p* = 1 MPa, T* = 1000 K
-// Only the sums selected by want are computed (see termSums).
-func r5rSums(x, y float64, want uint8) (s termSums) {
+// Only the sums selected by want are computed and stored in s (see termSums).
+func r5rSums(x, y float64, want uint8, s *termSums) {
 	x2 := x * x
 	x3 := x * x2
 	y2 := y * y
@@ -101,5 +100,4 @@ func r5rSums(x, y float64, want uint8) (s termSums) {
 		a3 := 1.3464022445691e-05 * t4
 		s.xy = (a0 + a1) + (a2 + a3)
 	}
-	return s
 }

@@ -170,7 +170,8 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 // saturated-liquid and saturated-vapour values at Ts(p).
 func subPY(p, y float64, k yKind) (Props, error) {
 	Ts := tsatEq(p)
-	// Fast path: when the region 1 backward equation puts the state well below Ts, solve
+	// Fast path: when the region 1 backward equation puts the state plausibly and well below Ts
+	// (outside region 1 it extrapolates wildly), solve
 	// region 1 directly; the bracket [273.15 K, Ts] rejects a wrong guess (out > 0).
 	var T0 float64
 	if k == byH {
@@ -178,7 +179,7 @@ func subPY(p, y float64, k yKind) (Props, error) {
 	} else {
 		T0 = T1PS(p, y)
 	}
-	if T0 < Ts-0.5 {
+	if T0 < Ts-3 && T0 > TMin-10 {
 		if T, out := solveT(1, p, y, k, T0, TMin, Ts); out == 0 {
 			return finish(gibbsProps(1, p, T)), nil
 		} else if out < 0 {

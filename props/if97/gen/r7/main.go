@@ -7,13 +7,13 @@
 // lower ones, so no math.Pow and short dependency chains), forms each term product once, and
 // then adds the weighted sums with four independent accumulators.
 //
-// For the basic equations it writes func name(x, y float64, want uint8) termSums, whose
-// fields are the weighted sums
+// For the basic equations it writes func name(x, y float64, want uint8, s *termSums), which
+// sets the weighted sums
 //
 //	f  = Σ n t    x  = Σ n I t    y  = Σ n J t
 //	xx = Σ n I(I-1) t    yy = Σ n J(J-1) t    xy = Σ n I J t     (t = x^I y^J)
 //
-// computed only where the want mask asks for them; the caller divides by x, y, x², y² or xy to
+// only where the want mask asks for them (the other fields are left as they are); the caller divides by x, y, x², y² or xy to
 // get the partial derivatives. For the backward equations it writes func name(x, y float64)
 // float64 returning the plain sum. Small boundary and saturation tables become constants.
 //
@@ -396,14 +396,14 @@ func genSums(b *bytes.Buffer, s spec, t table) {
 		fmt.Fprintf(b, "// %s returns the weighted sums of the terms n_i x^I_i y^J_i with x = %s and y = %s for\n", s.name, s.xDoc, s.yDoc)
 	}
 	writeHeader(b, t)
-	b.WriteString("// Only the sums selected by want are computed (see termSums).\n")
+	b.WriteString("// Only the sums selected by want are computed and stored in s (see termSums).\n")
 	if t.lnN != "" {
 		fmt.Fprintf(b, "// The ln δ term (row 1, n1 = %s) is not part of the sums; see %sLnN.\n", t.lnN, s.name[:2])
 	}
 	if uni {
-		fmt.Fprintf(b, "func %s(y float64, want uint8) (s termSums) {\n", s.name)
+		fmt.Fprintf(b, "func %s(y float64, want uint8, s *termSums) {\n", s.name)
 	} else {
-		fmt.Fprintf(b, "func %s(x, y float64, want uint8) (s termSums) {\n", s.name)
+		fmt.Fprintf(b, "func %s(x, y float64, want uint8, s *termSums) {\n", s.name)
 	}
 	is, js := exps(t)
 	xn := map[int]string{0: "1"}
@@ -453,7 +453,7 @@ func genSums(b *bytes.Buffer, s spec, t table) {
 		accumulate(b, "s."+bl.field+" =", parts)
 		b.WriteString("\t}\n")
 	}
-	b.WriteString("\treturn s\n}\n")
+	b.WriteString("}\n")
 	if t.lnN != "" {
 		fmt.Fprintf(b, "\n// %sLnN is n1 of R7-97 Table 30, the coefficient of ln δ in Eq. (28).\nconst %sLnN = %s\n", s.name[:2], s.name[:2], lit(t.lnN, 1))
 	}
