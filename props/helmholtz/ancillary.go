@@ -68,15 +68,23 @@ func (a *ancillary) estimate(T float64) ancSat {
 }
 
 // tsatEstimate inverts the vapour-pressure ancillary by Newton's method in
-// 1/T; p must lie below Pc.
+// T; p must lie below Pc.
 func (a *ancillary) tsatEstimate(p float64) float64 {
 	y := math.Log(p / a.Pc)
-	T := a.Tc / (1 - y/7) // rough start: ln(p/pc) ~ 7 (1 - Tc/T)
+	T := a.Tc / (1 + y/a.P[0]) // first term only: ln(p/Pc) = P0 (Tc/T - 1)
 	for it := 0; it < 50; it++ {
-		f := math.Log(a.estimate(T).p/a.Pc) - y
-		h := 1e-6 * T
-		g := (math.Log(a.estimate(T-h).p/a.Pc) - y - f) / -h
-		dT := f / g
+		theta := 1 - T/a.Tc
+		var pw [49]float64
+		sixths(theta, &pw)
+		var S, dS float64 // sum and its derivative in theta
+		for i := 0; i < nAnc; i++ {
+			k := float64(ancKP[i]) / 6
+			S += a.P[i] * pw[ancKP[i]]
+			dS += a.P[i] * k * pw[ancKP[i]-6] // k >= 1: theta^(k-1)
+		}
+		r := a.Tc / T
+		g := -r/T*S - dS/T // d/dT of r S
+		dT := (r*S - y) / g
 		dT = math.Max(math.Min(dT, 0.5*T), -0.5*(a.Tc-T))
 		T -= dT
 		if math.Abs(dT) < 1e-12*T {

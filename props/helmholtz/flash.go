@@ -82,12 +82,18 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 	if p >= f.Pc || p < f.Pmin() { // no saturation state at this pressure
 		return f.solveIsobar(op, p, target, by, isobar{lo: f.Tmin, hi: f.Tmax})
 	}
-	if side, ok := f.sideFast(p, target, by); ok {
-		Ts := f.anc.tsatEstimate(p)
-		dT := 1e-3 * Ts
-		b := isobar{lo: math.Max(Ts-dT, f.Tmin), hi: f.Tmax}
-		if side < 0 {
-			b = isobar{lo: f.Tmin, hi: math.Min(Ts+dT, f.Tmax)}
+	if d, ok := f.sideFast(p, target, by); ok {
+		sat := &d.qv
+		if d.side < 0 {
+			sat = &d.ql
+		}
+		if pr, ok := f.tryNewtonPY(p, target, by, sat); ok {
+			return pr, nil
+		}
+		dT := 1e-3 * d.Ts
+		b := isobar{lo: math.Max(d.Ts-dT, f.Tmin), hi: f.Tmax}
+		if d.side < 0 {
+			b = isobar{lo: f.Tmin, hi: math.Min(d.Ts+dT, f.Tmax)}
 		}
 		if pr, err := f.solveIsobar(op, p, target, by, b); err == nil {
 			return pr, nil
@@ -100,8 +106,14 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 	yf, yg := pick(f.props(&sp.liq), by), pick(f.props(&sp.vap), by)
 	switch {
 	case target < yf:
+		if pr, ok := f.tryNewtonPY(p, target, by, &sp.liq); ok {
+			return pr, nil
+		}
 		return f.solveIsobar(op, p, target, by, isobar{lo: f.Tmin, hi: sp.T, yhi: yf - target, hiKnown: true})
 	case target > yg:
+		if pr, ok := f.tryNewtonPY(p, target, by, &sp.vap); ok {
+			return pr, nil
+		}
 		return f.solveIsobar(op, p, target, by, isobar{lo: sp.T, hi: f.Tmax, ylo: yg - target, loKnown: true, cap: sp.vap.rho})
 	}
 	pr := twoPhase(f.sat(&sp), (target-yf)/(yg-yf))
@@ -141,26 +153,37 @@ func pick(pr Props, by int) float64 {
 	return pr.S
 }
 
+// dome is the saturation state at p estimated from the ancillaries, and
+// the side of it (-1 liquid, +1 vapour) on which a target lies.
+type dome struct {
+	Ts     float64
+	ql, qv point
+	side   int
+}
+
 // sideFast decides from the ancillaries whether the target lies clearly on
-// the liquid side (-1) or vapour side (+1) of the dome at p.
-func (f *Fluid) sideFast(p, target float64, by int) (int, bool) {
+// the liquid or the vapour side of the dome at p (2 % of the latent
+// change beyond the estimated saturated value).
+func (f *Fluid) sideFast(p, target float64, by int) (dome, bool) {
 	if f.anc.Tc == 0 || p > f.anc.estimate(fastMax*f.Tc).p || p < f.Pmin() {
-		return 0, false
+		return dome{}, false
 	}
 	T := f.anc.tsatEstimate(p)
 	a := f.anc.estimate(T)
 	var tp tauPart
 	f.eos.newTauPart(f.eos.tRed/T, true, &tp)
-	ql, qv := f.at(&tp, T, a.rhoL), f.at(&tp, T, a.rhoV)
-	yf, yg := pick(f.props(&ql), by), pick(f.props(&qv), by)
+	d := dome{Ts: T, ql: f.at(&tp, T, a.rhoL), qv: f.at(&tp, T, a.rhoV)}
+	yf, yg := pick(f.props(&d.ql), by), pick(f.props(&d.qv), by)
 	m := 0.02 * (yg - yf)
 	switch {
 	case target < yf-m:
-		return -1, true
+		d.side = -1
 	case target > yg+m:
-		return 1, true
+		d.side = 1
+	default:
+		return dome{}, false
 	}
-	return 0, false
+	return d, true
 }
 
 // Pmin is the saturation pressure at Tmin, the lowest pressure at which

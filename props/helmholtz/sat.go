@@ -255,6 +255,9 @@ func (f *Fluid) satP(op string, p float64) (satPoint, error) {
 	if err := f.checkSatP(p); err != nil {
 		return satPoint{}, err
 	}
+	if sp, ok := f.satPNewton(p); ok {
+		return sp, nil
+	}
 	T := f.anc.tsatEstimate(p)
 	for it := 0; it < 30; it++ {
 		T = math.Min(math.Max(T, f.Tmin), f.Tc*(1-1e-12))

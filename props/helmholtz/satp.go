@@ -1,0 +1,73 @@
+package helmholtz
+
+import "math"
+
+// satPNewton solves for the saturation state at pressure p by Newton's
+// method in (T, delta', delta”) on p' = p, p” = p and g' = g”, from the
+// ancillary estimates. The result is polished at its temperature by
+// satNewton and accepted if its pressure is p to 1e-11.
+func (f *Fluid) satPNewton(p float64) (satPoint, bool) {
+	T := f.anc.tsatEstimate(p)
+	a := f.anc.estimate(T)
+	rr := f.eos.rhoRed
+	dL, dV := a.rhoL/rr, a.rhoV/rr
+	var tp tauPart
+	for it := 0; it < 30; it++ {
+		if !(T > f.Tmin*0.99 && T < f.Tc && dL > dV && dV > 0) {
+			return satPoint{}, false
+		}
+		f.eos.newTauPart(f.eos.tRed/T, false, &tp)
+		rL, rV := f.eos.residual(&tp, dL), f.eos.residual(&tp, dV)
+		RT := f.R * T
+		pL, pV := dL*rr*RT*(1+rL.d), dV*rr*RT*(1+rV.d)
+		var J [3][4]float64 // augmented rows: dF/dT, dF/d dL, dF/d dV | -F
+		J[0] = [4]float64{dL * rr * f.R * (1 + rL.d - rL.dt) / p, rr * RT * (1 + 2*rL.d + rL.dd) / p, 0, 1 - pL/p}
+		J[1] = [4]float64{dV * rr * f.R * (1 + rV.d - rV.dt) / p, 0, rr * RT * (1 + 2*rV.d + rV.dd) / p, 1 - pV/p}
+		J[2] = [4]float64{-(rL.t + rL.dt - rV.t - rV.dt) / T, (1 + 2*rL.d + rL.dd) / dL, -(1 + 2*rV.d + rV.dd) / dV,
+			-(math.Log(dL/dV) + rL.a + rL.d - rV.a - rV.d)}
+		x, ok := solve3(&J)
+		if !ok {
+			return satPoint{}, false
+		}
+		s := math.Min(1, math.Min(0.05*T/math.Abs(x[0]), math.Min(0.5*dL/math.Abs(x[1]), 0.5*dV/math.Abs(x[2]))))
+		T, dL, dV = T+s*x[0], dL+s*x[1], dV+s*x[2]
+		if math.Abs(x[0]) <= 1e-13*T && math.Abs(x[1]) <= 1e-12*dL && math.Abs(x[2]) <= 1e-12*dV {
+			f.eos.newTauPart(f.eos.tRed/T, true, &tp)
+			sp, ok := f.satNewton(&tp, T, dL*rr, dV*rr)
+			return sp, ok && math.Abs(sp.p/p-1) <= 1e-11
+		}
+	}
+	return satPoint{}, false
+}
+
+// solve3 solves a 3x3 system given as an augmented matrix by Gaussian
+// elimination with partial pivoting.
+func solve3(m *[3][4]float64) ([3]float64, bool) {
+	for c := 0; c < 3; c++ {
+		piv := c
+		for r := c + 1; r < 3; r++ {
+			if math.Abs(m[r][c]) > math.Abs(m[piv][c]) {
+				piv = r
+			}
+		}
+		if m[piv][c] == 0 || math.IsNaN(m[piv][c]) {
+			return [3]float64{}, false
+		}
+		m[c], m[piv] = m[piv], m[c]
+		for r := c + 1; r < 3; r++ {
+			k := m[r][c] / m[c][c]
+			for j := c; j < 4; j++ {
+				m[r][j] -= k * m[c][j]
+			}
+		}
+	}
+	var x [3]float64
+	for r := 2; r >= 0; r-- {
+		s := m[r][3]
+		for j := r + 1; j < 3; j++ {
+			s -= m[r][j] * x[j]
+		}
+		x[r] = s / m[r][r]
+	}
+	return x, true
+}
