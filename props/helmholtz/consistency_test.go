@@ -148,3 +148,50 @@ func TestTwoPhaseRoundTrip(t *testing.T) {
 		}
 	}
 }
+
+// TestNearCriticalIsobars sweeps (p, h) and (p, s) just below and above
+// the critical pressure: each call converges to a state that StatePT
+// (single phase) or the lever rule (two-phase) confirms, or says it cannot.
+func TestNearCriticalIsobars(t *testing.T) {
+	for _, f := range allFluids {
+		for _, r := range []float64{0.95, 0.99, 0.999, 0.99999, 1.00001, 1.01} {
+			p := f.Pc * r
+			lo, err1 := f.StatePT(p, f.Tc*0.97)
+			hi, err2 := f.StatePT(p, math.Min(f.Tc*1.03, f.Tmax))
+			if err1 != nil || err2 != nil {
+				t.Errorf("%s/%s: %v %v", f.Name, f.Key, err1, err2)
+				continue
+			}
+			for k := 0; k <= 20; k++ {
+				h := lo.H + (hi.H-lo.H)*float64(k)/20
+				st, err := f.StatePH(p, h)
+				if err != nil {
+					var se *SolveError
+					if !errorsAs(err, &se) {
+						t.Errorf("%s/%s StatePH(%g, %g): %v", f.Name, f.Key, p, h, err)
+					}
+					continue
+				}
+				if st.Phase == TwoPhase {
+					sat, err := f.SatP(p)
+					if err != nil || st.X <= 0 || st.X >= 1 || math.Abs(sat.Hf+st.X*(sat.Hg-sat.Hf)-h) > 1e-9*math.Abs(h)+1e-6 {
+						t.Errorf("%s/%s StatePH(%g, %g): two-phase x = %g does not check (%v)", f.Name, f.Key, p, h, st.X, err)
+					}
+					continue
+				}
+				back, err := f.StatePT(p, st.T)
+				if err != nil || math.Abs(back.H-h) > 1e-8*math.Max(math.Abs(h), f.R*f.Tc) || back.Phase != st.Phase {
+					t.Errorf("%s/%s StatePH(%g, %g) = T %.10g %v; StatePT gives h %.10g %v (%v)", f.Name, f.Key, p, h, st.T, st.Phase, back.H, back.Phase, err)
+				}
+			}
+		}
+	}
+}
+
+func errorsAs(err error, se **SolveError) bool {
+	e, ok := err.(*SolveError)
+	if ok {
+		*se = e
+	}
+	return ok
+}
