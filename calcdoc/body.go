@@ -17,7 +17,20 @@ import (
 var (
 	kindCalcBlock  = gast.NewNodeKind("CalcBlock")
 	kindCalcInline = gast.NewNodeKind("CalcInline")
+	kindFigure     = gast.NewNodeKind("CalcFigure")
 )
+
+// figureBlock replaces a sweep or diagram fence; html is built by this
+// package (tables with escaped text, SVG from svgplot, which escapes its
+// labels).
+type figureBlock struct {
+	gast.BaseBlock
+	html string
+}
+
+func (n *figureBlock) Kind() gast.NodeKind        { return kindFigure }
+func (n *figureBlock) Dump(src []byte, level int) { gast.DumpHelper(n, src, level, nil, nil) }
+func (n *figureBlock) IsRaw() bool                { return true }
 
 // calcBlock replaces a calc fence in the Markdown tree.
 type calcBlock struct {
@@ -50,18 +63,36 @@ func (d *Doc) replaceCalcNodes() {
 			byBlock[it.Block] = append(byBlock[it.Block], it)
 		}
 	}
-	var blocks []*gast.FencedCodeBlock
+	var blocks, sweeps, diagrams []*gast.FencedCodeBlock
 	var spans []*gast.CodeSpan
 	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
-		if entering {
-			if f, ok := n.(*gast.FencedCodeBlock); ok && string(f.Language(d.body)) == "calc" {
+		if !entering {
+			return gast.WalkContinue, nil
+		}
+		if f, ok := n.(*gast.FencedCodeBlock); ok {
+			switch string(f.Language(d.body)) {
+			case "calc":
 				blocks = append(blocks, f)
-			} else if s, ok := n.(*gast.CodeSpan); ok && d.spanItem(s, inline) != nil {
-				spans = append(spans, s)
+			case "sweep":
+				sweeps = append(sweeps, f)
+			case "diagram":
+				diagrams = append(diagrams, f)
 			}
+		} else if s, ok := n.(*gast.CodeSpan); ok && d.spanItem(s, inline) != nil {
+			spans = append(spans, s)
 		}
 		return gast.WalkContinue, nil
 	})
+	for i, f := range sweeps {
+		if i < len(d.Sweeps) {
+			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.sweepHTML(d.Sweeps[i])})
+		}
+	}
+	for i, f := range diagrams {
+		if i < len(d.diagramBlocks) {
+			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.diagramHTML(d.diagramBlocks[i])})
+		}
+	}
 	for i, f := range blocks {
 		f.Parent().ReplaceChild(f.Parent(), f, &calcBlock{items: byBlock[i]})
 	}
@@ -103,6 +134,14 @@ type bodyRenderer struct{ d *Doc }
 func (r *bodyRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(kindCalcBlock, r.block)
 	reg.Register(kindCalcInline, r.inline)
+	reg.Register(kindFigure, r.figure)
+}
+
+func (r *bodyRenderer) figure(w util.BufWriter, _ []byte, n gast.Node, entering bool) (gast.WalkStatus, error) {
+	if entering {
+		w.WriteString(n.(*figureBlock).html)
+	}
+	return gast.WalkSkipChildren, nil
 }
 
 func (r *bodyRenderer) block(w util.BufWriter, _ []byte, n gast.Node, entering bool) (gast.WalkStatus, error) {
@@ -252,4 +291,66 @@ func stateHTML(st eval.Record, digits int) string {
 		}
 	}
 	return strings.Join(parts, ", ")
+}
+
+// sweepHTML draws a sweep: a table of the shown results at every point,
+// with the checks that fail there, and the plots.
+func (d *Doc) sweepHTML(sw *Sweep) string {
+	var b strings.Builder
+	b.WriteString(sprintf("<figure class=\"sweep\" id=\"L%d\"><figcaption>Sweep of %s (line %d): %d points</figcaption>", sw.Line, NameText(sw.Var), sw.Line, len(sw.X)))
+	b.WriteString("<table class=\"grid\"><tr><th>" + NameText(sw.Var) + " [" + html.EscapeString(UnitText(sw.XUnit)) + "]</th>")
+	cols := make([]units.Unit, len(sw.Show))
+	for j, c := range sw.Show {
+		cols[j] = d.ColumnUnit(c, sw.Rows[0][j])
+		b.WriteString("<th>" + NameText(c.Name) + unitHeading(cols[j]) + "</th>")
+	}
+	b.WriteString("<th>Checks</th></tr>\n")
+	for i, x := range sw.X {
+		b.WriteString("<tr><td class=\"num\">" + numberIn(x, sw.XUnit, d) + "</td>")
+		for j := range sw.Show {
+			b.WriteString("<td class=\"num\">" + numberIn(sw.Rows[i][j], cols[j], d) + "</td>")
+		}
+		b.WriteString("<td>" + failedHTML(sw.Failed[i]) + "</td></tr>\n")
+	}
+	b.WriteString("</table>")
+	for _, svg := range sw.SVGs {
+		b.WriteString("<div class=\"plot\">" + string(svg) + "</div>")
+	}
+	b.WriteString("</figure>\n")
+	return b.String()
+}
+
+func unitHeading(u units.Unit) string {
+	if t := UnitText(u); t != "" {
+		return " [" + html.EscapeString(t) + "]"
+	}
+	return ""
+}
+
+func numberIn(q units.Quantity, u units.Unit, d *Doc) string {
+	v, err := q.In(u, d.Front.Ctx)
+	if err != nil {
+		return html.EscapeString(err.Error())
+	}
+	return NumberText(v, d.Front.Digits)
+}
+
+func failedHTML(lines []int) string {
+	if len(lines) == 0 {
+		return "<span class=\"verdict pass\">PASS</span>"
+	}
+	var parts []string
+	for _, l := range lines {
+		parts = append(parts, sprintf("<a href=\"#L%d\">%d</a>", l, l))
+	}
+	return "<span class=\"verdict fail\">FAIL</span> line " + strings.Join(parts, ", ")
+}
+
+// diagramHTML places the diagrams of a block.
+func (d *Doc) diagramHTML(blk *diagramBlock) string {
+	var b strings.Builder
+	for _, dg := range blk.diagrams {
+		b.WriteString("<figure class=\"diagram\">" + string(dg.SVG) + "</figure>\n")
+	}
+	return b.String()
 }

@@ -39,6 +39,8 @@ type Doc struct {
 	Items  []*Item
 	Errors ErrorList
 	Sweeps []*Sweep
+
+	diagramBlocks []*diagramBlock
 	// Progress, when set, is told how far a sweep has come.
 	Progress func(name string, done, total int)
 	MD       gast.Node // the Markdown tree, for rendering
@@ -119,7 +121,7 @@ func (d *Doc) readFront() {
 
 // collect walks the Markdown tree for calc blocks and inline values.
 func (d *Doc) collect() {
-	var blocks, sweeps []*gast.FencedCodeBlock
+	var blocks, sweeps, diagrams []*gast.FencedCodeBlock
 	var spans []*gast.CodeSpan
 	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
 		if !entering {
@@ -132,6 +134,8 @@ func (d *Doc) collect() {
 				blocks = append(blocks, v)
 			case "sweep":
 				sweeps = append(sweeps, v)
+			case "diagram":
+				diagrams = append(diagrams, v)
 			}
 		case *gast.CodeSpan:
 			spans = append(spans, v)
@@ -146,6 +150,9 @@ func (d *Doc) collect() {
 	}
 	for _, s := range sweeps {
 		d.readSweep(s)
+	}
+	for _, s := range diagrams {
+		d.readDiagram(s)
 	}
 	sortItems(d.Items)
 }

@@ -60,9 +60,10 @@ type checkView struct {
 
 // trusted is the one door for markup into the package template. It is
 // given only HTML that this package builds: goldmark's output (raw HTML
-// off, so every text from the calc file is escaped) and the MathML and
-// value texts of mathml.go and typeset.go, which escape every text they
-// take from the calc file.
+// off, so every text from the calc file is escaped), the MathML and value
+// texts of mathml.go and typeset.go and the tables of body.go, which escape
+// every text they take from the calc file, and the SVG of svgplot, which
+// escapes its labels.
 func trusted(s string) template.HTML { return template.HTML(s) }
 
 var packageTemplate = template.Must(templates.Package(template.FuncMap{"trusted": trusted}))

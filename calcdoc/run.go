@@ -43,6 +43,7 @@ func (d *Doc) Evaluate() {
 	}
 	if len(d.Errors) == 0 {
 		d.runSweeps(eng)
+		d.drawDiagrams()
 	}
 	d.checkSummary(eng)
 	d.Errors.Sort()

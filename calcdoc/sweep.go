@@ -31,6 +31,7 @@ type Sweep struct {
 	XUnit  units.Unit
 	Rows   [][]units.Quantity // Show values at each point
 	Failed [][]int            // lines of the checks that fail at each point
+	SVGs   [][]byte           // the plots
 	block  int
 }
 

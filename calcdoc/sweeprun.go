@@ -9,6 +9,9 @@ import (
 func (d *Doc) runSweeps(eng *eval.Engine) {
 	for _, sw := range d.Sweeps {
 		d.runSweep(eng, sw)
+		if len(sw.Rows) == len(sw.X) && len(sw.X) > 1 {
+			d.sweepPlots(sw)
+		}
 	}
 }
 

@@ -1,0 +1,224 @@
+package calcdoc
+
+import (
+	"math"
+	"strings"
+
+	gast "github.com/yuin/goldmark/ast"
+
+	"vouch/props"
+	"vouch/svgplot"
+	"vouch/units"
+)
+
+// Diagram is one line of a `diagram` block: a T-s or h-s diagram of the
+// cycle through the named states, in order, closed back to the first.
+//
+//	T-s: st_1, st_2, st_3, st_4
+//	h-s: st_1, st_2, st_3, st_4
+type Diagram struct {
+	Kind   string // "T-s" or "h-s"
+	Off    int
+	States []field
+	SVG    []byte
+	block  int
+}
+
+// diagramBlock groups the diagrams of one block.
+type diagramBlock struct {
+	diagrams []*Diagram
+}
+
+// readDiagram parses a diagram block.
+func (d *Doc) readDiagram(b *gast.FencedCodeBlock) {
+	d.checkClosed(b)
+	blk := &diagramBlock{}
+	lines := b.Lines()
+	for i := 0; i < lines.Len(); i++ {
+		seg := lines.At(i)
+		raw := strings.TrimRight(string(seg.Value(d.body)), "\r\n")
+		code, _, _ := strings.Cut(raw, "//")
+		if strings.TrimSpace(code) == "" {
+			continue
+		}
+		kind, list, ok := strings.Cut(code, ":")
+		kind = strings.TrimSpace(kind)
+		lead := seg.Start + len(code) - len(strings.TrimLeft(code, " \t"))
+		if !ok || (kind != "T-s" && kind != "h-s") {
+			d.errorf(lead, "write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ...")
+			continue
+		}
+		dg := &Diagram{Kind: kind, Off: lead, States: splitList(list, seg.Start+len(kind)+1+(len(code)-len(strings.TrimLeft(code, " \t")))), block: len(d.diagramBlocks)}
+		if len(dg.States) < 2 {
+			d.errorf(lead, "a diagram needs at least two states")
+			continue
+		}
+		blk.diagrams = append(blk.diagrams, dg)
+	}
+	d.diagramBlocks = append(d.diagramBlocks, blk)
+}
+
+// drawDiagrams builds the SVG of every diagram after evaluation.
+func (d *Doc) drawDiagrams() {
+	for _, blk := range d.diagramBlocks {
+		for _, dg := range blk.diagrams {
+			d.drawDiagram(dg)
+		}
+	}
+}
+
+// diagramState is one state of a diagram.
+type diagramState struct {
+	name       string
+	p, T, s, h float64
+	fluid      string
+}
+
+func (d *Doc) diagramStates(dg *Diagram) ([]diagramState, bool) {
+	var out []diagramState
+	for _, f := range dg.States {
+		o, ok := d.outcomeOf(f.text)
+		st, isState := (*props.State)(nil), false
+		if ok {
+			st, isState = o.Value.(*props.State)
+		}
+		if !isState {
+			d.errorf(f.off, "diagram: %s is not a state; name states made with water(...) or fluid(...)", f.text)
+			return nil, false
+		}
+		q := func(n string) float64 { v, _ := st.Quantity(n); return v.V }
+		out = append(out, diagramState{name: f.text, p: q("p"), T: q("T"), s: q("s"), h: q("h"), fluid: st.Fluid})
+		if out[0].fluid != st.Fluid {
+			d.errorf(f.off, "diagram: %s is %s, but %s is %s; a diagram shows one fluid", f.text, st.Fluid, out[0].name, out[0].fluid)
+			return nil, false
+		}
+	}
+	return out, true
+}
+
+func (d *Doc) drawDiagram(dg *Diagram) {
+	states, ok := d.diagramStates(dg)
+	if !ok {
+		return
+	}
+	fluid := states[0].fluid
+	p := &svgplot.Plot{Title: dg.Kind + " diagram (" + fluid + ")", XLabel: "s [kJ/(kg·K)]", YLabel: "T [°C]"}
+	if dg.Kind == "h-s" {
+		p.YLabel = "h [kJ/kg]"
+	}
+	y := func(c props.CurvePoint) float64 {
+		if dg.Kind == "h-s" {
+			return c.H / 1000
+		}
+		return c.T - 273.15
+	}
+	dome, err := props.Dome(fluid, 80)
+	if err != nil {
+		d.errorf(dg.Off, "diagram: %v", err)
+		return
+	}
+	p.Series = append(p.Series, curveSeries("saturation line", dome, y, svgplot.Dome))
+	path, err := cyclePath(states)
+	if err != nil {
+		d.errorf(dg.Off, "diagram: %v", err)
+		return
+	}
+	p.Series = append(p.Series, curveSeries("cycle", path, y, svgplot.Process))
+	for _, s := range states {
+		c := props.CurvePoint{T: s.T, S: s.s, H: s.h}
+		p.Points = append(p.Points, svgplot.Point{Label: stateLabel(s.name), X: s.s / 1000, Y: y(c), Title: s.name})
+	}
+	svg, err := p.SVG()
+	if err != nil {
+		d.errorf(dg.Off, "diagram: %v", err)
+		return
+	}
+	dg.SVG = svg
+}
+
+// stateLabel is a state's name without a leading "st_".
+func stateLabel(name string) string {
+	if l := strings.TrimPrefix(name, "st_"); l != "" {
+		return l
+	}
+	return name
+}
+
+func curveSeries(name string, pts []props.CurvePoint, y func(props.CurvePoint) float64, style svgplot.Style) svgplot.Series {
+	s := svgplot.Series{Name: name, Style: style}
+	for _, c := range pts {
+		s.X = append(s.X, c.S/1000)
+		s.Y = append(s.Y, y(c))
+	}
+	return s
+}
+
+// cyclePath joins the states in order and back to the first: along the
+// isobar where two states share a pressure (heat exchange), as a straight
+// line otherwise (compression, expansion, throttling).
+func cyclePath(states []diagramState) ([]props.CurvePoint, error) {
+	var out []props.CurvePoint
+	for i := range states {
+		a, b := states[i], states[(i+1)%len(states)]
+		out = append(out, props.CurvePoint{T: a.T, S: a.s, H: a.h})
+		if math.Abs(a.p-b.p) > 1e-4*math.Max(a.p, b.p) || a.h == b.h {
+			continue
+		}
+		seg, err := props.Isobar(a.fluid, a.p, a.h, b.h, 40)
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, seg[1:len(seg)-1]...)
+	}
+	out = append(out, props.CurvePoint{T: states[0].T, S: states[0].s, H: states[0].h})
+	return out, nil
+}
+
+// sweepPlots builds the plots of a sweep: each named result against the
+// varied input.
+func (d *Doc) sweepPlots(sw *Sweep) {
+	for k, name := range sw.Plot {
+		col := -1
+		for j, c := range sw.Show {
+			if c.Name == name {
+				col = j
+			}
+		}
+		if col < 0 {
+			d.errorf(sw.plotOffs[k], "plot %s: show %s in the same sweep first", name, name)
+			continue
+		}
+		svg, err := d.sweepPlot(sw, col)
+		if err != nil {
+			d.errorf(sw.plotOffs[k], "plot %s: %v", name, err)
+			continue
+		}
+		sw.SVGs = append(sw.SVGs, svg)
+	}
+}
+
+func (d *Doc) sweepPlot(sw *Sweep, col int) ([]byte, error) {
+	c := sw.Show[col]
+	yu := d.ColumnUnit(c, sw.Rows[0][col])
+	s := svgplot.Series{Name: c.Name, Style: svgplot.Process}
+	for i, x := range sw.X {
+		xv, err := x.In(sw.XUnit, d.Front.Ctx)
+		if err != nil {
+			return nil, err
+		}
+		yv, err := sw.Rows[i][col].In(yu, d.Front.Ctx)
+		if err != nil {
+			return nil, err
+		}
+		s.X, s.Y = append(s.X, xv), append(s.Y, yv)
+	}
+	p := &svgplot.Plot{Title: c.Name + " against " + sw.Var, XLabel: axisLabel(sw.Var, sw.XUnit), YLabel: axisLabel(c.Name, yu), Series: []svgplot.Series{s}}
+	return p.SVG()
+}
+
+func axisLabel(name string, u units.Unit) string {
+	if t := UnitText(u); t != "" {
+		return name + " [" + t + "]"
+	}
+	return name
+}
