@@ -80,7 +80,7 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 		return Props{}, err
 	}
 	if p >= f.Pc || p < f.Pmin() { // no saturation state at this pressure
-		return f.solveIsobar(op, p, target, by, isobar{lo: f.Tmin, hi: f.Tmax})
+		return f.isobarNoDome(op, p, target, by)
 	}
 	if d, ok := f.sideFast(p, target, by); ok {
 		sat := &d.qv
@@ -119,6 +119,23 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 	pr := twoPhase(f.sat(&sp), (target-yf)/(yg-yf))
 	pr.P = p
 	return pr, nil
+}
+
+// isobarNoDome solves an isobar that crosses no saturation state: at or
+// above Pc by Newton's method from the state at Tc where that converges,
+// and otherwise by the bracketed solver over the whole range of T.
+func (f *Fluid) isobarNoDome(op string, p, target float64, by int) (Props, error) {
+	if p >= f.Pc && f.Tc <= f.Tmax {
+		var tp tauPart
+		f.eos.newTauPart(f.eos.tRed/f.Tc, true, &tp)
+		if rho, ok := f.superDensity(&tp, f.Tc, p); ok {
+			q := f.at(&tp, f.Tc, rho)
+			if pr, ok := f.tryNewtonPY(p, target, by, &q); ok {
+				return pr, nil
+			}
+		}
+	}
+	return f.solveIsobar(op, p, target, by, isobar{lo: f.Tmin, hi: f.Tmax})
 }
 
 // isobar is a temperature bracket on an isobar, with the values of

@@ -85,12 +85,17 @@ func (f *Fluid) isobarStart(sat *point, target float64, by int) (T, rho float64)
 	return T, rho
 }
 
-// tryNewtonPY runs the fast path from a saturated state and returns the
-// finished state if it converged to a stable state.
+// tryNewtonPY runs the fast path from a saturated state (or, at or above
+// Pc, from any state on the isobar) and returns the finished state if it
+// converged to a stable state.
 func (f *Fluid) tryNewtonPY(p, target float64, by int, sat *point) (Props, bool) {
 	T0, rho0 := f.isobarStart(sat, target, by)
 	q, ok := f.newtonPY(p, target, by, T0, rho0)
-	if !ok || !f.stableAt(&q, p, sat.rho > f.RhoC) {
+	liquid := sat.rho > f.RhoC
+	if p >= f.Pc {
+		liquid = q.T < f.Tc // compressed liquid below Tc
+	}
+	if !ok || !f.stableAt(&q, p, liquid) {
 		return Props{}, false
 	}
 	pr := f.props(&q)

@@ -141,50 +141,6 @@ var eosIsopentaneLemmonSpan2006 = Fluid{
 	},
 }
 
-// eosMmColonna2006: MM (hexamethyldisiloxane), CAS 107-46-0
-// Colonna, P.; Nannan, N.R.; Guardone, A.; Lemmon, E.W. Multiparameter Equations of State for Selected Siloxanes. Fluid Phase Equilib. 244 (2006) 193-211. doi:10.1016/j.fluid.2006.04.015
-var eosMmColonna2006 = Fluid{
-	Name:      "MM",
-	Aliases:   []string(nil),
-	Key:       "colonna-2006",
-	IsDefault: false,
-	Equation:  "Colonna et al. (2006)",
-	Citation:  "Colonna, P.; Nannan, N.R.; Guardone, A.; Lemmon, E.W. Multiparameter Equations of State for Selected Siloxanes. Fluid Phase Equilib. 244 (2006) 193-211. doi:10.1016/j.fluid.2006.04.015",
-	Reference: "NBP: h = 0 and s = 0 for saturated liquid at the normal boiling point (0.101325 MPa) (integration constants derived for this convention, not taken from the paper)",
-	Status:    "UNVERIFIED against published check values (none found); cross-checked against Thol et al. (2016) only (README)",
-	M:         162.37752e-3,
-	Rmolar:    8.314472,
-	R:         8.314472 / 162.37752e-3,
-	Tred:      518.69997204,
-	RhoRed:    1.87467076 * 162.37752,
-	Ttriple:   204.93,
-	Tmin:      273,
-	Tmax:      673,
-	Pmax:      3e+07,
-	eos: equation{
-		tRed:   518.69997204,
-		rhoRed: 1.87467076 * 162.37752,
-		nPol:   6,
-		nExp:   6,
-		terms: []term{
-			{n: 1.01686012, t: 0.25, d: 1},
-			{n: -2.19713029, t: 1.125, d: 1},
-			{n: 0.75443188, t: 1.5, d: 1},
-			{n: -0.68003426, t: 1.375, d: 2},
-			{n: 0.19082162, t: 0.25, d: 3},
-			{n: 0.0010530133, t: 0.875, d: 7},
-			{n: 0.6284595, t: 0.625, d: 2, l: 1},
-			{n: 0.030903042, t: 1.75, d: 5, l: 1},
-			{n: -0.83948727, t: 3.625, d: 1, l: 2},
-			{n: -0.20262381, t: 3.625, d: 4, l: 2},
-			{n: -0.035131597, t: 14.5, d: 3, l: 3},
-			{n: 0.025902341, t: 12, d: 4, l: 3},
-		},
-		logTau: 5.241406549928847,
-		pow:    []powTerm{{27.1903995187, 0}, {-7.3982398876, 1}, {-23.124320899278608, -1}, {2.244110508755635, -2}, {-0.09791084363162135, -3}},
-	},
-}
-
 // eosMmThol2016: MM (hexamethyldisiloxane), CAS 107-46-0
 // Thol, M.; Dubberke, F.H.; Rutkai, G.; Windmann, T.; Koester, A.; Span, R.; Vrabec, J. Fundamental equation of state correlation for hexamethyldisiloxane based on experimental and molecular simulation data. Fluid Phase Equilib. 418 (2016) 133-151. doi:10.1016/j.fluid.2015.09.047
 var eosMmThol2016 = Fluid{
@@ -379,98 +335,6 @@ var eosR1233zdeAkasakaLemmon2022 = Fluid{
 	},
 }
 
-// eosR1233zdeMondejar2015: R-1233zd(E) (trans-1-chloro-3,3,3-trifluoropropene), CAS 102687-65-0
-// Mondejar, M.E.; McLinden, M.O.; Lemmon, E.W. Thermodynamic Properties of trans-1-Chloro-3,3,3-trifluoropropene (R1233zd(E)): Vapor Pressure, (p, rho, T) Behavior, and Speed of Sound Measurements, and Equation of State. J. Chem. Eng. Data 60 (2015) 2477-2489. doi:10.1021/acs.jced.5b00348
-var eosR1233zdeMondejar2015 = Fluid{
-	Name:      "R-1233zd(E)",
-	Aliases:   []string(nil),
-	Key:       "mondejar-2015",
-	IsDefault: false,
-	Equation:  "Mondéjar, McLinden & Lemmon (2015)",
-	Citation:  "Mondejar, M.E.; McLinden, M.O.; Lemmon, E.W. Thermodynamic Properties of trans-1-Chloro-3,3,3-trifluoropropene (R1233zd(E)): Vapor Pressure, (p, rho, T) Behavior, and Speed of Sound Measurements, and Equation of State. J. Chem. Eng. Data 60 (2015) 2477-2489. doi:10.1021/acs.jced.5b00348",
-	Reference: "IIR: h = 200 kJ/kg and s = 1 kJ/(kg K) for saturated liquid at 273.15 K (integration constants derived for this convention, not taken from the paper)",
-	Status:    "PARTLY verified (no published check values found): cp0 against REFPROP cp0 values quoted in a public issue thread; residual part only by two identical transcriptions and a third-party saturation computation; deviates from Akasaka & Lemmon (2022) by up to 1.8 % in p_sat at 241 K, < 0.25 % above 320 K (README). Superseded by akasaka-lemmon-2022.",
-	M:         130.4944e-3,
-	Rmolar:    8.3144621,
-	R:         8.3144621 / 130.4944e-3,
-	Tred:      439.6,
-	RhoRed:    3.68 * 130.4944,
-	Ttriple:   195.15,
-	Tmin:      195.15,
-	Tmax:      550,
-	Pmax:      1e+08,
-	eos: equation{
-		tRed:   439.6,
-		rhoRed: 3.68 * 130.4944,
-		nPol:   5,
-		nExp:   5,
-		terms: []term{
-			{n: 0.0478487, t: 1, d: 4},
-			{n: 1.60644, t: 0.26, d: 1},
-			{n: -2.27161, t: 1.02, d: 1},
-			{n: -0.530687, t: 0.7, d: 2},
-			{n: 0.169641, t: 0.4, d: 3},
-			{n: -1.85458, t: 1.46, d: 1, l: 2},
-			{n: -0.321916, t: 2.3, d: 3, l: 2},
-			{n: 0.636411, t: 0.66, d: 2, l: 1},
-			{n: -0.121482, t: 2.7, d: 2, l: 2},
-			{n: -0.0262755, t: 1.19, d: 7, l: 1},
-			{n: 2.37362, t: 1.62, d: 1, eta: 0.748, beta: 1.29, gamma: 0.89, eps: 0.508},
-			{n: -0.901771, t: 1.13, d: 1, eta: 1.473, beta: 1.61, gamma: 1.13, eps: 0.366},
-			{n: -0.455962, t: 1.7, d: 3, eta: 1.39, beta: 0.8, gamma: 0.7, eps: 0.38},
-			{n: -0.602941, t: 1.35, d: 2, eta: 0.86, beta: 1.34, gamma: 0.91, eps: 0.773},
-			{n: -0.0594311, t: 1.5, d: 2, eta: 1.8, beta: 0.49, gamma: 1.2, eps: 1.17},
-		},
-		logTau: 3,
-		pow:    []powTerm{{-16.4560148636, 0}, {10.0958641935, 1}},
-		pe:     []idealTerm{{11.795, 630 / 439.6}, {8.6848, 2230 / 439.6}},
-	},
-}
-
-// eosR134aSpanWagner2003: R-134a (1,1,1,2-tetrafluoroethane), CAS 811-97-2
-// Span, R.; Wagner, W. Equations of State for Technical Applications. III. Results for Polar Fluids. Int. J. Thermophys. 24 (2003) 111-162. doi:10.1023/A:1022362231796
-var eosR134aSpanWagner2003 = Fluid{
-	Name:      "R-134a",
-	Aliases:   []string(nil),
-	Key:       "span-wagner-2003",
-	IsDefault: false,
-	Equation:  "Span & Wagner (2003)",
-	Citation:  "Span, R.; Wagner, W. Equations of State for Technical Applications. III. Results for Polar Fluids. Int. J. Thermophys. 24 (2003) 111-162. doi:10.1023/A:1022362231796",
-	Reference: "IIR: h = 200 kJ/kg and s = 1 kJ/(kg K) for saturated liquid at 273.15 K (integration constants derived for this convention, not taken from the paper)",
-	Status:    "verified: Table III (cp0, p, cp at 500 K/500 kg/m3; h and s differences to 600 K/100 kg/m3) reproduced (see README)",
-	M:         102.032e-3,
-	Rmolar:    8.31451,
-	R:         8.31451 / 102.032e-3,
-	Tred:      374.18,
-	RhoRed:    508,
-	Ttriple:   169.85,
-	Tmin:      169.85,
-	Tmax:      600,
-	Pmax:      1e+08,
-	eos: equation{
-		tRed:   374.18,
-		rhoRed: 508,
-		nPol:   5,
-		nExp:   7,
-		terms: []term{
-			{n: 1.0663189, t: 0.25, d: 1},
-			{n: -2.449597, t: 1.25, d: 1},
-			{n: 0.044645718, t: 1.5, d: 1},
-			{n: 0.075656884, t: 0.25, d: 3},
-			{n: 0.00020652089, t: 0.875, d: 7},
-			{n: 0.42006912, t: 2.375, d: 1, l: 1},
-			{n: 0.76739111, t: 2, d: 2, l: 1},
-			{n: 0.0017897427, t: 2.125, d: 5, l: 1},
-			{n: -0.36219746, t: 3.5, d: 1, l: 2},
-			{n: -0.06780937, t: 6.5, d: 1, l: 2},
-			{n: -0.10616419, t: 4.75, d: 4, l: 2},
-			{n: -0.018185791, t: 12.5, d: 2, l: 3},
-		},
-		logTau: -1.629789,
-		pow:    []powTerm{{-1.0301010378, 0}, {9.0550318471, 1}, {-9.723916, -0.5}, {-3.92717, -0.75}},
-	},
-}
-
 // eosR134aTillnerRothBaehr1994: R-134a (1,1,1,2-tetrafluoroethane), CAS 811-97-2
 // Tillner-Roth, R.; Baehr, H.D. An International Standard Formulation for the Thermodynamic Properties of 1,1,1,2-Tetrafluoroethane (HFC-134a) for Temperatures from 170 K to 455 K and Pressures up to 70 MPa. J. Phys. Chem. Ref. Data 23 (1994) 657-729. doi:10.1063/1.555958
 var eosR134aTillnerRothBaehr1994 = Fluid{
@@ -568,51 +432,6 @@ var eosR245faAkasaka2015 = Fluid{
 		logTau: 3,
 		pow:    []powTerm{{-13.38560883, 0}, {9.845374371, 1}},
 		pe:     []idealTerm{{5.5728, 222 / 427.01}, {10.385, 1010 / 427.01}, {12.554, 2450 / 427.01}},
-	},
-}
-
-// eosR245faLemmonSpan2006: R-245fa (1,1,1,3,3-pentafluoropropane), CAS 460-73-1
-// Lemmon, E.W.; Span, R. Short Fundamental Equations of State for 20 Industrial Fluids. J. Chem. Eng. Data 51 (2006) 785-850. doi:10.1021/je050186n
-var eosR245faLemmonSpan2006 = Fluid{
-	Name:      "R-245fa",
-	Aliases:   []string(nil),
-	Key:       "lemmon-span-2006",
-	IsDefault: false,
-	Equation:  "Lemmon & Span (2006)",
-	Citation:  "Lemmon, E.W.; Span, R. Short Fundamental Equations of State for 20 Industrial Fluids. J. Chem. Eng. Data 51 (2006) 785-850. doi:10.1021/je050186n",
-	Reference: "IIR: h = 200 kJ/kg and s = 1 kJ/(kg K) for saturated liquid at 273.15 K",
-	Status:    "verified: Table 10 point (429 K, 3 mol/dm3) reproduced (see README)",
-	M:         134.04794e-3,
-	Rmolar:    8.314472,
-	R:         8.314472 / 134.04794e-3,
-	Tred:      427.16,
-	RhoRed:    3.85 * 134.04794,
-	Ttriple:   171.05,
-	Tmin:      171.05,
-	Tmax:      440,
-	Pmax:      2e+08,
-	eos: equation{
-		tRed:   427.16,
-		rhoRed: 3.85 * 134.04794,
-		nPol:   5,
-		nExp:   7,
-		terms: []term{
-			{n: 1.2904, t: 0.25, d: 1},
-			{n: -3.2154, t: 1.25, d: 1},
-			{n: 0.50693, t: 1.5, d: 1},
-			{n: 0.093148, t: 0.25, d: 3},
-			{n: 0.00027638, t: 0.875, d: 7},
-			{n: 0.71458, t: 2.375, d: 1, l: 1},
-			{n: 0.87252, t: 2, d: 2, l: 1},
-			{n: -0.015077, t: 2.125, d: 5, l: 1},
-			{n: -0.40645, t: 3.5, d: 1, l: 2},
-			{n: -0.11701, t: 6.5, d: 1, l: 2},
-			{n: -0.13062, t: 4.75, d: 4, l: 2},
-			{n: -0.022952, t: 12.5, d: 2, l: 3},
-		},
-		logTau: 3,
-		pow:    []powTerm{{-13.4283638514, 0}, {9.87236538, 1}},
-		pe:     []idealTerm{{5.5728, 222 / 427.16}, {10.385, 1010 / 427.16}, {12.554, 2450 / 427.16}},
 	},
 }
 
