@@ -39,6 +39,11 @@ type Doc struct {
 	Items  []*Item
 	Errors ErrorList
 	Sweeps []*Sweep
+	// DataFiles are the data files the calc read, in order of first use.
+	DataFiles []DataFile
+	// ReadData, when set, reads a root-relative data file instead of the
+	// working tree (verify reads them at the recorded commit).
+	ReadData func(rel string) ([]byte, error)
 
 	diagramBlocks []*diagramBlock
 	// Progress, when set, is told how far a sweep has come.

@@ -157,6 +157,9 @@ func (c *scope) call(v *ast.CallNode) (any, *Error) {
 	if id.Value == "solve" {
 		return c.solve(v)
 	}
+	if id.Value == "csv" {
+		return c.withArgs(v, c.e.readTable)
+	}
 	f, ok := funcs[id.Value]
 	if !ok {
 		names := make([]string, 0, len(funcs))
@@ -201,4 +204,24 @@ func argCount(f *Func) string {
 		return sprintf("%d arguments", f.MinArgs)
 	}
 	return sprintf("%d to %d arguments", f.MinArgs, f.MaxArgs)
+}
+
+// withArgs evaluates a call's arguments and runs f on them.
+func (c *scope) withArgs(v *ast.CallNode, f func([]any) (any, error)) (any, *Error) {
+	args := make([]any, len(v.Arguments))
+	for i, a := range v.Arguments {
+		x, err := c.eval(a)
+		if err != nil {
+			return nil, err
+		}
+		args[i] = x
+	}
+	if len(args) != 1 {
+		return nil, c.errAt(v, "csv(\"path\") takes 1 argument, not %d", len(args))
+	}
+	out, err := f(args)
+	if err != nil {
+		return nil, c.errAt(v, "%s", err.Error())
+	}
+	return out, nil
 }

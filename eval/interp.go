@@ -291,6 +291,8 @@ func kindOf(x any) string {
 		return "text"
 	case Record:
 		return "a state"
+	case *Table:
+		return "a table"
 	}
 	return "a value"
 }
