@@ -1,0 +1,150 @@
+package main
+
+import (
+	"bytes"
+	"flag"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files in testdata/golden")
+
+// examples lists the example calcs.
+func examples(t *testing.T) []string {
+	files, err := filepath.Glob(filepath.Join("..", "..", "examples", "*.calc.md"))
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no examples: %v", err)
+	}
+	return files
+}
+
+// golden compares got with testdata/golden/name, or rewrites it with -update.
+func golden(t *testing.T, name string, got []byte) {
+	t.Helper()
+	path := filepath.Join("testdata", "golden", name)
+	if *update {
+		if err := os.WriteFile(path, got, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		return
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("%v (run go test ./cmd/vouch -update to create it)", err)
+	}
+	if !bytes.Equal(got, want) {
+		t.Errorf("%s differs from its golden file; if the change is intended, run go test ./cmd/vouch -update and review the diff", name)
+	}
+}
+
+// copyOutsideRepo copies a calc and its data folder into a temporary folder
+// outside any repository, so packages do not depend on the commit.
+func copyOutsideRepo(t *testing.T, calc string) string {
+	t.Helper()
+	dir := t.TempDir()
+	src, err := os.ReadFile(calc)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dst := filepath.Join(dir, filepath.Base(calc))
+	if err := os.WriteFile(dst, src, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if data := filepath.Join(filepath.Dir(calc), "data"); dirExists(data) {
+		copyDir(t, data, filepath.Join(dir, "data"))
+	}
+	return dst
+}
+
+func dirExists(p string) bool {
+	st, err := os.Stat(p)
+	return err == nil && st.IsDir()
+}
+
+func copyDir(t *testing.T, from, to string) {
+	t.Helper()
+	if err := os.CopyFS(to, os.DirFS(from)); err != nil {
+		t.Fatal(err)
+	}
+}
+
+func TestGoldenRun(t *testing.T) {
+	for _, f := range examples(t) {
+		name := strings.TrimSuffix(filepath.Base(f), ".calc.md")
+		t.Run(name, func(t *testing.T) {
+			calc := copyOutsideRepo(t, f)
+			var out, errs bytes.Buffer
+			code := run([]string{"run", "--json", calc}, &out, &errs)
+			if code != exitOK {
+				t.Fatalf("exit %d: %s", code, errs.String())
+			}
+			golden(t, name+".json", bytes.ReplaceAll(out.Bytes(), []byte(filepath.Dir(calc)+"/"), nil))
+			out.Reset()
+			run([]string{"run", calc}, &out, &errs)
+			golden(t, name+".txt", out.Bytes())
+			out.Reset()
+			if code := run([]string{"render", calc, "-o", filepath.Dir(calc)}, &out, &errs); code != exitOK {
+				t.Fatalf("render exit %d: %s", code, errs.String())
+			}
+			html, err := os.ReadFile(filepath.Join(filepath.Dir(calc), name+".html"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			golden(t, name+".html", bytes.ReplaceAll(html, []byte(filepath.Dir(calc)+"/"), nil))
+		})
+	}
+}
+
+func TestExitCodes(t *testing.T) {
+	dir := t.TempDir()
+	write := func(name, body string) string {
+		p := filepath.Join(dir, name)
+		os.WriteFile(p, []byte(body), 0o644)
+		return p
+	}
+	ok := write("ok.calc.md", "```calc\na = 1 m\ncheck a > 0 m\n```\n")
+	bad := write("bad.calc.md", "```calc\na = 1 xx\n```\n")
+	fail := write("fail.calc.md", "```calc\na = 1 m\ncheck a > 2 m\n```\n")
+	cases := []struct {
+		args []string
+		want int
+	}{
+		{[]string{"run", ok}, exitOK}, {[]string{"run", bad}, exitErrors}, {[]string{"run", fail}, exitFailed},
+		{[]string{"run"}, exitUsage}, {[]string{"frobnicate"}, exitUsage}, {[]string{"run", "--nope", ok}, exitUsage},
+		{[]string{"run", filepath.Join(dir, "missing.calc.md")}, exitErrors}, {[]string{"--version"}, exitOK},
+		{[]string{"units"}, exitOK}, {[]string{"functions"}, exitOK}, {[]string{"help"}, exitOK},
+	}
+	for _, c := range cases {
+		var out, errs bytes.Buffer
+		if got := run(c.args, &out, &errs); got != c.want {
+			t.Errorf("vouch %v: exit %d, want %d (%s)", c.args, got, c.want, errs.String())
+		}
+	}
+}
+
+// TestRenderErrorWritesNothing: a calc with errors writes no package and
+// leaves the last good one untouched.
+func TestRenderErrorWritesNothing(t *testing.T) {
+	dir := t.TempDir()
+	calc := filepath.Join(dir, "x.calc.md")
+	os.WriteFile(calc, []byte("```calc\na = 1 m\n```\n"), 0o644)
+	var out, errs bytes.Buffer
+	if code := run([]string{"render", calc}, &out, &errs); code != exitOK {
+		t.Fatalf("first render: exit %d: %s", code, errs.String())
+	}
+	good, _ := os.ReadFile(filepath.Join(dir, "x.html"))
+	os.WriteFile(calc, []byte("```calc\na = 1 xx\n```\n"), 0o644)
+	if code := run([]string{"render", calc}, &out, &errs); code != exitErrors {
+		t.Fatalf("broken render: exit %d", code)
+	}
+	after, _ := os.ReadFile(filepath.Join(dir, "x.html"))
+	if !bytes.Equal(good, after) {
+		t.Error("a failed render changed the last good package")
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 2 {
+		t.Errorf("the folder holds %d entries; a failed render must leave no temporary file", len(entries))
+	}
+}
