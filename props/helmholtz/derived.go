@@ -1,10 +1,15 @@
 package helmholtz
 
-// init attaches to each equation the data derived from it by TestDerived
-// (derived_gen.go): its critical point, its highest valid density and its
-// ancillary fits.
+// init fills each term's precomputed factors and attaches to each
+// equation the data derived from it by TestDerived (derived_gen.go): its
+// critical point, its highest valid density and its ancillary fits.
 func init() {
 	for _, f := range allFluids {
+		for i := range f.eos.terms {
+			k := &f.eos.terms[i]
+			k.fd, k.fl = float64(k.d), float64(k.l)
+			k.t2, k.d2 = k.t*(k.t-1), k.fd*(k.fd-1)
+		}
 		a, ok := derivedTable[f.Name+"/"+f.Key]
 		if !ok {
 			continue

@@ -17,16 +17,15 @@ func (e *equation) fused(tau, lt, delta float64) resid {
 	terms := e.terms
 	for i := 0; i < e.nPol; i++ {
 		k := &terms[i]
-		d, t := float64(k.d), k.t
-		g := k.n * pw[k.d] * math.Exp(t*lt)
-		r.add(g, t, t*(t-1), d, d*(d-1))
+		g := k.n * pw[k.d] * math.Exp(k.t*lt)
+		r.add(g, k.t, k.t2, k.fd, k.d2)
 	}
 	for i := e.nPol; i < e.nPol+e.nExp; i++ {
 		k := &terms[i]
-		d, t, l, dl := float64(k.d), k.t, float64(k.l), pw[k.l]
-		g := k.n * pw[k.d] * math.Exp(t*lt-dl)
-		b1 := d - l*dl
-		r.add(g, t, t*(t-1), b1, b1*b1-d-l*(l-1)*dl)
+		dl := pw[k.l]
+		g := k.n * pw[k.d] * math.Exp(k.t*lt-dl)
+		b1 := k.fd - k.fl*dl
+		r.add(g, k.t, k.t2, b1, b1*b1-k.fd-k.fl*(k.fl-1)*dl)
 	}
 	for i := e.nPol + e.nExp; i < len(terms); i++ {
 		k := &terms[i]

@@ -4,8 +4,9 @@ import "math"
 
 // StateHS returns the state at specific enthalpy h and entropy s. It
 // solves along the isentrope s for the pressure at which the enthalpy is h,
-// using (dh/dp) at constant s = v, from the lowest saturation pressure of
-// the equation (divided by 100) up to Pmax.
+// by Newton's method in ln p with (dh/d ln p) at constant s = p v, kept
+// within the bracket from the lowest saturation pressure of the equation
+// (divided by 100) to Pmax.
 func (f *Fluid) StateHS(h, s float64) (Props, error) {
 	if err := checkFinite("h", h); err != nil {
 		return Props{}, err
@@ -24,24 +25,32 @@ func (f *Fluid) StateHS(h, s float64) (Props, error) {
 		return last.H - h, p * last.V
 	}
 	lo, hi := math.Log(f.Pmin()/100), math.Log(f.Pmax)
-	glo, _ := eval(lo)
-	if glo > 0 && err == nil {
-		return Props{}, &RangeError{Input: "h", Value: h, Limit: last.H, Reason: reasonHminS}
+	lnp, _ := rtsafe(eval, lo, hi, math.Log(f.Pc/10), 1e-15)
+	g, _ := eval(lnp)
+	scale := math.Max(math.Abs(h), f.R*f.Tc)
+	if err == nil && math.Abs(g) <= 1e-10*scale {
+		return last, nil
 	}
-	ghi, _ := eval(hi)
-	if ghi < 0 && err == nil {
-		return Props{}, &RangeError{Input: "h", Value: h, Limit: last.H, Above: true, Reason: reasonHmaxS}
+	// The search ended at an edge: of the pressure bracket, or of the
+	// equation's temperature range along the isentrope (where StatePS
+	// reports s out of range). Then h is out of reach for this s.
+	above, atEdge := g < 0, lnp-lo < 1e-6 || hi-lnp < 1e-6
+	if re, ok := err.(*RangeError); ok && re.Input == "s" {
+		above, atEdge = re.Above, true
+		step := 1e-9
+		if above {
+			step = -step
+		}
+		eval(lnp + step) // the nearest valid state gives the limit
 	}
-	if !(glo < 0 && ghi > 0) {
+	if err != nil || !atEdge {
 		return Props{}, &SolveError{Op: "StateHS", Reason: whyNoState}
 	}
-	lnp, ok := brent(func(x float64) float64 { g, _ := eval(x); return g }, lo, hi, 1e-15)
-	if ok {
-		if g, _ := eval(lnp); err == nil && math.Abs(g) <= 1e-9*math.Max(math.Abs(h), f.R*f.Tc) {
-			return last, nil
-		}
+	r := reasonHminS
+	if above {
+		r = reasonHmaxS
 	}
-	return Props{}, &SolveError{Op: "StateHS", Reason: whyNoState}
+	return Props{}, &RangeError{Input: "h", Value: h, Limit: last.H, Above: above, Reason: r}
 }
 
 // hsSignal maps a (p, s) state outside the equation's range to the sign

@@ -19,6 +19,8 @@ type term struct {
 	n, t                  float64
 	d, l                  int
 	eta, beta, gamma, eps float64
+	// Filled in by init (derived.go): float d and l, t(t-1), d(d-1).
+	fd, fl, t2, d2 float64
 }
 
 // powTerm is an ideal-gas term n tau^t (integration constants and the

@@ -154,6 +154,8 @@ func TestRangeErrors(t *testing.T) {
 		{"x NaN", func() error { _, e := f.StatePX(1e5, math.NaN()); return e }, "x", 0, false},
 		{"h above Tmax", func() error { _, e := f.StatePH(1e5, 2e6); return e }, "h", 0, true},
 		{"s below Tmin", func() error { _, e := f.StatePS(1e6, -1e4); return e }, "s", 0, false},
+		{"h above, given s", func() error { _, e := f.StateHS(5e6, 1800); return e }, "h", 0, true},
+		{"h NaN", func() error { _, e := f.StateHS(math.NaN(), 1800); return e }, "h", 0, false},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
