@@ -33,19 +33,32 @@ func (f *Fluid) StateHS(h, s float64) (Props, error) {
 	}
 	// The search ended at an edge: of the pressure bracket, or of the
 	// equation's temperature range along the isentrope (where StatePS
-	// reports s out of range). Then h is out of reach for this s.
-	above, atEdge := g < 0, lnp-lo < 1e-6 || hi-lnp < 1e-6
-	if re, ok := err.(*RangeError); ok && re.Input == "s" {
-		above, atEdge = re.Above, true
-		step := 1e-9
-		if above {
+	// reports s out of range). Then h is out of reach for this s; the
+	// nearest valid state gives the limit.
+	if err != nil {
+		re, ok := err.(*RangeError)
+		if !ok || re.Input != "s" {
+			return Props{}, &SolveError{Op: "StateHS", Reason: whyNoState}
+		}
+		step := 1e-8
+		if re.Above {
 			step = -step
 		}
-		eval(lnp + step) // the nearest valid state gives the limit
+		if g, _ = eval(lnp + step); err != nil {
+			return Props{}, &SolveError{Op: "StateHS", Reason: whyNoState}
+		}
+	} else if lnp-lo > 1e-6 && hi-lnp > 1e-6 {
+		step := 1e-8
+		if g > 0 {
+			step = -step
+		}
+		saved := last
+		if eval(lnp + step); err == nil {
+			return Props{}, &SolveError{Op: "StateHS", Reason: whyNoConv}
+		}
+		last = saved
 	}
-	if err != nil || !atEdge {
-		return Props{}, &SolveError{Op: "StateHS", Reason: whyNoState}
-	}
+	above := g < 0
 	r := reasonHminS
 	if above {
 		r = reasonHmaxS
