@@ -285,3 +285,24 @@ func TestImports(t *testing.T) {
 		}
 	}
 }
+
+// TestOnSaturationLine checks that (p, T) on the saturation line is
+// refused rather than given a phase by chance.
+func TestOnSaturationLine(t *testing.T) {
+	f := mustLookup(t, "isopentane")
+	sat, err := f.SatT(350)
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = f.StatePT(sat.P, 350)
+	var se *SolveError
+	if !errors.As(err, &se) {
+		t.Errorf("StatePT on the saturation line: %v, want a *SolveError", err)
+	}
+	if st, err := f.StatePT(sat.P*(1+1e-6), 350); err != nil || st.Phase != Liquid {
+		t.Errorf("just above psat: %v %v", st.Phase, err)
+	}
+	if st, err := f.StatePT(sat.P*(1-1e-6), 350); err != nil || st.Phase != Vapour {
+		t.Errorf("just below psat: %v %v", st.Phase, err)
+	}
+}
