@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 )
 
 // Default size of a plot, in px of the viewBox, used when Width or Height
@@ -176,4 +177,5 @@ func checkFinite(what string, v float64, add func(string, ...any)) bool {
 
 func isFinite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
-func fmtErrNum(v float64) string { return fmt.Sprintf("%g", v) }
+// fmtErrNum formats a number for an error message, exactly and briefly.
+func fmtErrNum(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }

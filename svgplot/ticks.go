@@ -16,14 +16,15 @@ const maxRelSpan = 1e12
 
 // NiceTicks returns the multiples of a "nice" step that lie in [lo, hi],
 // ascending. The step is the smallest of the form 1, 2 or 5 × 10^k that
-// gives at most maxTicks ticks (maxTicks above 1000 counts as 1000). Each
-// tick is the float64 nearest to its decimal value, so a step of 0.1 yields
-// 0.3 rather than 0.30000000000000004. If lo equals hi the result is that
-// one value. It returns nil for non-finite or inverted bounds, for
-// maxTicks < 1, and for a span too small for float64 to tell ticks apart
+// gives at most maxTicks ticks (maxTicks above 1000 counts as 1000); with
+// maxTicks >= 2 there is at least one tick. Each tick is the float64
+// nearest to its decimal value, so a step of 0.1 yields 0.3 rather than
+// 0.30000000000000004, and zero is never -0. If lo equals hi the result is
+// that one value. It returns nil for non-finite or inverted bounds, for
+// maxTicks < 2, and for a span too small for float64 to tell ticks apart
 // (an end more than 10^12 spans from zero).
 func NiceTicks(lo, hi float64, maxTicks int) []float64 {
-	if lo == hi && isFinite(lo) && maxTicks >= 1 {
+	if lo == hi && isFinite(lo) && maxTicks >= 2 {
 		return []float64{lo}
 	}
 	s, ok := chooseStep(lo, hi, maxTicks)
@@ -105,7 +106,7 @@ func decimal(n int64, exp int) float64 {
 // spanOK reports whether ticks can be made for [lo, hi].
 func spanOK(lo, hi float64, maxTicks int) bool {
 	span := hi - lo
-	return isFinite(lo) && isFinite(hi) && lo < hi && maxTicks >= 1 &&
+	return isFinite(lo) && isFinite(hi) && lo < hi && maxTicks >= 2 &&
 		isFinite(span) && max(math.Abs(lo), math.Abs(hi)) <= maxRelSpan*span
 }
 
@@ -152,8 +153,9 @@ func autoRange(lo, hi float64, maxTicks int) (nlo, nhi float64, s step, ok bool)
 	}
 }
 
-// tickLabels formats ticks made with step s compactly: with as many
-// decimals as the step needs, or in e-notation for very large or small steps.
+// tickLabels formats ticks made with step s compactly: zero as "0", others
+// with as many decimals as the step needs, or in e-notation for very large
+// or small steps.
 func tickLabels(ticks []float64, s step) []string {
 	out := make([]string, len(ticks))
 	sci := s.exp > 5 || s.exp < -4
@@ -162,7 +164,9 @@ func tickLabels(ticks []float64, s step) []string {
 		prec = max(0, maxExp(ticks)-s.exp)
 	}
 	for i, v := range ticks {
-		if sci {
+		if v == 0 {
+			out[i] = "0"
+		} else if sci {
 			out[i] = sciLabel(v, prec)
 		} else {
 			out[i] = noNegZero(strconv.FormatFloat(v, 'f', prec, 64))
@@ -185,9 +189,6 @@ func maxExp(ticks []float64) int {
 
 // sciLabel formats v as "1.5e7" or "-2e-5".
 func sciLabel(v float64, prec int) string {
-	if v == 0 {
-		return "0"
-	}
 	s := strconv.FormatFloat(v, 'e', prec, 64)
 	mant, exp, _ := strings.Cut(s, "e")
 	e, _ := strconv.Atoi(exp)
