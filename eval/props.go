@@ -30,6 +30,36 @@ func init() {
 		}})
 }
 
+func init() {
+	register(&Func{Name: "fluid", Args: "\"NAME\", A, B", MinArgs: 3, MaxArgs: 3,
+		Doc:   "state of a working fluid (organic fluids by their Helmholtz equations; \"water\" by IAPWS-IF97) from two of p, T, h, s, v or rho, x",
+		Range: "each equation's own range; `vouch functions --fluids` lists them",
+		Call: func(a []any) (any, error) {
+			name, ok := a[0].(string)
+			if !ok {
+				return nil, errorf("fluid needs the fluid's name in quotes first, such as fluid(\"isopentane\", p, T)")
+			}
+			x, y, err := twoQuantities("fluid", a)
+			if err != nil {
+				return nil, err
+			}
+			return props.Fluid(name, x, y)
+		}})
+	register(&Func{Name: "fluid_sat", Args: "\"NAME\", p or T", MinArgs: 2, MaxArgs: 2,
+		Doc: "saturation line of a working fluid at a pressure or temperature; fields p T hf hg hfg sf sg sfg vf vg",
+		Call: func(a []any) (any, error) {
+			name, ok := a[0].(string)
+			if !ok {
+				return nil, errorf("fluid_sat needs the fluid's name in quotes first, such as fluid_sat(\"isopentane\", T)")
+			}
+			x, err := quantityArg(a, 1)
+			if err != nil {
+				return nil, err
+			}
+			return props.FluidSat(name, x)
+		}})
+}
+
 func twoQuantities(fn string, a []any) (units.Quantity, units.Quantity, error) {
 	x, err := quantityArg(a, len(a)-2)
 	if err != nil {

@@ -6,6 +6,7 @@ import (
 	"text/tabwriter"
 
 	"vouch/eval"
+	"vouch/props"
 )
 
 func cmdFunctions(_ []string, stdout, _ io.Writer) int {
@@ -16,5 +17,13 @@ func cmdFunctions(_ []string, stdout, _ io.Writer) int {
 	}
 	tw.Flush()
 	fmt.Fprintln(stdout, "\nconstant: pi")
+	fmt.Fprintf(stdout, "\nstate inputs, read from their dimensions: %v\n", props.Pairs)
+	fmt.Fprintln(stdout, "\nfluids for fluid(NAME, A, B) and fluid_sat(NAME, X):")
+	tw = tabwriter.NewWriter(stdout, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "fluid\talso\tequation of state\trange\treference state")
+	for _, f := range props.Fluids() {
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\n", f.Name, f.Aliases, f.Equation, f.Range, f.Reference)
+	}
+	tw.Flush()
 	return exitOK
 }

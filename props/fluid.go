@@ -1,0 +1,177 @@
+package props
+
+import (
+	"errors"
+	"fmt"
+	"strings"
+
+	"vouch/props/helmholtz"
+	"vouch/units"
+)
+
+// normalName folds a fluid name for lookup: lower case, no hyphens or spaces.
+func normalName(s string) string {
+	return strings.NewReplacer("-", "", " ", "", "_", "").Replace(strings.ToLower(s))
+}
+
+// isWater reports whether a fluid name means water (IAPWS-IF97).
+func isWater(name string) bool {
+	n := normalName(name)
+	return n == "water" || n == "steam" || n == "h2o" || n == "r718"
+}
+
+// lookupFluid finds an organic fluid or says which name was meant.
+func lookupFluid(name string) (*helmholtz.Fluid, error) {
+	f, ok := helmholtz.Lookup(name)
+	if ok {
+		return f, nil
+	}
+	msg := fmt.Sprintf("unknown fluid %q", name)
+	if near := helmholtz.Nearest(name); near != "" {
+		msg += fmt.Sprintf("; did you mean %q?", near)
+	}
+	return nil, errors.New(msg + "; `vouch functions` lists the fluids")
+}
+
+// Fluid returns the state of a working fluid from two properties read from
+// their dimensions: water by IAPWS-IF97, the organic fluids by their
+// Helmholtz-energy equations of state.
+func Fluid(name string, a, b units.Quantity) (*State, error) {
+	if isWater(name) {
+		return Water(a, b)
+	}
+	f, err := lookupFluid(name)
+	if err != nil {
+		return nil, err
+	}
+	call := fmt.Sprintf("fluid(%q", f.Name)
+	ka, kb, qa, qb, err := pair(call+", A, B)", a, b)
+	if err != nil {
+		return nil, err
+	}
+	call += fmt.Sprintf(", %s, %s)", ka, kb)
+	if err := positive(call, ka, qa, kb, qb); err != nil {
+		return nil, err
+	}
+	var p helmholtz.Props
+	switch string(ka) + "," + string(kb) {
+	case "p,T":
+		p, err = f.StatePT(qa.V, qb.V)
+	case "p,h":
+		p, err = f.StatePH(qa.V, qb.V)
+	case "p,s":
+		p, err = f.StatePS(qa.V, qb.V)
+	case "h,s":
+		p, err = f.StateHS(qa.V, qb.V)
+	case "p,x":
+		p, err = f.StatePX(qa.V, qb.V)
+	case "T,x":
+		p, err = f.StateTX(qa.V, qb.V)
+	case "T,v":
+		p, err = f.StateTRho(qa.V, 1/qb.V)
+	default:
+		return nil, fmt.Errorf("%s is not a pair the fluid functions can solve; use one of (p, T), (p, h), (p, s), (h, s), (p, x), (T, x), (T, v), (T, rho)", call)
+	}
+	if err != nil {
+		return nil, fluidError(call, f, err)
+	}
+	return fluidState(f, p), nil
+}
+
+// FluidSat returns the saturation line of a working fluid at a pressure or
+// a temperature.
+func FluidSat(name string, x units.Quantity) (*Sat, error) {
+	if isWater(name) {
+		return WaterSat(x)
+	}
+	f, err := lookupFluid(name)
+	if err != nil {
+		return nil, err
+	}
+	var s helmholtz.Sat
+	var call string
+	switch x.D {
+	case units.DimPressure:
+		call = fmt.Sprintf("fluid_sat(%q, p)", f.Name)
+		s, err = f.SatP(x.V)
+	case units.DimTemperature:
+		call = fmt.Sprintf("fluid_sat(%q, T)", f.Name)
+		s, err = f.SatT(x.V)
+	default:
+		return nil, fmt.Errorf("fluid_sat needs a pressure or a temperature, not %s", x.D.Name())
+	}
+	if err != nil {
+		return nil, fluidError(call, f, err)
+	}
+	return numSat{P: s.P, T: s.T, Hf: s.Hf, Hg: s.Hg, Sf: s.Sf, Sg: s.Sg, Vf: s.Vf, Vg: s.Vg}.sat(f.Name, f.Equation, f.Reference), nil
+}
+
+// fluidError turns a numerics error into a message with values and limits.
+func fluidError(call string, f *helmholtz.Fluid, err error) error {
+	var re *helmholtz.RangeError
+	if errors.As(err, &re) {
+		return fmt.Errorf("%s: %s", call, limitText(re.Input, re.Value, re.Limit, re.Above, re.Reason, f.Equation+" for "+f.Name))
+	}
+	return fmt.Errorf("%s: %v", call, err)
+}
+
+func fluidState(f *helmholtz.Fluid, p helmholtz.Props) *State {
+	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
+		Phase: p.Phase.String(), TwoPhase: p.Phase == helmholtz.TwoPhase}
+	s := n.state(f.Name, f.Equation, f.Reference)
+	for _, k := range []string{"mu", "k"} {
+		delete(s.values, k)
+		s.missing[k] = "vouch has no transport-property correlation for " + f.Name
+	}
+	return s
+}
+
+// FluidInfo describes a working fluid for listings.
+type FluidInfo struct {
+	Name, Aliases, Equation, Range, Reference string
+}
+
+// Fluids lists water and the organic fluids with their equations.
+func Fluids() []FluidInfo {
+	out := []FluidInfo{{Name: "water", Aliases: "steam", Equation: IF97, Range: "273.15–1073.15 K at p ≤ 100 MPa; to 2273.15 K at p ≤ 50 MPa", Reference: IF97Reference}}
+	for _, n := range helmholtz.Names() {
+		f, _ := helmholtz.Lookup(n)
+		out = append(out, FluidInfo{Name: f.Name, Aliases: strings.Join(f.Aliases, ", "), Equation: f.Equation,
+			Range: fmt.Sprintf("%.2f–%.2f K, p ≤ %g MPa", f.Tmin, f.Tmax, f.Pmax/1e6), Reference: f.Reference})
+	}
+	return out
+}
+
+// fluidSatFunc, fluidSatAtP and fluidStateTS serve diagrams of the organic
+// fluids.
+func fluidSatFunc(fluid string) (func(T float64) (numSat, error), float64, float64, error) {
+	f, err := lookupFluid(fluid)
+	if err != nil {
+		return nil, 0, 0, err
+	}
+	return func(T float64) (numSat, error) {
+		s, err := f.SatT(T)
+		return numSat{P: s.P, T: s.T, Hf: s.Hf, Hg: s.Hg, Sf: s.Sf, Sg: s.Sg, Vf: s.Vf, Vg: s.Vg}, err
+	}, f.Tmin, f.Tc, nil
+}
+
+func fluidSatAtP(fluid string, p float64) (float64, float64, bool) {
+	f, err := lookupFluid(fluid)
+	if err != nil {
+		return 0, 0, false
+	}
+	s, err := f.SatP(p)
+	return s.Hf, s.Hg, err == nil
+}
+
+func fluidStateTS(fluid string, p, h float64) (float64, float64, error) {
+	f, err := lookupFluid(fluid)
+	if err != nil {
+		return 0, 0, err
+	}
+	st, err := f.StatePH(p, h)
+	if err != nil {
+		return 0, 0, fluidError("fluid(p, h)", f, err)
+	}
+	return st.T, st.S, nil
+}
