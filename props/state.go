@@ -46,6 +46,9 @@ func (s *State) Field(name string) (any, error) {
 // FieldNames lists the fields of a state.
 func (s *State) FieldNames() []string { return stateFields }
 
+// Source names the formulation the state comes from.
+func (s *State) Source() string { return s.Formulation }
+
 // Quantity returns a quantity field, for renderers and tests.
 func (s *State) Quantity(name string) (units.Quantity, bool) {
 	q, ok := s.values[name]
@@ -74,6 +77,9 @@ func (s *Sat) Field(name string) (any, error) {
 // FieldNames lists the fields of a saturation point.
 func (s *Sat) FieldNames() []string { return satFields }
 
+// Source names the formulation the saturation point comes from.
+func (s *Sat) Source() string { return s.Formulation }
+
 // Quantity returns a quantity field.
 func (s *Sat) Quantity(name string) (units.Quantity, bool) {
 	q, ok := s.values[name]
@@ -94,10 +100,10 @@ func joinFields(f []string) string {
 // numState is a state in SI base units, as both numerics packages give it.
 type numState struct {
 	P, T, V, Rho, H, S, U, Cp, Cv, W, X float64
-	Mu, K                              float64 // 0 when not available
-	Phase                              string
-	Region                             int
-	TwoPhase                           bool
+	Mu, K                               float64 // 0 when not available
+	Phase                               string
+	Region                              int
+	TwoPhase                            bool
 }
 
 // quantities builds a State from SI numbers.
