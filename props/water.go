@@ -3,6 +3,9 @@ package props
 import (
 	"errors"
 	"fmt"
+	"math"
+	"strconv"
+	"strings"
 
 	"vouch/props/if97"
 	"vouch/units"
@@ -124,15 +127,25 @@ func rangeMessage(call, formulation string, err error) error {
 }
 
 func limitText(input string, v, limit float64, above bool, reason, formulation string) string {
-	side := "below the lower"
+	side := "below"
 	if above {
-		side = "above the upper"
+		side = "above"
 	}
-	msg := fmt.Sprintf("%s = %s is %s limit %s of %s", input, showValue(input, v), side, showValue(input, limit), formulation)
-	if reason != "" {
+	msg := fmt.Sprintf("%s = %s is %s the %s limit of %s", input, showValue(input, v), side, showValue(input, limit), formulation)
+	if reason != "" && !strings.Contains(reason, formulation) {
 		msg += " (" + reason + ")"
 	}
 	return msg
+}
+
+// showNum writes a number with up to six significant figures and no
+// trailing zeros.
+func showNum(v float64) string {
+	s := strconv.FormatFloat(v, 'g', 6, 64)
+	if strings.Contains(s, "e") && math.Abs(v) >= 1e-3 && math.Abs(v) < 1e7 {
+		s = strconv.FormatFloat(v, 'f', -1, 64)
+	}
+	return strings.Replace(s, "-", "−", 1)
 }
 
 // showValue formats an SI value of a named input in the unit engineers use
@@ -140,12 +153,12 @@ func limitText(input string, v, limit float64, above bool, reason, formulation s
 func showValue(input string, v float64) string {
 	unit := map[string]string{"p": "MPa", "T": "K", "h": "kJ/kg", "s": "kJ/(kg*K)", "v": "m^3/kg", "rho": "kg/m^3", "u": "kJ/kg"}[input]
 	if unit == "" {
-		return units.FormatSig(v, 6)
+		return showNum(v)
 	}
 	u := units.MustParse(unit)
-	s := units.FormatSig(v/u.Factor, 6) + " " + unit
+	s := showNum(v/u.Factor) + " " + unit
 	if input == "T" {
-		s += " (" + units.FormatSig(v-273.15, 6) + " °C)"
+		s += " (" + showNum(math.Round((v-273.15)*1e6)/1e6) + " °C)"
 	}
 	return s
 }
