@@ -2,20 +2,16 @@ package calcdoc
 
 import (
 	"bytes"
-	"crypto/sha256"
-	"encoding/hex"
 	"html/template"
-	"math"
 	"sort"
-	"strconv"
 
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
 
+	"vouch/calcdoc/provenance"
 	"vouch/eval"
 	"vouch/props"
 	"vouch/templates"
-	"vouch/units"
 )
 
 // Caution is the notice on every cover (PRODUCT.md §3).
@@ -24,6 +20,9 @@ const Caution = "This package records calculations. It is no substitute for the 
 // RenderOptions are what the package records beyond the calc itself.
 type RenderOptions struct {
 	Engine string // engine version
+	// Record is the calc's provenance and signatures. When nil, Render
+	// takes it from the work tree and git (Doc.Provenance), unsigned.
+	Record *Record
 }
 
 type view struct {
@@ -42,9 +41,24 @@ type view struct {
 	ResultsDigest                            string
 	Formulations                             []string
 	Digits                                   int
+
+	// Provenance and signatures (cover.go).
+	Signatures                   []sigView
+	HistoryMore                  int
+	Manifest                     *provenance.Manifest
+	ManifestDigest, ManifestJSON string
+	Versioned, Committed         bool
+	CommitDate, VerifyCommand    string
 }
 
-type roleView struct{ Role, Name, Email, Date, Fingerprint, State string }
+type roleView struct {
+	Role, Name, Email, Date, Fingerprint, State string
+	Valid                                       bool
+}
+type sigView struct {
+	Role, Name, Principal, Fingerprint, Date, State string
+	Valid                                           bool
+}
 type revView struct{ Date, Commit, Author, Subject string }
 type rowView struct {
 	Name, Value string // trusted HTML built by this package
@@ -78,7 +92,17 @@ func (d *Doc) Render(opt RenderOptions) ([]byte, error) {
 	if err := md.Renderer().Render(&body, d.body, d.MD); err != nil {
 		return nil, err
 	}
+	rec := opt.Record
+	if rec == nil {
+		var err error
+		if rec, err = d.Provenance(opt.Engine); err != nil {
+			return nil, err
+		}
+	}
 	v := d.view(opt)
+	if err := v.setRecord(d, rec); err != nil {
+		return nil, err
+	}
 	v.Body = body.String()
 	var out bytes.Buffer
 	if err := packageTemplate.Execute(&out, v); err != nil {
@@ -89,21 +113,9 @@ func (d *Doc) Render(opt RenderOptions) ([]byte, error) {
 
 func (d *Doc) view(opt RenderOptions) *view {
 	f := d.Front
-	sum := sha256.Sum256(d.Src)
 	v := &view{
-		Title: f.Title, Number: f.Number, Project: f.Project, Revision: f.Revision, Status: "DRAFT",
-		Caution: Caution, Engine: opt.Engine, SourcePath: d.Path, SourceHash: hex.EncodeToString(sum[:]),
-		ResultsDigest: d.ResultsDigest(), Digits: f.Digits,
-		HistoryNote: "The calc is not under version control; it has no recorded revisions and cannot be signed.",
-	}
-	if f.Atmosphere != "" {
-		v.Atmosphere = f.Atmosphere
-	}
-	for _, r := range []struct {
-		role string
-		p    Person
-	}{{"Preparer", f.People.Preparer}, {"Checker", f.People.Checker}, {"Approver", f.People.Approver}} {
-		v.Roles = append(v.Roles, roleView{Role: r.role, Name: r.p.Name, Email: r.p.Email, State: "not signed"})
+		Title: f.Title, Number: f.Number, Project: f.Project, Revision: f.Revision,
+		Caution: Caution, Engine: opt.Engine, Digits: f.Digits, Atmosphere: f.Atmosphere,
 	}
 	v.Summary = d.summaryRows()
 	v.Checks, v.Failed = d.checkRows()
@@ -195,19 +207,3 @@ func (d *Doc) outcomeOf(name string) (*eval.Outcome, bool) {
 	}
 	return it.Outcome, true
 }
-
-// ResultsDigest is the SHA-256 of every result's name, SI value (shortest
-// text that reads back to the same bits) and SI unit, one per line.
-func (d *Doc) ResultsDigest() string {
-	h := sha256.New()
-	for _, it := range d.Results() {
-		q := it.Outcome.Value.(units.Quantity)
-		h.Write([]byte(it.Stmt.Name + " " + strconv.FormatFloat(q.V, 'g', -1, 64) + " " + units.SIUnitText(q.D) + "\n"))
-	}
-	for _, it := range d.Checks() {
-		h.Write([]byte("check " + strconv.Itoa(it.Stmt.Line) + " " + strconv.FormatBool(it.Outcome.Pass) + "\n"))
-	}
-	return hex.EncodeToString(h.Sum(nil))
-}
-
-var _ = math.Inf

@@ -30,6 +30,8 @@ func init() {
 	commands = []command{
 		{"run", "[--json] FILE", "evaluate a calc and print its results and checks", cmdRun},
 		{"render", "FILE... [-o DIR]", "write the HTML package of each calc", cmdRender},
+		{"sign", "PACKAGE --role ROLE [--key KEY]", "verify, reproduce and sign a package for one role", cmdSign},
+		{"verify", "PACKAGE [--signers FILE]", "check a package's signatures and reproduce it from git", cmdVerify},
 		{"units", "", "list every unit with its SI factor", cmdUnits},
 		{"functions", "", "list the functions a calc can call", cmdFunctions},
 		{"help", "", "show this help", cmdHelp},

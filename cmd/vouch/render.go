@@ -48,7 +48,7 @@ func renderOne(path, outDir string, stdout, stderr io.Writer) int {
 		return exitErrors
 	}
 	dest := packagePath(path, outDir)
-	if err := writeAtomic(dest, html); err != nil {
+	if err := writePackage(dest, html); err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors
 	}

@@ -1,0 +1,215 @@
+package calcdoc
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+
+	"vouch/calcdoc/provenance"
+)
+
+// ErrNotVerified is returned by Sign when the package does not verify and
+// reproduce: nothing is signed.
+var ErrNotVerified = errors.New("the package does not verify")
+
+// SignOptions say who signs a package, for which role and with which key.
+type SignOptions struct {
+	VerifyOptions
+	Role string // preparer, checker or approver
+	// Key is an SSH private key file, or a public key file (KEY.pub) whose
+	// private key the ssh-agent holds. With "" the ssh-agent's key is used:
+	// its only key, or the one the allowed-signers file lists for the
+	// signer.
+	Key string
+	// Signature is an armored SSHSIG made elsewhere, such as with
+	// ssh-keygen -Y sign -n calc-package@vouch over the manifest's Payload
+	// for the role; when set, no key is used.
+	Signature []byte
+}
+
+// Signed is a package with one more signature, ready to be written.
+type Signed struct {
+	HTML         []byte               // the package, rendered again
+	ManifestFile []byte               // the manifest file to write beside it
+	Signature    provenance.Signature // the new signature
+	Status       string               // the stamp the package now carries
+}
+
+// Sign adds one signature to a package. It first verifies and reproduces
+// the package as Verify does, and refuses one that does not verify (a
+// failure about the role being signed is no obstacle: that signature is
+// replaced), one rendered from uncommitted changes, and one whose earlier
+// roles are not validly signed. The signature is an SSHSIG over the
+// manifest's Payload for the role, made as the person the front matter
+// names for the role, and dated with the commit's date. Signatures of the
+// other roles are kept. The package is rendered again from the source at
+// the commit, so its cover shows the signature.
+func Sign(pkgPath string, opt SignOptions) (*Signed, *Report, error) {
+	if !contains(Roles, opt.Role) {
+		return nil, nil, usageErr("role %q: the roles are %s", opt.Role, strings.Join(Roles, ", "))
+	}
+	v, err := newVerifier(pkgPath, opt.VerifyOptions)
+	if err != nil {
+		return nil, nil, err
+	}
+	v.run()
+	if blocked(v.rep, opt.Role) || v.repro == nil {
+		return nil, v.rep, fmt.Errorf("%w; not signed", ErrNotVerified)
+	}
+	if err := v.checkOrder(opt.Role); err != nil {
+		return nil, v.rep, err
+	}
+	signed, err := v.sign(opt)
+	return signed, v.rep, err
+}
+
+// blocked reports a failure that is not about the role being signed.
+func blocked(rep *Report, role string) bool {
+	for _, f := range rep.Failures() {
+		if f.Role != role {
+			return true
+		}
+	}
+	return false
+}
+
+// checkOrder refuses a signature whose earlier roles are not validly
+// signed: the checker signs after the preparer, the approver after both.
+func (v *verifier) checkOrder(role string) error {
+	states := v.repro.doc.checkSignatures(v.repro.record)
+	for _, r := range Roles {
+		if r == role {
+			return nil
+		}
+		if !validRole(states, r) {
+			return fmt.Errorf("%w: the %s signs after the %s, and the package has no valid %s signature", ErrNotVerified, role, r, r)
+		}
+	}
+	return nil
+}
+
+func validRole(states []sigState, role string) bool {
+	for _, st := range states {
+		if st.Sig.Role == role && st.Valid {
+			return true
+		}
+	}
+	return false
+}
+
+// sign makes the signature and renders the signed package.
+func (v *verifier) sign(opt SignOptions) (*Signed, error) {
+	d := v.repro.doc
+	p := d.person(opt.Role)
+	if p.Email == "" {
+		return nil, usageErr("%s names no %s under people: in the front matter; add one, commit, render and sign again", v.m.Source, opt.Role)
+	}
+	rec := *v.repro.record
+	m := *rec.Manifest
+	s := provenance.Signature{Role: opt.Role, Principal: p.Email, Name: p.Name, Date: rec.Date}
+	s, err := v.signWith(&m, s, opt)
+	if err != nil {
+		return nil, err
+	}
+	m.Signatures = withSignature(m.Signatures, s)
+	rec.Manifest = &m
+	html, err := v.repro.render(opt.Engine, &rec)
+	if err != nil {
+		return nil, err
+	}
+	file, err := ManifestFile(&m)
+	if err != nil {
+		return nil, err
+	}
+	return &Signed{HTML: html, ManifestFile: file, Signature: s, Status: stamp(d.checkSignatures(&rec))}, nil
+}
+
+// withSignature replaces the signatures of s's role by s and orders the
+// signatures by role.
+func withSignature(sigs []provenance.Signature, s provenance.Signature) []provenance.Signature {
+	out := []provenance.Signature{s}
+	for _, x := range sigs {
+		if x.Role != s.Role {
+			out = append(out, x)
+		}
+	}
+	sort.SliceStable(out, func(i, j int) bool { return roleIndex(out[i].Role) < roleIndex(out[j].Role) })
+	return out
+}
+
+func roleIndex(role string) int {
+	for i, r := range Roles {
+		if r == role {
+			return i
+		}
+	}
+	return len(Roles)
+}
+
+// signWith signs with the key file, or with the ssh-agent when there is
+// none, or takes a signature made elsewhere, after checking the key against
+// the allowed-signers file if one was given.
+func (v *verifier) signWith(m *provenance.Manifest, s provenance.Signature, opt SignOptions) (provenance.Signature, error) {
+	if len(opt.Signature) > 0 {
+		return v.attach(m, s, opt.Signature)
+	}
+	if key := opt.Key; key != "" {
+		signer, err := provenance.LoadSigner(key)
+		if err != nil {
+			return s, &UsageError{Err: err}
+		}
+		if v.opt.Signers != "" && !v.allowed.Allows(s.Principal, signer.PublicKey()) {
+			return s, usageErr("%s does not list key %s (%s) for %s", v.opt.Signers, provenance.Fingerprint(signer.PublicKey()), key, s.Principal)
+		}
+		return m.SignAs(s, signer)
+	}
+	if os.Getenv("SSH_AUTH_SOCK") == "" {
+		return s, usageErr("no signing key: give --key KEYFILE, or start an ssh-agent holding your key")
+	}
+	signers, err := provenance.AgentSigners()
+	if err != nil {
+		return s, &UsageError{Err: err}
+	}
+	var fps []string
+	pick := -1
+	for i, sg := range signers {
+		fps = append(fps, provenance.Fingerprint(sg.PublicKey()))
+		if v.opt.Signers != "" && v.allowed.Allows(s.Principal, sg.PublicKey()) && pick < 0 {
+			pick = i
+		}
+	}
+	switch {
+	case len(signers) == 0:
+		return s, usageErr("the ssh-agent holds no key: run ssh-add KEYFILE, or give --key KEYFILE")
+	case pick >= 0:
+	case v.opt.Signers != "":
+		return s, usageErr("the ssh-agent holds no key that %s lists for %s (it holds %s)", filepath.Base(v.opt.Signers), s.Principal, strings.Join(fps, ", "))
+	case len(signers) == 1:
+		pick = 0
+	default:
+		return s, usageErr("the ssh-agent holds %d keys (%s): pick one with --key KEY.pub, or give --signers FILE", len(signers), strings.Join(fps, ", "))
+	}
+	return m.SignAs(s, signers[pick])
+}
+
+// attach checks a signature made elsewhere and fills in its key.
+func (v *verifier) attach(m *provenance.Manifest, s provenance.Signature, armored []byte) (provenance.Signature, error) {
+	payload, err := m.Payload(s.Role)
+	if err != nil {
+		return s, err
+	}
+	armored = append(bytes.TrimSpace(armored), '\n')
+	pub, err := provenance.VerifySig(payload, armored, provenance.Namespace)
+	if err != nil {
+		return s, usageErr("the signature is not a %s signature of this manifest (%s): %w", s.Role, payload, err)
+	}
+	if v.opt.Signers != "" && !v.allowed.Allows(s.Principal, pub) {
+		return s, usageErr("%s does not list key %s for %s", v.opt.Signers, provenance.Fingerprint(pub), s.Principal)
+	}
+	s.Fingerprint, s.Signature = provenance.Fingerprint(pub), string(armored)
+	return s, nil
+}

@@ -1,0 +1,94 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+
+	"vouch/calcdoc"
+)
+
+func cmdSign(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("sign", stderr)
+	role := fs.String("role", "", "the role signed: preparer, checker or approver")
+	key := fs.String("key", "", "SSH private key, or KEY.pub of a key in the ssh-agent (default: the ssh-agent's key)")
+	signers := fs.String("signers", "", "allowed-signers file to check the key against")
+	repo := fs.String("repo", "", "a directory inside the calc's repository (default: the package's directory)")
+	sigFile := fs.String("signature", "", "an SSHSIG made elsewhere over the role's payload, instead of a key")
+	files, err := parseArgs(fs, args)
+	if err != nil {
+		return exitUsage
+	}
+	if len(files) != 1 || *role == "" {
+		fmt.Fprintln(stderr, "usage: vouch sign PACKAGE.html --role preparer|checker|approver [--key KEYFILE] [--signers FILE] [--repo DIR]")
+		return exitUsage
+	}
+	opt := calcdoc.SignOptions{Role: *role, Key: *key,
+		VerifyOptions: calcdoc.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers}}
+	if *sigFile != "" {
+		if opt.Signature, err = os.ReadFile(*sigFile); err != nil {
+			fmt.Fprintf(stderr, "vouch: %v\n", err)
+			return exitUsage
+		}
+	}
+	return signOne(files[0], opt, stdout, stderr)
+}
+
+// signOne signs a package and writes it back with its manifest file; a
+// package that does not verify is left untouched.
+func signOne(path string, opt calcdoc.SignOptions, stdout, stderr io.Writer) int {
+	signed, rep, err := calcdoc.Sign(path, opt)
+	if err != nil {
+		if rep != nil && errors.Is(err, calcdoc.ErrNotVerified) {
+			fmt.Fprint(stderr, rep.String())
+		}
+		fmt.Fprintf(stderr, "vouch: %s: %v\n", path, err)
+		return errorCode(err)
+	}
+	if err := writePackageFiles(path, signed.HTML, signed.ManifestFile); err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
+	s := signed.Signature
+	fmt.Fprintf(stdout, "signed %s as %s: %s <%s>, key %s, dated %s\nstatus %s\n",
+		path, s.Role, s.Name, s.Principal, s.Fingerprint, s.Date, signed.Status)
+	return exitOK
+}
+
+// errorCode maps a sign or verify error to an exit code.
+func errorCode(err error) int {
+	var usage *calcdoc.UsageError
+	switch {
+	case errors.As(err, &usage):
+		return exitUsage
+	case errors.Is(err, calcdoc.ErrNotVerified):
+		return exitFailed
+	}
+	return exitErrors
+}
+
+// writePackage writes a rendered package and, beside it, the manifest
+// file taken from the package itself.
+func writePackage(dest string, html []byte) error {
+	m, err := calcdoc.ManifestOf(html)
+	if err != nil {
+		return err
+	}
+	file, err := calcdoc.ManifestFile(m)
+	if err != nil {
+		return err
+	}
+	return writePackageFiles(dest, html, file)
+}
+
+// writePackageFiles writes the package and its manifest file, each through
+// a temporary file renamed into place: the manifest first, so that a
+// package on disk never has an older manifest beside it.
+func writePackageFiles(dest string, html, manifest []byte) error {
+	if err := writeAtomic(calcdoc.ManifestPath(dest), manifest); err != nil {
+		return fmt.Errorf("manifest of %s: %w", filepath.Base(dest), err)
+	}
+	return writeAtomic(dest, html)
+}

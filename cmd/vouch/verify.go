@@ -1,0 +1,32 @@
+package main
+
+import (
+	"fmt"
+	"io"
+
+	"vouch/calcdoc"
+)
+
+func cmdVerify(args []string, stdout, stderr io.Writer) int {
+	fs := newFlags("verify", stderr)
+	signers := fs.String("signers", "", "allowed-signers file (OpenSSH format) naming each person's key")
+	repo := fs.String("repo", "", "a directory inside the calc's repository (default: the package's directory)")
+	files, err := parseArgs(fs, args)
+	if err != nil {
+		return exitUsage
+	}
+	if len(files) != 1 {
+		fmt.Fprintln(stderr, "usage: vouch verify PACKAGE.html [--signers FILE] [--repo DIR]")
+		return exitUsage
+	}
+	rep, err := calcdoc.Verify(files[0], calcdoc.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers})
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return errorCode(err)
+	}
+	fmt.Fprint(stdout, rep.String())
+	if !rep.OK() {
+		return exitFailed
+	}
+	return exitOK
+}
