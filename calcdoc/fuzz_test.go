@@ -1,0 +1,31 @@
+package calcdoc
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+)
+
+// FuzzRead feeds arbitrary documents to the reader and the evaluator: they
+// must never panic, and every error must have a position inside the file.
+func FuzzRead(f *testing.F) {
+	files, _ := filepath.Glob(filepath.Join("..", "examples", "*.calc.md"))
+	for _, p := range files {
+		if src, err := os.ReadFile(p); err == nil {
+			f.Add(src)
+		}
+	}
+	f.Add([]byte("---\ntitle: x\n---\n```calc\na = 1 m\ncheck a > 0 m\n```\n`=a [mm]`\n"))
+	f.Add([]byte("> ```calc\n> a = 1\n> ```\n- ~~~calc\n  b = a\n  ~~~\n"))
+	dir := f.TempDir()
+	f.Fuzz(func(t *testing.T, src []byte) {
+		d := Read(filepath.Join(dir, "f.calc.md"), src)
+		d.Evaluate()
+		for _, e := range d.Errors {
+			if e.Pos.Line < 1 || e.Pos.Col < 1 || e.Pos.Off < 0 || e.Pos.Off > len(src) {
+				t.Fatalf("error outside the file: %+v", e)
+			}
+		}
+		_ = d.Errors.Format("f.calc.md", src)
+	})
+}
