@@ -1,0 +1,153 @@
+package calcdoc
+
+import (
+	"bytes"
+	"errors"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"vouch/calcdoc/provenance"
+)
+
+func TestRecordOutsideRepository(t *testing.T) {
+	dir := tempDir(t)
+	calc := filepath.Join(dir, "fp.calc.md")
+	if err := os.WriteFile(calc, []byte(signCalc), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	pkg := renderFile(t, calc)
+	html, _ := os.ReadFile(pkg)
+	for _, want := range []string{
+		"The calc is not under version control: it has no recorded revisions and cannot be signed.",
+		`<div class="stamp draft">DRAFT</div>`,
+	} {
+		if !bytes.Contains(html, []byte(want)) {
+			t.Errorf("package lacks %q", want)
+		}
+	}
+	m, err := ManifestOf(html)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if m.Commit != "" || m.Clean || m.Source != "fp.calc.md" || m.SourceHash != provenance.BlobHash([]byte(signCalc)) {
+		t.Errorf("manifest = commit %q, clean %v, source %q, hash %s", m.Commit, m.Clean, m.Source, m.SourceHash)
+	}
+	_, rep, err := Sign(pkg, SignOptions{Role: "preparer", Key: "unused", VerifyOptions: VerifyOptions{Engine: "test"}})
+	if !errors.Is(err, ErrNotVerified) {
+		t.Fatalf("sign outside a repository: %v, want ErrNotVerified", err)
+	}
+	failsWith(t, rep, "source", "not under version control")
+}
+
+func TestRecordInRepository(t *testing.T) {
+	r := calcRepo(t)
+	head := r.git("rev-parse", "HEAD")
+	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	html := r.read("calcs/fp.html")
+	m, err := ManifestOf(html)
+	if err != nil {
+		t.Fatal(err)
+	}
+	blob := r.git("rev-parse", "HEAD:calcs/fp.calc.md")
+	if m.Source != "calcs/fp.calc.md" || m.Commit != head || !m.Clean || m.SourceHash != blob {
+		t.Errorf("manifest = source %q commit %s clean %v hash %s; want calcs/fp.calc.md %s true %s", m.Source, m.Commit, m.Clean, m.SourceHash, head, blob)
+	}
+	if m.Engine != "vouch test" || m.Formulation != "IAPWS-IF97" || m.FormulationVersion == "" {
+		t.Errorf("engine %q, formulation %q %q", m.Engine, m.Formulation, m.FormulationVersion)
+	}
+	names := []string{}
+	for _, res := range m.Results {
+		names = append(names, res.Name)
+	}
+	if got := strings.Join(names, " "); got != "p_in p_out m_dot w_p P_pump check:21" {
+		t.Errorf("results = %s", got)
+	}
+	for _, want := range []string{head[:12], "Feed pump power, first issue", "with a clean work tree", "vouch verify fp.html --signers allowed_signers"} {
+		if !bytes.Contains(html, []byte(want)) {
+			t.Errorf("package lacks %q", want)
+		}
+	}
+	file, err := provenance.ParseManifest(r.read("calcs/fp.manifest.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if a, b := canonical(t, file), canonical(t, m); !bytes.Equal(a, b) {
+		t.Error("the manifest file differs from the embedded manifest")
+	}
+	if again := renderFile(t, r.path("calcs/fp.calc.md")); !bytes.Equal(html, r.read("calcs/fp.html")) || again != pkg {
+		t.Error("two renders at the same commit differ")
+	}
+}
+
+func canonical(t *testing.T, m *provenance.Manifest) []byte {
+	t.Helper()
+	b, err := m.Canonical()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b
+}
+
+// TestRecordDirty: uncommitted changes to the calc or to another tracked
+// file mark the package unclean, and sign refuses it.
+func TestRecordDirty(t *testing.T) {
+	for _, c := range []struct{ name, file, note string }{
+		{"source", "calcs/fp.calc.md", "Rendered from uncommitted changes to the calc file"},
+		{"tree", "README.md", "while the work tree had uncommitted changes"},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			r := calcRepo(t)
+			r.write("README.md", "Test plant calcs (fictional).\n")
+			r.commit("readme")
+			content := signCalc + "\nA note.\n"
+			if c.file == "README.md" {
+				content = "changed\n"
+			}
+			r.write(c.file, content)
+			pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+			html := r.read("calcs/fp.html")
+			m, _ := ManifestOf(html)
+			if m.Clean {
+				t.Error("manifest says clean")
+			}
+			if !bytes.Contains(html, []byte(c.note)) {
+				t.Errorf("cover lacks %q", c.note)
+			}
+			k := newKey(t, "ed25519")
+			_, rep, err := Sign(pkg, SignOptions{Role: "preparer", Key: k.path, VerifyOptions: VerifyOptions{Engine: "test"}})
+			if !errors.Is(err, ErrNotVerified) {
+				t.Fatalf("sign: %v, want ErrNotVerified", err)
+			}
+			if c.name == "source" {
+				failsWith(t, rep, "source", "rendered from uncommitted changes")
+			} else {
+				failsWith(t, rep, "source", "clean: false")
+			}
+		})
+	}
+}
+
+// TestRecordDataFiles: a data file's hash is recorded; verify reads it at
+// the commit, so a later edit in the work tree changes nothing.
+func TestRecordDataFiles(t *testing.T) {
+	r := newGitRepo(t)
+	r.write("calcs/data/cw.csv", "# cooling-water curve (fictional)\nT_cw [degC],p [kPa]\n10,4.5\n20,6.5\n30,9.8\n")
+	r.write("calcs/cw.calc.md", "---\ntitle: condenser pressure (fictional)\n---\n```calc\ncw = csv(\"data/cw.csv\")\np_c [kPa] = interp(cw, \"T_cw\", 25 degC, \"p\")\n```\n")
+	r.commit("condenser curve")
+	pkg := renderFile(t, r.path("calcs/cw.calc.md"))
+	m, _ := ManifestOf(r.read("calcs/cw.html"))
+	blob := r.git("rev-parse", "HEAD:calcs/data/cw.csv")
+	if len(m.Data) != 1 || m.Data[0].Path != "calcs/data/cw.csv" || m.Data[0].Hash != blob || !m.Clean {
+		t.Fatalf("data = %+v, clean %v; want calcs/data/cw.csv %s", m.Data, m.Clean, blob)
+	}
+	r.write("calcs/data/cw.csv", "T_cw [degC],p [kPa]\n10,5\n30,10\n")
+	if rep := verifyPkg(t, pkg, ""); !rep.OK() {
+		t.Fatalf("verify after a work-tree edit of the data:\n%s", rep)
+	}
+	renderFile(t, r.path("calcs/cw.calc.md"))
+	if m, _ := ManifestOf(r.read("calcs/cw.html")); m.Clean {
+		t.Error("a modified data file left the manifest clean")
+	}
+}

@@ -1,0 +1,234 @@
+package calcdoc
+
+import (
+	"bytes"
+	"errors"
+	stdhtml "html"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+	"time"
+
+	"vouch/calcdoc/provenance"
+)
+
+// TestSignAndVerify signs as preparer, checker and approver with Ed25519
+// and RSA keys, and verifies after each step.
+func TestSignAndVerify(t *testing.T) {
+	for _, typ := range []string{"ed25519", "rsa"} {
+		t.Run(typ, func(t *testing.T) {
+			r := calcRepo(t)
+			pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+			prep, chk, appr := newKey(t, typ), newKey(t, typ), newKey(t, typ)
+			signers := allowedSigners(t, preparerEmail, prep, checkerEmail, chk, approverEmail, appr)
+			date := r.git("log", "-1", "--format=%cd", "--date=iso-strict-local", "HEAD")
+			for i, step := range []struct {
+				role string
+				k    key
+			}{{"preparer", prep}, {"checker", chk}, {"approver", appr}} {
+				s := signPkg(t, pkg, step.role, step.k, signers)
+				if s.Status != stamps[i] {
+					t.Errorf("after %s: status %s, want %s", step.role, s.Status, stamps[i])
+				}
+				rep := verifyPkg(t, pkg, signers)
+				if !rep.OK() || rep.Status != stamps[i] {
+					t.Fatalf("verify after %s: status %s\n%s", step.role, rep.Status, rep)
+				}
+				m, _ := ManifestOf(r.read("calcs/fp.html"))
+				if len(m.Signatures) != i+1 {
+					t.Errorf("after %s: %d signatures", step.role, len(m.Signatures))
+				}
+			}
+			html := stdhtml.UnescapeString(string(r.read("calcs/fp.html")))
+			for _, want := range []string{`<div class="stamp">APPROVED</div>`, "C. Reader", day(date), fingerprint(t, chk)} {
+				if !strings.Contains(html, want) {
+					t.Errorf("cover lacks %q", want)
+				}
+			}
+		})
+	}
+}
+
+// fingerprint is a test key's SHA256 fingerprint.
+func fingerprint(t *testing.T, k key) string {
+	t.Helper()
+	a, err := provenance.ParseAllowedSigners([]byte("x " + k.pub))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return provenance.Fingerprint(a[0].Key)
+}
+
+// TestSignReplacesRole: signing a role again replaces its signature and
+// keeps the others.
+func TestSignReplacesRole(t *testing.T) {
+	r := calcRepo(t)
+	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	prep, chk, chk2 := newKey(t, "ed25519"), newKey(t, "ed25519"), newKey(t, "ed25519")
+	signPkg(t, pkg, "preparer", prep, "")
+	signPkg(t, pkg, "checker", chk, "")
+	signPkg(t, pkg, "checker", chk2, "")
+	m, _ := ManifestOf(r.read("calcs/fp.html"))
+	if len(m.Signatures) != 2 || m.Signatures[0].Role != "preparer" || m.Signatures[1].Role != "checker" {
+		t.Fatalf("signatures = %+v", m.Signatures)
+	}
+	if m.Signatures[1].Fingerprint != fingerprint(t, chk2) {
+		t.Error("the second checker signature did not replace the first")
+	}
+	signers := allowedSigners(t, preparerEmail, prep, checkerEmail, chk2)
+	if rep := verifyPkg(t, pkg, signers); !rep.OK() || rep.Status != "CHECKED" {
+		t.Fatalf("verify:\n%s", rep)
+	}
+}
+
+// TestSignOrder: the checker signs after the preparer, the approver after
+// both.
+func TestSignOrder(t *testing.T) {
+	r := calcRepo(t)
+	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	k := newKey(t, "ed25519")
+	_, _, err := Sign(pkg, SignOptions{Role: "checker", Key: k.path, VerifyOptions: VerifyOptions{Engine: "test"}})
+	if !errors.Is(err, ErrNotVerified) || !strings.Contains(err.Error(), "the checker signs after the preparer") {
+		t.Fatalf("checker before preparer: %v", err)
+	}
+	_, _, err = Sign(pkg, SignOptions{Role: "reviewer", Key: k.path, VerifyOptions: VerifyOptions{Engine: "test"}})
+	var usage *UsageError
+	if !errors.As(err, &usage) {
+		t.Fatalf("unknown role: %v, want a usage error", err)
+	}
+}
+
+// TestSignatureInteroperability: a signature vouch makes verifies with
+// ssh-keygen -Y verify, and one ssh-keygen -Y sign makes over the same
+// payload is accepted by vouch.
+func TestSignatureInteroperability(t *testing.T) {
+	for _, typ := range []string{"ed25519", "rsa"} {
+		t.Run(typ, func(t *testing.T) {
+			r := calcRepo(t)
+			pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+			prep, chk := newKey(t, typ), newKey(t, typ)
+			signers := allowedSigners(t, preparerEmail, prep, checkerEmail, chk)
+			signPkg(t, pkg, "preparer", prep, signers)
+
+			m, _ := ManifestOf(r.read("calcs/fp.html"))
+			payload, err := m.Payload("preparer")
+			if err != nil {
+				t.Fatal(err)
+			}
+			if ok, out := keygenVerify(t, signers, preparerEmail, payload, []byte(m.Signatures[0].Signature)); !ok {
+				t.Fatalf("ssh-keygen -Y verify refused vouch's signature:\n%s", out)
+			}
+
+			payload, _ = m.Payload("checker")
+			sig := keygenSign(t, chk.path, payload)
+			s, rep, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})
+			if err != nil {
+				t.Fatalf("attach ssh-keygen signature: %v\n%v", err, rep)
+			}
+			writePkg(t, pkg, s.HTML)
+			if rep := verifyPkg(t, pkg, signers); !rep.OK() || rep.Status != "CHECKED" {
+				t.Fatalf("verify with an ssh-keygen signature:\n%s", rep)
+			}
+
+			wrong := keygenSign(t, chk.path, []byte(strings.Replace(string(payload), "checker", "approver", 1)))
+			_, _, err = Sign(pkg, SignOptions{Role: "checker", Signature: wrong, VerifyOptions: VerifyOptions{Engine: "test"}})
+			if err == nil || !strings.Contains(err.Error(), "is not a checker signature of this manifest") {
+				t.Errorf("a signature over another payload: %v", err)
+			}
+		})
+	}
+}
+
+// keygenVerify runs ssh-keygen -Y verify on a payload and signature.
+func keygenVerify(t *testing.T, signers, principal string, payload, sig []byte) (bool, string) {
+	t.Helper()
+	sigPath := filepath.Join(t.TempDir(), "role.sig")
+	if err := os.WriteFile(sigPath, sig, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cmd := exec.Command("ssh-keygen", "-Y", "verify", "-f", signers, "-I", principal, "-n", provenance.Namespace, "-s", sigPath)
+	cmd.Stdin = bytes.NewReader(payload)
+	out, err := cmd.CombinedOutput()
+	return err == nil, string(out)
+}
+
+// keygenSign signs a payload with ssh-keygen -Y sign.
+func keygenSign(t *testing.T, keyPath string, payload []byte) []byte {
+	t.Helper()
+	msg := filepath.Join(t.TempDir(), "payload")
+	if err := os.WriteFile(msg, payload, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if out, err := exec.Command("ssh-keygen", "-Y", "sign", "-f", keyPath, "-n", provenance.Namespace, msg).CombinedOutput(); err != nil {
+		t.Fatalf("ssh-keygen -Y sign: %v\n%s", err, out)
+	}
+	sig, err := os.ReadFile(msg + ".sig")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return sig
+}
+
+// TestSignWithAgent signs with the key an ssh-agent holds.
+func TestSignWithAgent(t *testing.T) {
+	needTool(t, "ssh-agent")
+	needTool(t, "ssh-add")
+	r := calcRepo(t)
+	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	prep, other := newKey(t, "ed25519"), newKey(t, "ed25519")
+	sock := startAgent(t)
+	for _, k := range []key{prep, other} {
+		cmd := exec.Command("ssh-add", "-q", k.path)
+		cmd.Env = append(os.Environ(), "SSH_AUTH_SOCK="+sock)
+		if out, err := cmd.CombinedOutput(); err != nil {
+			t.Fatalf("ssh-add: %v\n%s", err, out)
+		}
+	}
+	t.Setenv("SSH_AUTH_SOCK", sock)
+	opt := SignOptions{Role: "preparer", VerifyOptions: VerifyOptions{Engine: "test"}}
+	if _, _, err := Sign(pkg, opt); err == nil || !strings.Contains(err.Error(), "the ssh-agent holds 2 keys") {
+		t.Fatalf("two agent keys, no signers file: %v", err)
+	}
+	opt.Signers = allowedSigners(t, preparerEmail, prep)
+	s, _, err := Sign(pkg, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Signature.Fingerprint != fingerprint(t, prep) {
+		t.Error("the agent signed with the key the signers file does not list")
+	}
+	opt.Key = prep.path + ".pub"
+	if _, _, err := Sign(pkg, opt); err != nil {
+		t.Errorf("sign with KEY.pub through the agent: %v", err)
+	}
+}
+
+// startAgent starts an ssh-agent on a socket in a temporary folder and
+// stops it when the test ends.
+func startAgent(t *testing.T) string {
+	t.Helper()
+	dir, err := os.MkdirTemp("", "agent")
+	if err != nil {
+		t.Fatal(err)
+	}
+	sock := filepath.Join(dir, "s")
+	cmd := exec.Command("ssh-agent", "-D", "-a", sock)
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() {
+		cmd.Process.Kill()
+		cmd.Wait()
+		os.RemoveAll(dir)
+	})
+	for i := 0; i < 200; i++ {
+		if _, err := os.Stat(sock); err == nil {
+			return sock
+		}
+		time.Sleep(10 * time.Millisecond)
+	}
+	t.Fatal("ssh-agent did not start")
+	return ""
+}

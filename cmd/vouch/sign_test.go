@@ -1,0 +1,110 @@
+package main
+
+import (
+	"bytes"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// needTools skips the test when an executable is missing, unless CI is
+// set, where a missing tool is a failure.
+func needTools(t *testing.T, names ...string) {
+	t.Helper()
+	for _, name := range names {
+		if _, err := exec.LookPath(name); err != nil {
+			if os.Getenv("CI") != "" {
+				t.Fatalf("%s is required when CI is set: %v", name, err)
+			}
+			t.Skipf("%s not found: %v", name, err)
+		}
+	}
+}
+
+// signRepo makes a repository holding the example calc, committed, with a
+// fictional identity and date, and returns its folder.
+func signRepo(t *testing.T) string {
+	t.Helper()
+	needTools(t, "git", "ssh-keygen")
+	dir := t.TempDir()
+	src, err := os.ReadFile(filepath.Join("..", "..", "examples", "rankine-simple.calc.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	os.WriteFile(filepath.Join(dir, "hb.calc.md"), src, 0o644)
+	os.WriteFile(filepath.Join(dir, ".gitignore"), []byte("*.html\n*.manifest.json\n"), 0o644)
+	for _, args := range [][]string{{"init", "-q", "-b", "main"}, {"add", "-A"}, {"commit", "-q", "-m", "Unit 1 heat balance"}} {
+		cmd := exec.Command("git", args...)
+		cmd.Dir = dir
+		cmd.Env = append(os.Environ(), "GIT_CONFIG_GLOBAL=/dev/null", "GIT_CONFIG_NOSYSTEM=1",
+			"GIT_AUTHOR_NAME=P. Writer (fictional)", "GIT_AUTHOR_EMAIL=preparer@example.com",
+			"GIT_COMMITTER_NAME=P. Writer (fictional)", "GIT_COMMITTER_EMAIL=preparer@example.com",
+			"GIT_AUTHOR_DATE=2026-03-02T10:00:00Z", "GIT_COMMITTER_DATE=2026-03-02T10:00:00Z")
+		if out, err := cmd.CombinedOutput(); err != nil {
+			t.Fatalf("git %v: %v\n%s", args, err, out)
+		}
+	}
+	return dir
+}
+
+// sshKey makes an Ed25519 key and returns its path and public key text.
+func sshKey(t *testing.T) (string, string) {
+	t.Helper()
+	path := filepath.Join(t.TempDir(), "id")
+	if out, err := exec.Command("ssh-keygen", "-q", "-t", "ed25519", "-N", "", "-f", path).CombinedOutput(); err != nil {
+		t.Fatalf("ssh-keygen: %v\n%s", err, out)
+	}
+	pub, _ := os.ReadFile(path + ".pub")
+	f := strings.Fields(string(pub))
+	return path, f[0] + " " + f[1]
+}
+
+// TestSignVerifyCommands runs render, sign and verify as a user would and
+// checks the exit codes and that a refused sign leaves the package alone.
+func TestSignVerifyCommands(t *testing.T) {
+	dir := signRepo(t)
+	calc, pkg := filepath.Join(dir, "hb.calc.md"), filepath.Join(dir, "hb.html")
+	key, pub := sshKey(t)
+	signers := filepath.Join(dir, "..", "allowed_signers")
+	os.WriteFile(signers, []byte("preparer@example.com "+pub+"\n"), 0o644)
+	vouch := func(want int, args ...string) string {
+		t.Helper()
+		var out, errs bytes.Buffer
+		if got := run(args, &out, &errs); got != want {
+			t.Fatalf("vouch %s: exit %d, want %d\n%s%s", strings.Join(args, " "), got, want, out.String(), errs.String())
+		}
+		return out.String() + errs.String()
+	}
+	vouch(exitOK, "render", calc)
+	vouch(exitOK, "verify", pkg)
+	vouch(exitUsage, "sign", pkg)
+	vouch(exitUsage, "sign", pkg, "--role", "reviewer", "--key", key)
+	vouch(exitUsage, "verify", filepath.Join(dir, "missing.html"))
+	vouch(exitUsage, "sign", pkg, "--role", "preparer", "--key", filepath.Join(dir, "no-such-key"))
+	before, _ := os.ReadFile(pkg)
+	vouch(exitFailed, "sign", pkg, "--role", "checker", "--key", key)
+	if after, _ := os.ReadFile(pkg); !bytes.Equal(before, after) {
+		t.Error("a refused sign changed the package")
+	}
+	out := vouch(exitOK, "sign", pkg, "--role", "preparer", "--key", key, "--signers", signers)
+	if !strings.Contains(out, "status PREPARED") {
+		t.Errorf("sign output:\n%s", out)
+	}
+	out = vouch(exitOK, "verify", pkg, "--signers", signers)
+	if !strings.Contains(out, "status:   PREPARED") || !strings.Contains(out, "result:   VERIFIED") {
+		t.Errorf("verify output:\n%s", out)
+	}
+	os.WriteFile(signers, []byte("checker@example.com "+pub+"\n"), 0o644)
+	out = vouch(exitFailed, "verify", pkg, "--signers", signers)
+	if !strings.Contains(out, "FAIL  preparer") {
+		t.Errorf("verify with the key listed for another person:\n%s", out)
+	}
+	entries, _ := os.ReadDir(dir)
+	for _, e := range entries {
+		if strings.HasSuffix(e.Name(), ".tmp") {
+			t.Errorf("temporary file %s left behind", e.Name())
+		}
+	}
+}
