@@ -19,8 +19,8 @@ const (
 // minBox is the smallest width or height of the plot area, in px.
 const minBox = 40
 
-// pointPad widens the automatic range around Points by this fraction of
-// the data span, so state markers and their labels clear the frame.
+// pointPad widens an automatic range by this fraction of its length at an
+// end that a Point lies near, so state markers clear the frame.
 const pointPad = 0.03
 
 // rect is an axis-aligned box in px, x0 < x1 and y0 < y1 (y grows down).
@@ -86,7 +86,7 @@ func (p *Plot) layout() (*layout, error) {
 	if l.h-top-bottom < minBox {
 		return nil, fmt.Errorf("svgplot: height = %s leaves no room for the plot area", fmtErrNum(l.h))
 	}
-	xd, yd := p.extent()
+	xd, yd := p.extents()
 	var err error
 	if l.y, err = makeAxis("y", p.YMin, p.YMax, yd, ticksFor(l.h-top-bottom, 45)); err != nil {
 		return nil, err
@@ -131,22 +131,26 @@ func rightMargin(labels []string) float64 {
 	return math.Ceil(max(12, textWidth(labels[len(labels)-1], fontTick)/2+4))
 }
 
-// extent returns the [min, max] of the data along x and y; the extent of
-// the Points is widened by pointPad of the span.
-func (p *Plot) extent() (xd, yd [2]float64) {
-	sx, sy := newSpan(), newSpan()
+// extent is the data extent along one axis: of everything, and of the
+// Points alone.
+type extent struct{ all, pts span }
+
+// extents returns the data extents along x and y.
+func (p *Plot) extents() (x, y extent) {
+	x, y = extent{newSpan(), newSpan()}, extent{newSpan(), newSpan()}
 	for _, s := range p.Series {
 		for i := range min(len(s.X), len(s.Y)) {
-			sx.add(s.X[i])
-			sy.add(s.Y[i])
+			x.all.add(s.X[i])
+			y.all.add(s.Y[i])
 		}
 	}
-	px, py := newSpan(), newSpan()
 	for _, pt := range p.Points {
-		px.add(pt.X)
-		py.add(pt.Y)
+		x.all.add(pt.X)
+		y.all.add(pt.Y)
+		x.pts.add(pt.X)
+		y.pts.add(pt.Y)
 	}
-	return sx.union(px), sy.union(py)
+	return x, y
 }
 
 // span is a running [min, max].
@@ -158,31 +162,29 @@ func (s *span) add(v float64) {
 	s[0], s[1] = min(s[0], v), max(s[1], v)
 }
 
-func (s span) empty() bool { return s[0] > s[1] }
-
-// union returns the extent of s and of the points pts padded by pointPad.
-func (s span) union(pts span) [2]float64 {
-	all := s
-	if !pts.empty() {
-		all.add(pts[0])
-		all.add(pts[1])
-		pad := pointPad * (all[1] - all[0])
-		all.add(pts[0] - pad)
-		all.add(pts[1] + pad)
+// padEnds widens lo..hi by pointPad of its length at each end that a point
+// lies within that distance of.
+func (e extent) padEnds(lo, hi float64) (float64, float64) {
+	pad := pointPad * (hi - lo)
+	if e.pts[0] <= e.pts[1] {
+		lo = min(lo, e.pts[0]-pad)
+		hi = max(hi, e.pts[1]+pad)
 	}
-	return all
+	return lo, hi
 }
 
 // makeAxis builds the scale of one axis, from the explicit range lo..hi or,
-// when both are zero, from the data extent ext.
-func makeAxis(name string, lo, hi float64, ext [2]float64, maxTicks int) (axis, error) {
+// when both are zero, from the data extent ext: widened to whole tick steps
+// and then, where a point lies near an end, by pointPad.
+func makeAxis(name string, lo, hi float64, ext extent, maxTicks int) (axis, error) {
 	if lo == 0 && hi == 0 {
-		nlo, nhi, s, ok := autoRange(ext[0], ext[1], maxTicks)
+		nlo, nhi, s, ok := autoRange(ext.all[0], ext.all[1], maxTicks)
 		if !ok {
 			return axis{}, fmt.Errorf("svgplot: %s data from %s to %s cannot be scaled: the span is too narrow for the magnitude or too wide",
-				name, fmtErrNum(ext[0]), fmtErrNum(ext[1]))
+				name, fmtErrNum(ext.all[0]), fmtErrNum(ext.all[1]))
 		}
 		t := s.ticks(nlo, nhi)
+		nlo, nhi = ext.padEnds(nlo, nhi)
 		return axis{lo: nlo, hi: nhi, ticks: t, labels: tickLabels(t, s)}, nil
 	}
 	s, ok := chooseStep(lo, hi, maxTicks)

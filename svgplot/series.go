@@ -103,8 +103,12 @@ func (l *layout) toPx(vs []vec) []vec {
 	return out
 }
 
-// densifyStep is the spacing, in px, of the samples densify adds.
-const densifyStep = 8
+// densifyStep is the spacing, in px, of the samples densify adds;
+// maxSamples bounds the samples added to one segment.
+const (
+	densifyStep = 8
+	maxSamples  = 500
+)
 
 // densify appends the vertices of a px polyline to drawn, with extra
 // samples along long segments so that boxes crossed by a segment notice it.
@@ -112,7 +116,7 @@ func densify(px, drawn []vec) []vec {
 	for i, v := range px {
 		if i > 0 {
 			a := px[i-1]
-			n := int(math.Hypot(v.x-a.x, v.y-a.y) / densifyStep)
+			n := int(min(math.Hypot(v.x-a.x, v.y-a.y)/densifyStep, maxSamples))
 			for k := 1; k <= n; k++ {
 				t := float64(k) / float64(n+1)
 				drawn = append(drawn, vec{a.x + t*(v.x-a.x), a.y + t*(v.y-a.y)})
