@@ -114,9 +114,11 @@ func (p *Plot) validate() error {
 		n += s.validate(i, add)
 	}
 	for i, pt := range p.Points {
-		name := fmt.Sprintf("point %d (%q)", i+1, pt.Label)
-		checkFinite(name+": x", pt.X, add)
-		checkFinite(name+": y", pt.Y, add)
+		if !isFinite(pt.X) || !isFinite(pt.Y) {
+			name := fmt.Sprintf("point %d (%q)", i+1, pt.Label)
+			checkFinite(name+": x", pt.X, add)
+			checkFinite(name+": y", pt.Y, add)
+		}
 	}
 	if n == 0 {
 		add("empty plot: no series data and no points")
@@ -150,18 +152,22 @@ func (p *Plot) validateRanges(add func(string, ...any)) {
 
 // validate checks series number i (0-based) and returns its number of pairs.
 func (s Series) validate(i int, add func(string, ...any)) int {
-	name := fmt.Sprintf("series %d (%q)", i+1, s.Name)
+	name := func() string { return fmt.Sprintf("series %d (%q)", i+1, s.Name) }
 	if s.Style < Line || s.Style > Markers {
-		add("%s: unknown style %d", name, int(s.Style))
+		add("%s: unknown style %d", name(), int(s.Style))
 	}
 	if len(s.X) != len(s.Y) {
-		add("%s: len(X) = %d but len(Y) = %d", name, len(s.X), len(s.Y))
+		add("%s: len(X) = %d but len(Y) = %d", name(), len(s.X), len(s.Y))
 	}
-	for j, v := range s.X {
-		checkFinite(fmt.Sprintf("%s: X[%d]", name, j), v, add)
-	}
-	for j, v := range s.Y {
-		checkFinite(fmt.Sprintf("%s: Y[%d]", name, j), v, add)
+	for _, c := range [...]struct {
+		axis string
+		v    []float64
+	}{{"X", s.X}, {"Y", s.Y}} {
+		for j, v := range c.v {
+			if !isFinite(v) {
+				add("%s: %s[%d] = %s is not finite", name(), c.axis, j, fmtErrNum(v))
+			}
+		}
 	}
 	return min(len(s.X), len(s.Y))
 }

@@ -83,6 +83,9 @@ var escaper = strings.NewReplacer(
 // UTF-8 becomes U+FFFD, control characters become spaces, and markup
 // characters become character references.
 func escape(s string) string {
+	if plain(s) {
+		return s
+	}
 	s = strings.ToValidUTF8(s, "\uFFFD")
 	s = strings.Map(func(r rune) rune {
 		if unicode.IsControl(r) {
@@ -91,4 +94,16 @@ func escape(s string) string {
 		return r
 	}, s)
 	return escaper.Replace(s)
+}
+
+// plain reports whether s is printable ASCII without markup characters, as
+// numbers and most attribute values are, and so needs no escaping.
+func plain(s string) bool {
+	for i := 0; i < len(s); i++ {
+		switch c := s[i]; {
+		case c < 0x20, c >= 0x7f, c == '&', c == '<', c == '>', c == '"', c == '\'':
+			return false
+		}
+	}
+	return true
 }
