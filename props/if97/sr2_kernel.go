@@ -5,7 +5,11 @@ package if97
 // sum  Σ n_k · x^I_k · y^J_k  of shifted, reduced variables x and y, followed by a small outer
 // function (identity, fourth power, reciprocal or exponential) that the caller applies.
 //
-// The coefficient tables are generated from testdata/sr_coefficients by gen/sr.
+// The coefficient tables are generated from testdata/sr_coefficients by gen/sr, together with
+// one straight-line function per table (srSum<name> in sr*_sums.go) that performs the same
+// products and additions as srTable.sum or srTable.sum1 below, in the same order, and so returns
+// the same float64; the package calls those for speed, and TestSRStraightSums holds them equal
+// to the table-driven sums, which stay the reference.
 
 //go:generate go run ./gen/sr
 

@@ -5,7 +5,7 @@ package if97
 // srV3a holds v3a(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.1: Coefficients and exponents of the backward equation v3a(p,T) for subregion 3a.
-var srV3a = srSubregion{vStar: 0.0024, pStar: 100, tStar: 760, a: 0.085, b: 0.817, c: 1, d: 1, e: 1,
+var srV3a = srSubregion{vStar: 0.0024, pStar: 100, tStar: 760, a: 0.085, b: 0.817, c: 1, d: 1, e: 1, sum: srSumV3a,
 	tab: srTable{iMin: -12, iMax: 2, jMin: 0, jMax: 12, terms: []srTerm{
 		{-12, 5, 0.110879558823853e-2},
 		{-12, 10, 0.572616740810616e3},
@@ -42,7 +42,7 @@ var srV3a = srSubregion{vStar: 0.0024, pStar: 100, tStar: 760, a: 0.085, b: 0.81
 // srV3b holds v3b(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.2: Coefficients and exponents of the backward equation v3b(p,T) for subregion 3b.
-var srV3b = srSubregion{vStar: 0.0041, pStar: 100, tStar: 860, a: 0.280, b: 0.779, c: 1, d: 1, e: 1,
+var srV3b = srSubregion{vStar: 0.0041, pStar: 100, tStar: 860, a: 0.280, b: 0.779, c: 1, d: 1, e: 1, sum: srSumV3b,
 	tab: srTable{iMin: -12, iMax: 4, jMin: 0, jMax: 14, terms: []srTerm{
 		{-12, 10, -0.827670470003621e-1},
 		{-12, 12, 0.416887126010565e2},
@@ -81,7 +81,7 @@ var srV3b = srSubregion{vStar: 0.0041, pStar: 100, tStar: 860, a: 0.280, b: 0.77
 // srV3c holds v3c(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.3: Coefficients and exponents of the backward equation v3c(p,T) for subregion 3c.
-var srV3c = srSubregion{vStar: 0.0022, pStar: 40, tStar: 690, a: 0.259, b: 0.903, c: 1, d: 1, e: 1,
+var srV3c = srSubregion{vStar: 0.0022, pStar: 40, tStar: 690, a: 0.259, b: 0.903, c: 1, d: 1, e: 1, sum: srSumV3c,
 	tab: srTable{iMin: -12, iMax: 8, jMin: 0, jMax: 10, terms: []srTerm{
 		{-12, 6, 0.311967788763030e1},
 		{-12, 8, 0.276713458847564e5},
@@ -123,7 +123,7 @@ var srV3c = srSubregion{vStar: 0.0022, pStar: 40, tStar: 690, a: 0.259, b: 0.903
 // srV3d holds v3d(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.4: Coefficients and exponents of the backward equation v3d(p,T) for subregion 3d.
-var srV3d = srSubregion{vStar: 0.0029, pStar: 40, tStar: 690, a: 0.559, b: 0.939, c: 1, d: 1, e: 4,
+var srV3d = srSubregion{vStar: 0.0029, pStar: 40, tStar: 690, a: 0.559, b: 0.939, c: 1, d: 1, e: 4, sum: srSumV3d,
 	tab: srTable{iMin: -12, iMax: 3, jMin: 0, jMax: 16, terms: []srTerm{
 		{-12, 4, -0.452484847171645e-9},
 		{-12, 6, 0.315210389538801e-4},
@@ -168,7 +168,7 @@ var srV3d = srSubregion{vStar: 0.0029, pStar: 40, tStar: 690, a: 0.559, b: 0.939
 // srV3e holds v3e(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.5: Coefficients and exponents of the backward equation v3e(p,T) for subregion 3e.
-var srV3e = srSubregion{vStar: 0.0032, pStar: 40, tStar: 710, a: 0.587, b: 0.918, c: 1, d: 1, e: 1,
+var srV3e = srSubregion{vStar: 0.0032, pStar: 40, tStar: 710, a: 0.587, b: 0.918, c: 1, d: 1, e: 1, sum: srSumV3e,
 	tab: srTable{iMin: -12, iMax: 2, jMin: 0, jMax: 16, terms: []srTerm{
 		{-12, 14, 0.715815808404721e9},
 		{-12, 16, -0.114328360753449e12},
@@ -204,7 +204,7 @@ var srV3e = srSubregion{vStar: 0.0032, pStar: 40, tStar: 710, a: 0.587, b: 0.918
 // srV3f holds v3f(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.6: Coefficients and exponents of the backward equation v3f(p,T) for subregion 3f.
-var srV3f = srSubregion{vStar: 0.0064, pStar: 40, tStar: 730, a: 0.587, b: 0.891, c: 0.5, d: 1, e: 4,
+var srV3f = srSubregion{vStar: 0.0064, pStar: 40, tStar: 730, a: 0.587, b: 0.891, c: 0.5, d: 1, e: 4, sum: srSumV3f,
 	tab: srTable{iMin: 0, iMax: 32, jMin: -12, jMax: 3, terms: []srTerm{
 		{0, -3, -0.251756547792325e-7},
 		{0, -2, 0.601307193668763e-5},
@@ -253,7 +253,7 @@ var srV3f = srSubregion{vStar: 0.0064, pStar: 40, tStar: 730, a: 0.587, b: 0.891
 // srV3g holds v3g(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.7: Coefficients and exponents of the backward equation v3g(p,T) for subregion 3g.
-var srV3g = srSubregion{vStar: 0.0027, pStar: 25, tStar: 660, a: 0.872, b: 0.971, c: 1, d: 1, e: 4,
+var srV3g = srSubregion{vStar: 0.0027, pStar: 25, tStar: 660, a: 0.872, b: 0.971, c: 1, d: 1, e: 4, sum: srSumV3g,
 	tab: srTable{iMin: -12, iMax: 10, jMin: 0, jMax: 24, terms: []srTerm{
 		{-12, 7, 0.412209020652996e-4},
 		{-12, 12, -0.114987238280587e7},
@@ -298,7 +298,7 @@ var srV3g = srSubregion{vStar: 0.0027, pStar: 25, tStar: 660, a: 0.872, b: 0.971
 // srV3h holds v3h(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.8: Coefficients and exponents of the backward equation v3h(p,T) for subregion 3h.
-var srV3h = srSubregion{vStar: 0.0032, pStar: 25, tStar: 660, a: 0.898, b: 0.983, c: 1, d: 1, e: 4,
+var srV3h = srSubregion{vStar: 0.0032, pStar: 25, tStar: 660, a: 0.898, b: 0.983, c: 1, d: 1, e: 4, sum: srSumV3h,
 	tab: srTable{iMin: -12, iMax: 1, jMin: 0, jMax: 16, terms: []srTerm{
 		{-12, 8, 0.561379678887577e-1},
 		{-12, 12, 0.774135421587083e10},
@@ -334,7 +334,7 @@ var srV3h = srSubregion{vStar: 0.0032, pStar: 25, tStar: 660, a: 0.898, b: 0.983
 // srV3i holds v3i(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.9: Coefficients and exponents of the backward equation v3i(p,T) for subregion 3i.
-var srV3i = srSubregion{vStar: 0.0041, pStar: 25, tStar: 660, a: 0.910, b: 0.984, c: 0.5, d: 1, e: 4,
+var srV3i = srSubregion{vStar: 0.0041, pStar: 25, tStar: 660, a: 0.910, b: 0.984, c: 0.5, d: 1, e: 4, sum: srSumV3i,
 	tab: srTable{iMin: 0, iMax: 36, jMin: -12, jMax: 12, terms: []srTerm{
 		{0, 0, 0.106905684359136e1},
 		{0, 1, -0.148620857922333e1},
@@ -383,7 +383,7 @@ var srV3i = srSubregion{vStar: 0.0041, pStar: 25, tStar: 660, a: 0.910, b: 0.984
 // srV3j holds v3j(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.10: Coefficients and exponents of the backward equation v3j(p,T) for subregion 3j.
-var srV3j = srSubregion{vStar: 0.0054, pStar: 25, tStar: 670, a: 0.875, b: 0.964, c: 0.5, d: 1, e: 4,
+var srV3j = srSubregion{vStar: 0.0054, pStar: 25, tStar: 670, a: 0.875, b: 0.964, c: 0.5, d: 1, e: 4, sum: srSumV3j,
 	tab: srTable{iMin: 0, iMax: 28, jMin: -12, jMax: 3, terms: []srTerm{
 		{0, -1, -0.111371317395540e-3},
 		{0, 0, 0.100342892423685e1},

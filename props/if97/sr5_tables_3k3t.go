@@ -5,7 +5,7 @@ package if97
 // srV3k holds v3k(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.11: Coefficients and exponents of the backward equation v3k(p,T) for subregion 3k.
-var srV3k = srSubregion{vStar: 0.0077, pStar: 25, tStar: 680, a: 0.802, b: 0.935, c: 1, d: 1, e: 1,
+var srV3k = srSubregion{vStar: 0.0077, pStar: 25, tStar: 680, a: 0.802, b: 0.935, c: 1, d: 1, e: 1, sum: srSumV3k,
 	tab: srTable{iMin: -2, iMax: 12, jMin: -12, jMax: 14, terms: []srTerm{
 		{-2, 10, -0.401215699576099e9},
 		{-2, 12, 0.484501478318406e11},
@@ -46,7 +46,7 @@ var srV3k = srSubregion{vStar: 0.0077, pStar: 25, tStar: 680, a: 0.802, b: 0.935
 // srV3l holds v3l(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.12: Coefficients and exponents of the backward equation v3l(p,T) for subregion 3l.
-var srV3l = srSubregion{vStar: 0.0026, pStar: 24, tStar: 650, a: 0.908, b: 0.989, c: 1, d: 1, e: 4,
+var srV3l = srSubregion{vStar: 0.0026, pStar: 24, tStar: 650, a: 0.908, b: 0.989, c: 1, d: 1, e: 4, sum: srSumV3l,
 	tab: srTable{iMin: -12, iMax: 14, jMin: 0, jMax: 36, terms: []srTerm{
 		{-12, 14, 0.260702058647537e10},
 		{-12, 16, -0.188277213604704e15},
@@ -96,7 +96,7 @@ var srV3l = srSubregion{vStar: 0.0026, pStar: 24, tStar: 650, a: 0.908, b: 0.989
 // srV3m holds v3m(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.13: Coefficients and exponents of the backward equation v3m(p,T) for subregion 3m.
-var srV3m = srSubregion{vStar: 0.0028, pStar: 23, tStar: 650, a: 1.00, b: 0.997, c: 1, d: 0.25, e: 1,
+var srV3m = srSubregion{vStar: 0.0028, pStar: 23, tStar: 650, a: 1.00, b: 0.997, c: 1, d: 0.25, e: 1, sum: srSumV3m,
 	tab: srTable{iMin: 0, iMax: 28, jMin: 0, jMax: 36, terms: []srTerm{
 		{0, 0, 0.811384363481847},
 		{3, 0, -0.568199310990094e4},
@@ -143,7 +143,7 @@ var srV3m = srSubregion{vStar: 0.0028, pStar: 23, tStar: 650, a: 1.00, b: 0.997,
 // srV3n holds v3n(p,T), Eq. (5), exp form (e = 0 marks it): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.14: Coefficients and exponents of the backward equation v3n(p,T) for subregion 3n.
-var srV3n = srSubregion{vStar: 0.0031, pStar: 23, tStar: 650, a: 0.976, b: 0.997, c: 1, d: 1, e: 0,
+var srV3n = srSubregion{vStar: 0.0031, pStar: 23, tStar: 650, a: 0.976, b: 0.997, c: 1, d: 1, e: 0, sum: srSumV3n,
 	tab: srTable{iMin: 0, iMax: 18, jMin: -12, jMax: 6, terms: []srTerm{
 		{0, -12, 0.280967799943151e-38},
 		{3, -12, 0.614869006573609e-30},
@@ -189,7 +189,7 @@ var srV3n = srSubregion{vStar: 0.0031, pStar: 23, tStar: 650, a: 0.976, b: 0.997
 // srV3o holds v3o(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.15: Coefficients and exponents of the backward equation v3o(p,T) for subregion 3o.
-var srV3o = srSubregion{vStar: 0.0034, pStar: 23, tStar: 650, a: 0.974, b: 0.996, c: 0.5, d: 1, e: 1,
+var srV3o = srSubregion{vStar: 0.0034, pStar: 23, tStar: 650, a: 0.974, b: 0.996, c: 0.5, d: 1, e: 1, sum: srSumV3o,
 	tab: srTable{iMin: 0, iMax: 24, jMin: -12, jMax: -1, terms: []srTerm{
 		{0, -12, 0.128746023979718e-34},
 		{0, -4, -0.735234770382342e-11},
@@ -220,7 +220,7 @@ var srV3o = srSubregion{vStar: 0.0034, pStar: 23, tStar: 650, a: 0.974, b: 0.996
 // srV3p holds v3p(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.16: Coefficients and exponents of the backward equation v3p(p,T) for subregion 3p.
-var srV3p = srSubregion{vStar: 0.0041, pStar: 23, tStar: 650, a: 0.972, b: 0.997, c: 0.5, d: 1, e: 1,
+var srV3p = srSubregion{vStar: 0.0041, pStar: 23, tStar: 650, a: 0.972, b: 0.997, c: 0.5, d: 1, e: 1, sum: srSumV3p,
 	tab: srTable{iMin: 0, iMax: 36, jMin: -12, jMax: 2, terms: []srTerm{
 		{0, -1, -0.982825342010366e-4},
 		{0, 0, 0.105145700850612e1},
@@ -254,7 +254,7 @@ var srV3p = srSubregion{vStar: 0.0041, pStar: 23, tStar: 650, a: 0.972, b: 0.997
 // srV3q holds v3q(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.17: Coefficients and exponents of the backward equation v3q(p,T) for subregion 3q.
-var srV3q = srSubregion{vStar: 0.0022, pStar: 23, tStar: 650, a: 0.848, b: 0.983, c: 1, d: 1, e: 4,
+var srV3q = srSubregion{vStar: 0.0022, pStar: 23, tStar: 650, a: 0.848, b: 0.983, c: 1, d: 1, e: 4, sum: srSumV3q,
 	tab: srTable{iMin: -12, iMax: 1, jMin: 0, jMax: 12, terms: []srTerm{
 		{-12, 10, -0.820433843259950e5},
 		{-12, 12, 0.473271518461586e11},
@@ -285,7 +285,7 @@ var srV3q = srSubregion{vStar: 0.0022, pStar: 23, tStar: 650, a: 0.848, b: 0.983
 // srV3r holds v3r(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.18: Coefficients and exponents of the backward equation v3r(p,T) for subregion 3r.
-var srV3r = srSubregion{vStar: 0.0054, pStar: 23, tStar: 650, a: 0.874, b: 0.982, c: 1, d: 1, e: 1,
+var srV3r = srSubregion{vStar: 0.0054, pStar: 23, tStar: 650, a: 0.874, b: 0.982, c: 1, d: 1, e: 1, sum: srSumV3r,
 	tab: srTable{iMin: -8, iMax: 14, jMin: -12, jMax: 14, terms: []srTerm{
 		{-8, 6, 0.144165955660863e-2},
 		{-8, 14, -0.701438599628258e13},
@@ -319,7 +319,7 @@ var srV3r = srSubregion{vStar: 0.0054, pStar: 23, tStar: 650, a: 0.874, b: 0.982
 // srV3s holds v3s(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.19: Coefficients and exponents of the backward equation v3s(p,T) for subregion 3s.
-var srV3s = srSubregion{vStar: 0.0022, pStar: 21, tStar: 640, a: 0.886, b: 0.990, c: 1, d: 1, e: 4,
+var srV3s = srSubregion{vStar: 0.0022, pStar: 21, tStar: 640, a: 0.886, b: 0.990, c: 1, d: 1, e: 4, sum: srSumV3s,
 	tab: srTable{iMin: -12, iMax: 14, jMin: 0, jMax: 36, terms: []srTerm{
 		{-12, 20, -0.532466612140254e23},
 		{-12, 24, 0.100415480000824e32},
@@ -355,7 +355,7 @@ var srV3s = srSubregion{vStar: 0.0022, pStar: 21, tStar: 640, a: 0.886, b: 0.990
 // srV3t holds v3t(p,T), Eq. (4): parameters from Table 4,
 // IAPWS SR5-05(2016),
 // Table A1.20: Coefficients and exponents of the backward equation v3t(p,T) for subregion 3t.
-var srV3t = srSubregion{vStar: 0.0088, pStar: 20, tStar: 650, a: 0.803, b: 1.02, c: 1, d: 1, e: 1,
+var srV3t = srSubregion{vStar: 0.0088, pStar: 20, tStar: 650, a: 0.803, b: 1.02, c: 1, d: 1, e: 1, sum: srSumV3t,
 	tab: srTable{iMin: 0, iMax: 36, jMin: 0, jMax: 36, terms: []srTerm{
 		{0, 0, 0.155287249586268e1},
 		{0, 1, 0.664235115009031e1},

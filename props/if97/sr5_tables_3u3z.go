@@ -23,7 +23,7 @@ var srTabSat = srTable{iMin: 0, iMax: 9, jMin: 0, jMax: 0, terms: []srTerm{
 // srV3u holds v3u(p,T), Eq. (4): parameters from Table 12,
 // IAPWS SR5-05(2016),
 // Table A2.1: Coefficients and exponents of the auxiliary equation v3u(p,T) for subregion 3u (region very close to the critical point).
-var srV3u = srSubregion{vStar: 0.0026, pStar: 23, tStar: 650, a: 0.902, b: 0.988, c: 1, d: 1, e: 1,
+var srV3u = srSubregion{vStar: 0.0026, pStar: 23, tStar: 650, a: 0.902, b: 0.988, c: 1, d: 1, e: 1, sum: srSumV3u,
 	tab: srTable{iMin: -12, iMax: 14, jMin: -12, jMax: 14, terms: []srTerm{
 		{-12, 14, 0.122088349258355e18},
 		{-10, 10, 0.104216468608488e10},
@@ -68,7 +68,7 @@ var srV3u = srSubregion{vStar: 0.0026, pStar: 23, tStar: 650, a: 0.902, b: 0.988
 // srV3v holds v3v(p,T), Eq. (4): parameters from Table 12,
 // IAPWS SR5-05(2016),
 // Table A2.2: Coefficients and exponents of the auxiliary equation v3v(p,T) for subregion 3v (region very close to the critical point).
-var srV3v = srSubregion{vStar: 0.0031, pStar: 23, tStar: 650, a: 0.960, b: 0.995, c: 1, d: 1, e: 1,
+var srV3v = srSubregion{vStar: 0.0031, pStar: 23, tStar: 650, a: 0.960, b: 0.995, c: 1, d: 1, e: 1, sum: srSumV3v,
 	tab: srTable{iMin: -10, iMax: 14, jMin: -12, jMax: 14, terms: []srTerm{
 		{-10, -8, -0.415652812061591e-54},
 		{-8, -12, 0.177441742924043e-60},
@@ -114,7 +114,7 @@ var srV3v = srSubregion{vStar: 0.0031, pStar: 23, tStar: 650, a: 0.960, b: 0.995
 // srV3w holds v3w(p,T), Eq. (4): parameters from Table 12,
 // IAPWS SR5-05(2016),
 // Table A2.3: Coefficients and exponents of the auxiliary equation v3w(p,T) for subregion 3w (region very close to the critical point).
-var srV3w = srSubregion{vStar: 0.0039, pStar: 23, tStar: 650, a: 0.959, b: 0.995, c: 1, d: 1, e: 4,
+var srV3w = srSubregion{vStar: 0.0039, pStar: 23, tStar: 650, a: 0.959, b: 0.995, c: 1, d: 1, e: 4, sum: srSumV3w,
 	tab: srTable{iMin: -12, iMax: 10, jMin: -12, jMax: 14, terms: []srTerm{
 		{-12, 8, -0.586219133817016e-7},
 		{-12, 14, -0.894460355005526e11},
@@ -156,7 +156,7 @@ var srV3w = srSubregion{vStar: 0.0039, pStar: 23, tStar: 650, a: 0.959, b: 0.995
 // srV3x holds v3x(p,T), Eq. (4): parameters from Table 12,
 // IAPWS SR5-05(2016),
 // Table A2.4: Coefficients and exponents of the auxiliary equation v3x(p,T) for subregion 3x (region very close to the critical point).
-var srV3x = srSubregion{vStar: 0.0049, pStar: 23, tStar: 650, a: 0.910, b: 0.988, c: 1, d: 1, e: 1,
+var srV3x = srSubregion{vStar: 0.0049, pStar: 23, tStar: 650, a: 0.910, b: 0.988, c: 1, d: 1, e: 1, sum: srSumV3x,
 	tab: srTable{iMin: -8, iMax: 14, jMin: -12, jMax: 14, terms: []srTerm{
 		{-8, 14, 0.377373741298151e19},
 		{-6, 10, -0.507100883722913e13},
@@ -199,7 +199,7 @@ var srV3x = srSubregion{vStar: 0.0049, pStar: 23, tStar: 650, a: 0.910, b: 0.988
 // srV3y holds v3y(p,T), Eq. (4): parameters from Table 12,
 // IAPWS SR5-05(2016),
 // Table A2.5: Coefficients and exponents of the auxiliary equation v3y(p,T) for subregion 3y (region very close to the critical point).
-var srV3y = srSubregion{vStar: 0.0031, pStar: 22, tStar: 650, a: 0.996, b: 0.994, c: 1, d: 1, e: 4,
+var srV3y = srSubregion{vStar: 0.0031, pStar: 22, tStar: 650, a: 0.996, b: 0.994, c: 1, d: 1, e: 4, sum: srSumV3y,
 	tab: srTable{iMin: 0, iMax: 12, jMin: -8, jMax: 8, terms: []srTerm{
 		{0, -3, -0.525597995024633e-9},
 		{0, 1, 0.583441305228407e4},
@@ -226,7 +226,7 @@ var srV3y = srSubregion{vStar: 0.0031, pStar: 22, tStar: 650, a: 0.996, b: 0.994
 // srV3z holds v3z(p,T), Eq. (4): parameters from Table 12,
 // IAPWS SR5-05(2016),
 // Table A2.6: Coefficients and exponents of the auxiliary equation v3z(p,T) for subregion 3z (region very close to the critical point).
-var srV3z = srSubregion{vStar: 0.0038, pStar: 22, tStar: 650, a: 0.993, b: 0.994, c: 1, d: 1, e: 4,
+var srV3z = srSubregion{vStar: 0.0038, pStar: 22, tStar: 650, a: 0.993, b: 0.994, c: 1, d: 1, e: 4, sum: srSumV3z,
 	tab: srTable{iMin: -8, iMax: 8, jMin: -8, jMax: 8, terms: []srTerm{
 		{-8, 3, 0.244007892290650e-10},
 		{-6, 6, -0.463057430331242e7},

@@ -24,6 +24,7 @@ type srSubregion struct {
 	a, b    float64
 	c, d, e float64 // c is 1 or 0.5, d is 1 or 0.25, e is 1, 4, or 0 for Eq. (5)
 	tab     srTable
+	sum     func(x, y float64) float64 // tab.sum as straight-line code (sr5_sums_*.go)
 }
 
 // v returns v in m³/kg at p in MPa and T in K.
@@ -36,7 +37,7 @@ func (r *srSubregion) v(pMPa, t float64) float64 {
 	if r.d != 1 { // d = 0.25
 		y = math.Sqrt(math.Sqrt(y))
 	}
-	w := r.tab.sum(x, y)
+	w := r.sum(x, y)
 	switch r.e {
 	case 0:
 		w = math.Exp(w)
@@ -59,17 +60,17 @@ const (
 // srT3ab .. srT3wx are the subregion boundaries T3xy(p) of IAPWS SR5-05(2016): Table 1 with
 // Eq. (1), θ = Σ n_i π^I_i, or Eq. (2), θ = Σ n_i (ln π)^I_i (3ab, 3op), and Table 9 for the
 // auxiliary boundaries 3uv (Eq. (1)) and 3wx (Eq. (2)). p is in MPa (p* = 1 MPa), T in K.
-func srT3ab(p float64) float64 { return srTabT3ab.sum1(math.Log(p)) }
-func srT3cd(p float64) float64 { return srTabT3cd.sum1(p) }
-func srT3gh(p float64) float64 { return srTabT3gh.sum1(p) }
-func srT3ij(p float64) float64 { return srTabT3ij.sum1(p) }
-func srT3jk(p float64) float64 { return srTabT3jk.sum1(p) }
-func srT3mn(p float64) float64 { return srTabT3mn.sum1(p) }
-func srT3op(p float64) float64 { return srTabT3op.sum1(math.Log(p)) }
-func srT3qu(p float64) float64 { return srTabT3qu.sum1(p) }
-func srT3rx(p float64) float64 { return srTabT3rx.sum1(p) }
-func srT3uv(p float64) float64 { return srTabT3uv.sum1(p) }
-func srT3wx(p float64) float64 { return srTabT3wx.sum1(math.Log(p)) }
+func srT3ab(p float64) float64 { return srSumT3ab(math.Log(p)) }
+func srT3cd(p float64) float64 { return srSumT3cd(p) }
+func srT3gh(p float64) float64 { return srSumT3gh(p) }
+func srT3ij(p float64) float64 { return srSumT3ij(p) }
+func srT3jk(p float64) float64 { return srSumT3jk(p) }
+func srT3mn(p float64) float64 { return srSumT3mn(p) }
+func srT3op(p float64) float64 { return srSumT3op(math.Log(p)) }
+func srT3qu(p float64) float64 { return srSumT3qu(p) }
+func srT3rx(p float64) float64 { return srSumT3rx(p) }
+func srT3uv(p float64) float64 { return srSumT3uv(p) }
+func srT3wx(p float64) float64 { return srSumT3wx(math.Log(p)) }
 
 // srT3ef is the boundary T3ef(p) of IAPWS SR5-05(2016) Eq. (3), the tangent of the saturation
 // curve at the critical point: θ = 3.727888004 (π − 22.064) + 647.096, p in MPa, T in K.
