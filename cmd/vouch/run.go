@@ -48,7 +48,7 @@ func cmdRun(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "usage: vouch run [--json] FILE")
 		return exitUsage
 	}
-	d, err := calcdoc.ReadFile(files[0])
+	d, err := loadCalc(files[0], stderr)
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors
