@@ -145,7 +145,7 @@ func signatureRows(states []sigState) []sigView {
 	for _, st := range states {
 		s := st.Sig
 		rows = append(rows, sigView{Role: s.Role, Name: s.Name, Principal: s.Principal,
-			Fingerprint: s.Fingerprint, Date: s.Date, Valid: st.Valid, State: stateText(st)})
+			Fingerprint: s.Fingerprint, Date: day(s.Date), Valid: st.Valid, State: stateText(st)})
 	}
 	return rows
 }
