@@ -109,3 +109,33 @@ func r3Sums(x, y float64, want uint8, s *termSums) {
 
 // r3LnN is n1 of R7-97 Table 30, the coefficient of ln δ in Eq. (28).
 const r3LnN = 1.0658070028513
+
+// r3XCoeffs sets c[I] = Σ I n_i y^J_i over the terms of r3Sums with exponent I_i = I >= 1
+// (c[0] = 0), for y = τ. At fixed y the sums x and xx of r3Sums are then Σ c[I] x^I and
+// Σ (I-1) c[I] x^I, polynomials in x alone. The grouping changes the order of the additions, so
+// the results agree with those sums to rounding, not bit for bit.
+func r3XCoeffs(y float64, c *[12]float64) {
+	y2 := y * y
+	y3 := y * y2
+	y4 := y2 * y2
+	y6 := y3 * y3
+	y7 := y3 * y4
+	y8 := y4 * y4
+	y15 := y7 * y8
+	y16 := y8 * y8
+	y17 := y2 * y15
+	y22 := y7 * y15
+	y26 := y4 * y22
+	c[0] = 0
+	c[1] = -1.2654315477714*y2 - 1.1524407806681*y6 + 0.88521043984318*y15 - 0.64207765181607*y17
+	c[2] = 0.76986920373342 - 1.70429417648412*y2 + 9.7944563083754*y6 - 6.100523451393*y7 + 0.078841073758308*y22 + 0.25116816848616*y26
+	c[3] = -0.8399798909613 + 4.169939870838*y2 - 6.056974507071*y4 - 0.0246442911521889*y16 - 1.42788107204769*y26
+	c[4] = 0.175936297894 - 1.77905741714956*y2 + 3.62288282878932*y4 + 2.82089800351868*y26
+	c[5] = 0.5385256313166*y - 1.6456811629477*y3 - 2.5435531020579*y26
+	c[6] = -0.133052405238576 + 0.565564509990552*y2 + 0.98617670687766*y26
+	c[7] = -0.094523605689436 * y2
+	c[8] = -0.118674762819776 * y26
+	c[9] = 0.00521306582652756*y2 + 0.0290780142333399*y26
+	c[10] = 0.00080964802996215 - 0.0016557679795037*y
+	c[11] = -0.000494162889679965 * y26
+}

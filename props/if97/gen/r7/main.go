@@ -57,6 +57,7 @@ type spec struct {
 	yDoc   string // meaning of y
 	xScale int    // exponents I are multiplied by this (x is then x^(1/xScale))
 	over   string // CSV whose rows replace rows of csv with the same i (Table 10 footnote a)
+	group  string // if set, also write func group(y float64, c *[maxI+1]float64) (see genGroup)
 }
 
 type file struct {
@@ -88,7 +89,7 @@ var files = []file{
 		{name: "t2cps", csv: "r7-97_t27_region2c_T_ps.csv", mode: "value", xDoc: "π", yDoc: "2 - σ"},
 	}},
 	{"region3_gen.go", "region 3 (R7-97 Table 30)", []spec{
-		{name: "r3Sums", csv: "r7-97_t30_region3_helmholtz.csv", mode: "sums", xDoc: "δ", yDoc: "τ"},
+		{name: "r3Sums", csv: "r7-97_t30_region3_helmholtz.csv", mode: "sums", xDoc: "δ", yDoc: "τ", group: "r3XCoeffs"},
 	}},
 	{"region5_gen.go", "region 5 (R7-97 Tables 37, 38)", []spec{
 		{name: "r5oSums", csv: "r7-97_t37_region5_ideal.csv", mode: "sums1", yDoc: "τ"},
@@ -126,6 +127,9 @@ func main() {
 				genValue(&b, s, t)
 			default:
 				genSums(&b, s, t)
+			}
+			if s.group != "" {
+				genGroup(&b, s, t)
 			}
 		}
 		src, err := format.Source(b.Bytes())
@@ -473,4 +477,45 @@ func joinSum(parts []string) string {
 		}
 	}
 	return sb.String()
+}
+
+// genGroup writes func group(y float64, c *[maxI+1]float64), which sets c[I] = Σ I n_i y^J_i
+// over the terms with exponent I_i = I >= 1. At fixed y the sums x = Σ n I x^I y^J and
+// xx = Σ n I(I-1) x^I y^J of the sums function are then Σ c[I] x^I and Σ (I-1) c[I] x^I:
+// polynomials in x alone, for Newton steps in x at fixed y.
+func genGroup(b *bytes.Buffer, s spec, t table) {
+	maxI := 0
+	var js []int
+	for _, tm := range t.terms {
+		maxI = max(maxI, tm.I)
+		if tm.I > 0 {
+			js = append(js, tm.J)
+		}
+	}
+	fmt.Fprintf(b, "\n// %s sets c[I] = Σ I n_i y^J_i over the terms of %s with exponent I_i = I >= 1\n", s.group, s.name)
+	fmt.Fprintf(b, "// (c[0] = 0), for y = %s. At fixed y the sums x and xx of %s are then Σ c[I] x^I and\n", s.yDoc, s.name)
+	b.WriteString("// Σ (I-1) c[I] x^I, polynomials in x alone. The grouping changes the order of the additions, so\n")
+	b.WriteString("// the results agree with those sums to rounding, not bit for bit.\n")
+	fmt.Fprintf(b, "func %s(y float64, c *[%d]float64) {\n", s.group, maxI+1)
+	yn := powers(b, "y", js)
+	b.WriteString("\tc[0] = 0\n")
+	for i := 1; i <= maxI; i++ {
+		var parts []string
+		for _, tm := range t.terms {
+			if tm.I != i {
+				continue
+			}
+			if p := yn[tm.J]; p == "1" {
+				parts = append(parts, lit(tm.n, i))
+			} else {
+				parts = append(parts, lit(tm.n, i)+"*"+p)
+			}
+		}
+		if len(parts) == 0 {
+			fmt.Fprintf(b, "\tc[%d] = 0\n", i)
+			continue
+		}
+		fmt.Fprintf(b, "\tc[%d] = %s\n", i, joinSum(parts))
+	}
+	b.WriteString("}\n")
 }
