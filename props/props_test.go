@@ -1,0 +1,157 @@
+package props
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"vouch/units"
+)
+
+func q(v float64, unit string) units.Quantity {
+	return units.MustParse(unit).Q(v, units.StandardAtmosphere)
+}
+
+func field(t *testing.T, s *State, name string) float64 {
+	t.Helper()
+	v, ok := s.Quantity(name)
+	if !ok {
+		t.Fatalf("state has no %s", name)
+	}
+	return v.V
+}
+
+// The argument order does not matter: the kinds are read from dimensions.
+func TestWaterArgumentOrder(t *testing.T) {
+	a, err := Water(q(3, "MPa"), q(300, "K"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := Water(q(300, "K"), q(3, "MPa"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if field(t, a, "h") != field(t, b, "h") {
+		t.Error("water(p, T) and water(T, p) differ")
+	}
+	// IAPWS R7-97(2012) Table 5: h(300 K, 3 MPa) = 0.115331273e3 kJ/kg.
+	if h := field(t, a, "h"); math.Abs(h-115331.273) > 0.5e-3 {
+		t.Errorf("h = %.6f J/kg", h)
+	}
+	rho := units.Quantity{V: 1 / field(t, a, "v"), D: units.DimDensity}
+	c, err := Water(q(3, "MPa"), rho)
+	if err != nil || math.Abs(field(t, c, "T")-300) > 1e-7 {
+		t.Errorf("water(p, rho): %v %v", c, err)
+	}
+}
+
+func TestWaterErrors(t *testing.T) {
+	cases := []struct {
+		a, b units.Quantity
+		want string
+	}{
+		{q(3, "MPa"), q(1, "m"), "the second argument is length"},
+		{q(1, "m"), q(3, "MPa"), "the first argument is length"},
+		{q(3, "MPa"), q(4, "MPa"), "water(p, p) is not a pair"},
+		{q(120, "MPa"), q(300, "K"), "p = 120 MPa is above the 100 MPa limit of IAPWS-IF97"},
+		{q(0, "MPa"), q(300, "K"), "p = 0 MPa must be above zero"},
+		{q(1, "bar"), units.Num(1.2), "water(p, x)"},
+	}
+	for _, c := range cases {
+		_, err := Water(c.a, c.b)
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("water(%v, %v): %v, want %q", c.a, c.b, err, c.want)
+		}
+	}
+}
+
+func TestWaterSat(t *testing.T) {
+	s, err := WaterSat(q(1, "bar"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	T, _ := s.Quantity("T")
+	// IAPWS R7-97(2012) Table 36: Tsat(0.1 MPa) = 0.372755919e3 K.
+	if math.Abs(T.V-372.755919) > 0.5e-6 {
+		t.Errorf("Tsat = %.9f K", T.V)
+	}
+	hfg, _ := s.Quantity("hfg")
+	hf, _ := s.Quantity("hf")
+	hg, _ := s.Quantity("hg")
+	if hfg.V != hg.V-hf.V {
+		t.Error("hfg is not hg - hf")
+	}
+	if _, err := WaterSat(q(1, "m")); err == nil {
+		t.Error("water_sat of a length must fail")
+	}
+}
+
+func TestFluidWaterIsIF97(t *testing.T) {
+	a, _ := Water(q(1, "MPa"), q(450, "K"))
+	b, err := Fluid("Water", q(1, "MPa"), q(450, "K"))
+	if err != nil || field(t, a, "h") != field(t, b, "h") || b.Formulation != IF97 {
+		t.Errorf("fluid(\"Water\", ...) is not IAPWS-IF97: %v", err)
+	}
+}
+
+func TestFluidNames(t *testing.T) {
+	for _, name := range []string{"isopentane", "R-601a", "r601a", "R-245FA", "r245fa", "MM", "R-600a", "R-600", "R-601", "toluene", "R-1233zd(E)", "cyclopentane", "R-134a"} {
+		if _, err := Fluid(name, q(1, "bar"), q(400, "K")); err != nil && strings.Contains(err.Error(), "unknown fluid") {
+			t.Errorf("%s: %v", name, err)
+		}
+	}
+	_, err := Fluid("isopentan", q(1, "bar"), q(400, "K"))
+	if err == nil || !strings.Contains(err.Error(), `did you mean "isopentane"?`) {
+		t.Errorf("misspelt fluid: %v", err)
+	}
+	if n := len(Fluids()); n != 11 {
+		t.Errorf("Fluids lists %d fluids, want water and 10 organic fluids", n)
+	}
+}
+
+// The dome rises from the triple point to the critical point and comes back:
+// its highest point is at the critical temperature.
+func TestDome(t *testing.T) {
+	for _, f := range []string{"water", "isopentane"} {
+		d, err := Dome(f, 50)
+		if err != nil {
+			t.Fatalf("%s: %v", f, err)
+		}
+		top := 0
+		for i, p := range d {
+			if p.T > d[top].T {
+				top = i
+			}
+		}
+		if top != 49 && top != 50 {
+			t.Errorf("%s: the dome's top is point %d of %d", f, top, len(d))
+		}
+		if d[0].S >= d[len(d)-1].S {
+			t.Errorf("%s: the liquid line should start left of the vapour line", f)
+		}
+	}
+}
+
+// An isobar through the dome has its corners exactly at the saturation
+// enthalpies, and T is constant between them.
+func TestIsobarCorners(t *testing.T) {
+	pts, err := Isobar("water", 1e5, 100e3, 3000e3, 20)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, _ := WaterSat(q(1, "bar"))
+	hf, _ := s.Quantity("hf")
+	hg, _ := s.Quantity("hg")
+	var seen int
+	for _, p := range pts {
+		if p.H == hf.V || p.H == hg.V {
+			seen++
+		}
+		if p.H > hf.V && p.H < hg.V && math.Abs(p.T-372.755919) > 1e-6 {
+			t.Errorf("T = %g inside the dome at h = %g", p.T, p.H)
+		}
+	}
+	if seen != 2 {
+		t.Errorf("found %d of the 2 saturation corners", seen)
+	}
+}
