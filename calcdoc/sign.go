@@ -167,6 +167,12 @@ func (v *verifier) signWith(m *provenance.Manifest, s provenance.Signature, opt 
 		}
 		return m.SignAs(s, signer)
 	}
+	return v.agentSign(m, s)
+}
+
+// agentSign signs with the ssh-agent's key: its only key, or the one the
+// allowed-signers file lists for the signer.
+func (v *verifier) agentSign(m *provenance.Manifest, s provenance.Signature) (provenance.Signature, error) {
 	if os.Getenv("SSH_AUTH_SOCK") == "" {
 		return s, usageErr("no signing key: give --key KEYFILE, or start an ssh-agent holding your key")
 	}
@@ -178,7 +184,7 @@ func (v *verifier) signWith(m *provenance.Manifest, s provenance.Signature, opt 
 	pick := -1
 	for i, sg := range signers {
 		fps = append(fps, provenance.Fingerprint(sg.PublicKey()))
-		if v.opt.Signers != "" && v.allowed.Allows(s.Principal, sg.PublicKey()) && pick < 0 {
+		if pick < 0 && v.opt.Signers != "" && v.allowed.Allows(s.Principal, sg.PublicKey()) {
 			pick = i
 		}
 	}

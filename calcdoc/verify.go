@@ -16,6 +16,7 @@ import (
 // read, a bad allowed-signers file, a role or key that cannot be used.
 type UsageError struct{ Err error }
 
+// Error returns the underlying error's message.
 func (e *UsageError) Error() string { return e.Err.Error() }
 
 // Unwrap returns the underlying error.
