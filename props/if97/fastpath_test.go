@@ -44,3 +44,17 @@ func TestRho3Converged(t *testing.T) {
 	}
 	t.Logf("largest further step: %.3g of the tolerance", worst)
 }
+
+// TestAboveSat checks the grid bounds of aboveSat against R7-97 Eq. (30) itself, at the grid
+// temperatures and between them, on the saturation line and one rounding step off it.
+func TestAboveSat(t *testing.T) {
+	for k := 0; k <= 20*psN; k++ {
+		T := math.Min(TMin+float64(k)*psStep/20, T13)
+		ps := psatEq(T)
+		for _, p := range []float64{ps, math.Nextafter(ps, 0), math.Nextafter(ps, 1e9), ps * 0.9, ps * 1.1, ps * 0.999, ps * 1.001, 1, PMax} {
+			if got, want := aboveSat(p, T), p >= ps; got != want {
+				t.Errorf("aboveSat(%v, %v) = %v, want %v", p, T, got, want)
+			}
+		}
+	}
+}

@@ -5,8 +5,17 @@ package if97
 
 // checkPT reports whether (p, T) lies in the range of validity of IAPWS-IF97 (R7-97
 // Section 2): 273.15 K <= T <= 1073.15 K with 0 < p <= 100 MPa, and 1073.15 K < T <= 2273.15 K
-// with 0 < p <= 50 MPa.
+// with 0 < p <= 50 MPa. The test for a valid point is small enough to inline; rangePT says
+// what is wrong with an invalid one.
 func checkPT(p, T float64) error {
+	if T >= TMin && T <= T25 && p > 0 && p <= PMax {
+		return nil
+	}
+	return rangePT(p, T)
+}
+
+// rangePT returns the RangeError of a (p, T) outside IAPWS-IF97 (nil for a valid one).
+func rangePT(p, T float64) error {
 	if !(T >= TMin) {
 		return below("T", T, TMin, "the lowest temperature of IAPWS-IF97")
 	}
@@ -31,7 +40,7 @@ func checkPT(p, T float64) error {
 func regionPT(p, T float64) int {
 	switch {
 	case T <= T13:
-		if p >= psatEq(T) {
+		if aboveSat(p, T) {
 			return 1
 		}
 		return 2
@@ -41,6 +50,37 @@ func regionPT(p, T float64) int {
 		return 3
 	}
 	return 2
+}
+
+// Bounds of ps(T) for aboveSat: psGrid[k] = ps(TMin + k·psStep) by R7-97 Eq. (30), up to
+// 623.15 K. As ps(T) rises with T, psGrid[k] < ps(T) < psGrid[k+1] between two grid
+// temperatures; psLo and psHi widen these bounds by 1e-12 against rounding.
+const (
+	psStep = 2.0 // K
+	psN    = 175 // grid intervals: psN·psStep = T13 - TMin
+)
+
+var psLo, psHi = psBounds()
+
+func psBounds() (lo, hi [psN]float64) {
+	for k := range psN {
+		lo[k] = psatEq(TMin+float64(k)*psStep) * (1 - 1e-12)
+		hi[k] = psatEq(TMin+float64(k+1)*psStep) * (1 + 1e-12)
+	}
+	return lo, hi
+}
+
+// aboveSat reports p >= ps(T) for TMin <= T <= T13, by R7-97 Eq. (30); the grid bounds decide
+// all but the points within a grid step of the saturation line.
+func aboveSat(p, T float64) bool {
+	k := uint((T - TMin) * (1 / psStep))
+	if k >= psN {
+		k = psN - 1
+	}
+	if p >= psHi[k] {
+		return true
+	}
+	return p >= psLo[k] && p >= psatEq(T)
 }
 
 // phaseOf classifies a single-phase state; ps is used only for T < Tc.
