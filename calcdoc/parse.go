@@ -46,6 +46,7 @@ type Doc struct {
 	ReadData func(rel string) ([]byte, error)
 
 	diagramBlocks []*diagramBlock
+	byName        map[string]*Item // evaluated definitions, built on first use
 	// Progress, when set, is told how far a sweep has come.
 	Progress func(name string, done, total int)
 	MD       gast.Node // the Markdown tree, for rendering

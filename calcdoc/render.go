@@ -188,22 +188,3 @@ func (d *Doc) formulations() []string {
 	}
 	return out
 }
-
-// itemOf returns the evaluated definition of a name.
-func (d *Doc) itemOf(name string) *Item {
-	for _, it := range d.Items {
-		if it.Outcome != nil && it.Stmt.Kind == eval.Def && it.Stmt.Name == name {
-			return it
-		}
-	}
-	return nil
-}
-
-// outcomeOf returns the outcome of a defined name, for substitution.
-func (d *Doc) outcomeOf(name string) (*eval.Outcome, bool) {
-	it := d.itemOf(name)
-	if it == nil {
-		return nil, false
-	}
-	return it.Outcome, true
-}

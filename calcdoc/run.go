@@ -127,3 +127,25 @@ func (d *Doc) ValueText(o *eval.Outcome) string {
 	}
 	return "(state)"
 }
+
+// itemOf returns the evaluated definition of a name.
+func (d *Doc) itemOf(name string) *Item {
+	if d.byName == nil {
+		d.byName = map[string]*Item{}
+		for _, it := range d.Items {
+			if it.Outcome != nil && it.Stmt.Kind == eval.Def {
+				d.byName[it.Stmt.Name] = it
+			}
+		}
+	}
+	return d.byName[name]
+}
+
+// outcomeOf returns the outcome of a defined name, for substitution.
+func (d *Doc) outcomeOf(name string) (*eval.Outcome, bool) {
+	it := d.itemOf(name)
+	if it == nil {
+		return nil, false
+	}
+	return it.Outcome, true
+}
