@@ -40,12 +40,20 @@ type gibbs struct {
 // props turns γ and its derivatives into the properties of R7-97 Tables 3, 12 and 39 (the same
 // relations hold for regions 1, 2, 5 and Eq. (18)).
 func (d *gibbs) props(p, T float64, region int) Props {
+	var st Props
+	d.setProps(&st, p, T, region)
+	return st
+}
+
+// setProps is props writing into *st (all fields but Phase and X), so that the state is built
+// in place rather than copied on its way out.
+func (d *gibbs) setProps(st *Props, p, T float64, region int) {
 	RT := R * T
 	tgt := d.tau * d.gt
 	pgp := d.pi * d.gp
 	a := d.gp - d.tau*d.gpt
 	cp := -R * d.tau * d.tau * d.gtt
-	st := Props{P: p, T: T, Region: region}
+	st.P, st.T, st.Region = p, T, region
 	st.V = RT / p * pgp
 	st.Rho = 1 / st.V
 	st.H = RT * tgt
@@ -54,7 +62,6 @@ func (d *gibbs) props(p, T float64, region int) Props {
 	st.Cp = cp
 	st.Cv = cp + R*a*a/d.gpp
 	st.W = safeSqrt(RT * d.gp * d.gp / (a*a/(d.tau*d.tau*d.gtt) - d.gpp))
-	return st
 }
 
 // safeSqrt is math.Sqrt for x >= 0 and 0 otherwise, so that a property that is not defined

@@ -54,19 +54,26 @@ func (a *helm) dsdT() float64 { return -R * a.tt / a.T }
 
 // props returns the state of R7-97 Table 31; a must hold all derivatives.
 func (a *helm) props() Props {
+	var st Props
+	a.setProps(&st)
+	return st
+}
+
+// setProps is props writing into *st (all fields but Phase and X).
+func (a *helm) setProps(st *Props) {
 	RT := R * a.T
 	b := a.d - a.dt
-	st := Props{P: a.p(), T: a.T, Rho: a.rho, V: 1 / a.rho, Region: 3}
+	st.P, st.T, st.Rho, st.V, st.Region = a.p(), a.T, a.rho, 1/a.rho, 3
 	st.H = a.h()
 	st.U = RT * a.t
 	st.S = a.s()
 	st.Cv = -R * a.tt
 	c := 2*a.d + a.dd
+	st.Cp = 0 // not defined where (∂p/∂ρ)_T <= 0
 	if c > 0 {
 		st.Cp = R * (-a.tt + b*b/c)
 	}
 	st.W = safeSqrt(RT * (c - b*b/a.tt))
-	return st
 }
 
 // rho3 returns the density of region 3 at (p, T): the backward equation v3(p, T) of IAPWS

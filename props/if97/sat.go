@@ -37,9 +37,20 @@ func satStates(p, T float64) (liq, vap Props) {
 	return liq, vap
 }
 
+// gibbsProps returns the state of region 1, 2 or 5 at (p, T) without its phase.
 func gibbsProps(region int, p, T float64) Props {
 	d := gibbsAt(region, p, T, wantAll)
 	return d.props(p, T, region)
+}
+
+// gibbsState returns the single-phase state of region 1, 2 or 5 at (p, T), phase included:
+// finish(gibbsProps(region, p, T)), built in place.
+func gibbsState(region int, p, T float64) Props {
+	var st Props
+	d := gibbsAt(region, p, T, wantAll)
+	d.setProps(&st, p, T, region)
+	setPhase(&st)
+	return st
 }
 
 // sat3Densities returns the saturated-liquid and saturated-vapour densities of region 3 at

@@ -72,7 +72,7 @@ func StateHS(h, s float64) (Props, error) {
 			if region == 1 && p < psatEq(math.Min(T, Tc))*(1-1e-9) {
 				return Props{}, below("p", p, psatEq(T), "the state (h, s) would be a liquid below its saturation pressure")
 			}
-			return finish(gibbsProps(region, p, T)), nil
+			return gibbsState(region, p, T), nil
 		}
 	}
 	return Props{}, above("p", p, PMax, "no state of IAPWS-IF97 has this (h, s)")

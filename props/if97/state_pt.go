@@ -100,6 +100,12 @@ func phaseOf(p, T float64) Phase {
 
 // finish sets the phase and quality of a single-phase state.
 func finish(st Props) Props {
+	setPhase(&st)
+	return st
+}
+
+// setPhase sets the phase and quality of the single-phase state *st.
+func setPhase(st *Props) {
 	switch st.Region {
 	case 1:
 		st.Phase = Liquid
@@ -115,7 +121,6 @@ func finish(st Props) Props {
 	if st.Phase != Liquid {
 		st.X = 1
 	}
-	return st
 }
 
 // StatePT returns the single-phase state at pressure p (Pa) and temperature T (K); the region
@@ -125,19 +130,22 @@ func StatePT(p, T float64) (Props, error) {
 	if err := checkPT(p, T); err != nil {
 		return Props{}, err
 	}
-	return finish(statePT(regionPT(p, T), p, T)), nil
+	var st Props
+	statePT(&st, regionPT(p, T), p, T)
+	setPhase(&st)
+	return st, nil
 }
 
-// statePT evaluates the basic equation of the given region at (p, T).
-func statePT(region int, p, T float64) Props {
+// statePT evaluates the basic equation of the given region at (p, T) into *st.
+func statePT(st *Props, region int, p, T float64) {
 	if region == 3 {
 		a := r3Helm(rho3(p, T), T, wantAll)
-		st := a.props()
+		a.setProps(st)
 		st.P = p // exact, not the rounded p(ρ, T)
-		return st
+		return
 	}
 	d := gibbsAt(region, p, T, wantAll)
-	return d.props(p, T, region)
+	d.setProps(st, p, T, region)
 }
 
 // HPT returns the specific enthalpy (J/kg) at (p, T), computing only what h needs.

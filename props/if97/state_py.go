@@ -132,7 +132,7 @@ func liquidPY(p, y float64, k yKind, Tmax float64) (Props, error) {
 	if out < 0 {
 		return Props{}, below(k.input(), y, yAt(1, p, TMin, k), "below the value at the lowest temperature of IAPWS-IF97")
 	}
-	return finish(gibbsProps(1, p, T)), nil
+	return gibbsState(1, p, T), nil
 }
 
 // vapourPY solves region 2 from Tmin (NaN: 273.15 K) to 1073.15 K, then region 5 up to
@@ -153,7 +153,7 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 		return Props{}, below(k.input(), y, yAt(2, p, lo, k), "below the lowest value at this pressure")
 	}
 	if out == 0 {
-		return finish(gibbsProps(2, p, T)), nil
+		return gibbsState(2, p, T), nil
 	}
 	// Region 5.
 	if p > P5Max {
@@ -163,7 +163,7 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 	if out > 0 {
 		return Props{}, above(k.input(), y, yAt(5, p, TMax, k), "above the value at the highest temperature of IAPWS-IF97")
 	}
-	return finish(gibbsProps(5, p, T)), nil
+	return gibbsState(5, p, T), nil
 }
 
 // subPY handles PSatMin <= p <= ps(623.15 K): liquid, two-phase or vapour, decided by the
@@ -181,7 +181,7 @@ func subPY(p, y float64, k yKind) (Props, error) {
 	}
 	if T0 < Ts-3 && T0 > TMin-10 {
 		if T, out := solveT(1, p, y, k, T0, TMin, Ts); out == 0 {
-			return finish(gibbsProps(1, p, T)), nil
+			return gibbsState(1, p, T), nil
 		} else if out < 0 {
 			return Props{}, below(k.input(), y, yAt(1, p, TMin, k), "below the value at the lowest temperature of IAPWS-IF97")
 		}

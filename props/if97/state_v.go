@@ -137,7 +137,7 @@ func gibbsTV(region int, T, v, lo, hi float64) (Props, error) {
 	if out < 0 && lo == 0 {
 		return Props{}, above("v", v, vG(region, lo0, T), "the pressure would be below the range handled")
 	}
-	return finish(gibbsProps(region, p, T)), nil
+	return gibbsState(region, p, T), nil
 }
 
 // region3TV evaluates region 3 at (T, ρ = 1/v), or the two-phase state below Tc.
@@ -212,7 +212,7 @@ func vapourPV(p, v, Tmin float64) (Props, error) {
 		return Props{}, below("v", v, vG(2, p, Tmin), "below the lowest value at this pressure")
 	}
 	if out == 0 {
-		return finish(gibbsProps(2, p, T)), nil
+		return gibbsState(2, p, T), nil
 	}
 	if p > P5Max {
 		return Props{}, above("v", v, vG(2, p, T25), "above the highest pressure of region 5, IAPWS-IF97 ends at the highest temperature of region 2")
@@ -222,7 +222,7 @@ func vapourPV(p, v, Tmin float64) (Props, error) {
 	if out > 0 {
 		return Props{}, above("v", v, vG(5, p, TMax), "above the value at the highest temperature of IAPWS-IF97")
 	}
-	return finish(gibbsProps(5, p, T)), nil
+	return gibbsState(5, p, T), nil
 }
 
 // liquidPV solves region 1 between 273.15 K and Tmax, where v(T) falls to a minimum (the
@@ -253,7 +253,7 @@ func liquidPV(p, v, Tmax float64) (Props, error) {
 	if out < 0 {
 		return Props{}, below("v", v, vG(1, p, lo), "below the lowest value at this pressure")
 	}
-	return finish(gibbsProps(1, p, T)), nil
+	return gibbsState(1, p, T), nil
 }
 
 // region3PV solves region 3 at (p, ρ = 1/v) for T, or returns the two-phase state.
