@@ -175,12 +175,21 @@ func (d *Doc) lineHTML(it *Item) string {
 		class += " check"
 	}
 	b.WriteString(sprintf("<div class=\"%s\" id=\"L%d\"><div class=\"ln\">%d</div><div>", class, s.Line, s.Line))
-	b.WriteString("<math display=\"block\"><mrow>" + d.equation(it) + "</mrow></math>")
+	for i, line := range d.equation(it) {
+		class := ""
+		if i > 0 {
+			class = " class=\"cont\""
+		}
+		b.WriteString("<math display=\"block\"" + class + "><mrow>" + line + "</mrow></math>")
+	}
 	if s.Kind == eval.Check {
 		b.WriteString(verdictHTML(o.Pass))
 	}
 	if st, ok := o.Value.(eval.Record); ok {
 		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits) + "</div>")
+	}
+	if t, ok := o.Value.(*eval.Table); ok {
+		b.WriteString("<div class=\"state\">" + tableHTML(t, d.Front.Digits) + "</div>")
 	}
 	if s.Desc != "" {
 		b.WriteString("<div class=\"desc\">" + html.EscapeString(s.Desc) + "</div>")
@@ -203,31 +212,50 @@ func verdictHTML(pass bool) string {
 	return "<span class=\"verdict fail\">FAIL</span>"
 }
 
-// equation builds the MathML of a line: name = formula = substitution =
-// result, leaving out the parts that would repeat.
-func (d *Doc) equation(it *Item) string {
+// stackAfter is the expression length beyond which the numbers
+// substituted and the result go on a line of their own.
+const stackAfter = 36
+
+// equation builds the MathML lines of a calc line: name = formula =
+// numbers substituted = result, leaving out the parts that would repeat,
+// and starting a second line when the first would be long.
+func (d *Doc) equation(it *Item) []string {
 	s, o := it.Stmt, it.Outcome
+	if o.Solve != nil {
+		return []string{d.formula(s, false), NameMathML(s.Name) + "<mo>=</mo>" + d.resultMathML(o)}
+	}
 	formula := d.formula(s, false)
-	parts := []string{}
-	if s.Kind == eval.Def {
-		parts = append(parts, NameMathML(s.Name))
-	}
-	parts = append(parts, formula)
-	if len(s.Deps()) > 0 {
-		if sub := d.formula(s, true); sub != formula {
-			parts = append(parts, sub)
-		}
-	}
-	if s.Kind == eval.Def && !s.IsLiteralInput() {
-		if res := d.resultMathML(o); res != "" && res != parts[len(parts)-1] {
-			parts = append(parts, res)
-		}
-	}
-	sep := "<mo>=</mo>"
 	if s.Kind == eval.Check {
-		sep = "<mo>⇒</mo>"
+		line := formula
+		if sub := d.formula(s, true); sub != formula {
+			line += "<mo>⇒</mo>" + sub
+		}
+		return []string{line}
 	}
-	return strings.Join(parts, sep)
+	head := formula
+	if s.Kind == eval.Def {
+		head = NameMathML(s.Name) + "<mo>=</mo>" + formula
+	}
+	if s.IsLiteralInput() {
+		return []string{head}
+	}
+	var rest []string
+	if len(s.Deps()) > 0 && !s.IsLoneName() {
+		if sub := d.formula(s, true); sub != formula {
+			rest = append(rest, sub)
+		}
+	}
+	if res := d.resultMathML(o); res != "" {
+		rest = append(rest, res)
+	}
+	if len(rest) == 0 {
+		return []string{head}
+	}
+	tail := "<mo>=</mo>" + strings.Join(rest, "<mo>=</mo>")
+	if len(s.Expr) > stackAfter && len(rest) > 1 {
+		return []string{head, tail}
+	}
+	return []string{head + tail}
 }
 
 // formula writes the expression with symbols, or with values substituted.
@@ -235,8 +263,15 @@ func (d *Doc) formula(s *eval.Stmt, substitute bool) string {
 	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx}
 	if substitute {
 		m.values = d.outcomeOf
+		m.evalAt = func(n eval.Node) (any, bool) {
+			if d.engine == nil {
+				return nil, false
+			}
+			v, err := d.engine.EvalNode(s, n)
+			return v, err == nil
+		}
 	}
-	m.node(s.Tree())
+	m.node(s.Syntax())
 	return m.b.String()
 }
 
@@ -253,6 +288,14 @@ func (d *Doc) resultMathML(o *eval.Outcome) string {
 
 // valueHTML formats an outcome's value as HTML text.
 func (d *Doc) valueHTML(o *eval.Outcome) string {
+	if o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsLiteralInput() {
+		l := o.Stmt.LoneLiteral()
+		s := groupDigits(l.Num)
+		if t := UnitText(l.Unit); t != "" {
+			s += "\u2009" + html.EscapeString(t)
+		}
+		return s
+	}
 	switch v := o.Value.(type) {
 	case units.Quantity:
 		return QuantityText(v, o.Display, d.Front.Digits, d.Front.Ctx)
@@ -260,6 +303,8 @@ func (d *Doc) valueHTML(o *eval.Outcome) string {
 		return map[bool]string{true: "true", false: "false"}[v]
 	case string:
 		return html.EscapeString(v)
+	case *eval.Table:
+		return html.EscapeString(v.String())
 	}
 	return "(state)"
 }
@@ -270,7 +315,14 @@ var stateShown = []string{"p", "T", "h", "s", "v", "x", "hf", "hg", "sf", "sg", 
 // stateHTML lists a state's main fields on one line.
 func stateHTML(st eval.Record, digits int) string {
 	var parts []string
+	phase := ""
+	if ph, err := st.Field("phase"); err == nil {
+		phase, _ = ph.(string)
+	}
 	for _, f := range stateShown {
+		if f == "x" && phase != "two-phase" {
+			continue // the quality of a single-phase state says nothing
+		}
 		v, err := st.Field(f)
 		if err != nil {
 			continue
@@ -285,10 +337,8 @@ func stateHTML(st eval.Record, digits int) string {
 		}
 		parts = append(parts, NameText(f)+"&#8239;=&#8239;"+QuantityText(q, u, digits, units.StandardAtmosphere))
 	}
-	if ph, err := st.Field("phase"); err == nil {
-		if s, ok := ph.(string); ok {
-			parts = append(parts, html.EscapeString(s))
-		}
+	if phase != "" {
+		parts = append(parts, html.EscapeString(phaseText(st, phase)))
 	}
 	return strings.Join(parts, ", ")
 }
@@ -353,4 +403,47 @@ func (d *Doc) diagramHTML(blk *diagramBlock) string {
 		b.WriteString("<figure class=\"diagram\">" + string(dg.SVG) + "</figure>\n")
 	}
 	return b.String()
+}
+
+// phaseText names a state's phase, calling the ends of the two-phase line
+// saturated liquid and saturated vapour.
+func phaseText(st eval.Record, phase string) string {
+	if phase != "two-phase" {
+		return phase
+	}
+	if v, err := st.Field("x"); err == nil {
+		if x, ok := v.(units.Quantity); ok && x.V == 0 {
+			return "saturated liquid"
+		} else if ok && x.V == 1 {
+			return "saturated vapour"
+		}
+	}
+	return phase
+}
+
+// tableHTML shows the data a csv() line read, so a checker sees it.
+func tableHTML(t *eval.Table, digits int) string {
+	var b strings.Builder
+	b.WriteString("<table class=\"grid data\"><tr>")
+	for i, n := range t.Names {
+		b.WriteString("<th>" + NameText(n) + unitHeading(t.Units[i]) + "</th>")
+	}
+	b.WriteString("</tr>")
+	for r := range t.Cols[0] {
+		b.WriteString("<tr>")
+		for c := range t.Names {
+			b.WriteString("<td class=\"num\">" + cellText(t.Cols[c][r], t.Units[c], digits) + "</td>")
+		}
+		b.WriteString("</tr>")
+	}
+	b.WriteString("</table>")
+	return b.String()
+}
+
+func cellText(q units.Quantity, u units.Unit, digits int) string {
+	v, err := q.In(u, units.StandardAtmosphere)
+	if err != nil {
+		v = q.V
+	}
+	return NumberText(v, digits)
 }

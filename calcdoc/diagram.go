@@ -112,7 +112,7 @@ func (d *Doc) drawDiagram(dg *Diagram) {
 		}
 		return c.T - 273.15
 	}
-	dome, err := props.Dome(fluid, 80)
+	dome, err := props.Dome(fluid, 80, domeStart(states))
 	if err != nil {
 		d.errorf(dg.Off, "diagram: %v", err)
 		return
@@ -128,6 +128,7 @@ func (d *Doc) drawDiagram(dg *Diagram) {
 		c := props.CurvePoint{T: s.T, S: s.s, H: s.h}
 		p.Points = append(p.Points, svgplot.Point{Label: stateLabel(s.name), X: s.s / 1000, Y: y(c), Title: s.name})
 	}
+	entropyAxis(p)
 	svg, err := p.SVG()
 	if err != nil {
 		d.errorf(dg.Off, "diagram: %v", err)
@@ -212,13 +213,47 @@ func (d *Doc) sweepPlot(sw *Sweep, col int) ([]byte, error) {
 		}
 		s.X, s.Y = append(s.X, xv), append(s.Y, yv)
 	}
-	p := &svgplot.Plot{Title: c.Name + " against " + sw.Var, XLabel: axisLabel(sw.Var, sw.XUnit), YLabel: axisLabel(c.Name, yu), Series: []svgplot.Series{s}}
+	p := &svgplot.Plot{Title: PlainName(c.Name) + " against " + PlainName(sw.Var), XLabel: axisLabel(sw.Var, sw.XUnit), YLabel: axisLabel(c.Name, yu), Series: []svgplot.Series{s}}
 	return p.SVG()
 }
 
 func axisLabel(name string, u units.Unit) string {
 	if t := UnitText(u); t != "" {
-		return name + " [" + t + "]"
+		return PlainName(name) + " [" + t + "]"
 	}
-	return name
+	return PlainName(name)
+}
+
+// entropyAxis starts the entropy axis at zero when no point lies left of it,
+// as engineers draw T-s and h-s diagrams, and lets the other axis range
+// itself.
+func entropyAxis(p *svgplot.Plot) {
+	lo, hi, ylo, yhi := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
+	for _, s := range p.Series {
+		for i, x := range s.X {
+			lo, hi = math.Min(lo, x), math.Max(hi, x)
+			ylo, yhi = math.Min(ylo, s.Y[i]), math.Max(yhi, s.Y[i])
+		}
+	}
+	if lo < 0 || math.IsInf(hi, 0) {
+		return
+	}
+	xt := svgplot.NiceTicks(0, hi, 8)
+	yt := svgplot.NiceTicks(ylo, yhi, 8)
+	if len(xt) < 2 || len(yt) < 2 {
+		return
+	}
+	p.XMin, p.XMax = 0, math.Max(xt[len(xt)-1], hi)
+	p.YMin, p.YMax = math.Min(yt[0], ylo), math.Max(yt[len(yt)-1], yhi)
+}
+
+// domeStart is the temperature the dome is drawn from: 30 K below the
+// coldest state, so an organic fluid's dome does not reach down to its
+// triple point far below the cycle.
+func domeStart(states []diagramState) float64 {
+	lo := math.Inf(1)
+	for _, s := range states {
+		lo = math.Min(lo, s.T)
+	}
+	return lo - 30
 }

@@ -66,7 +66,7 @@ func TestDocumentErrors(t *testing.T) {
 		{"bad person", "---\npeople:\n  checker: nobody\n---\n", "3:12: checker must be written Name <email>, not \"nobody\""},
 		{"unclosed fence", "# x\n\n```calc\na = 1\n", "3:1: calc block is not closed: add a closing fence line"},
 		{"not UTF-8", "---\ntitle: x\n---\n```calc\na = 1 \xff m\n```\n", "5:7: file is not valid UTF-8 text"},
-		{"summary undefined", "---\nsummary: [W_nett]\n---\n```calc\nW_net = 1 W\n```\n", "1:1: summary names W_nett, which the calc does not define; did you mean W_net?"},
+		{"summary undefined", "---\nsummary: [W_nett]\n---\n```calc\nW_net = 1 W\n```\n", "2:1: summary names W_nett, which the calc does not define; did you mean W_net?"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

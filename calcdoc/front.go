@@ -22,6 +22,8 @@ type Front struct {
 	Atmosphere string // as written; Ctx holds the value
 	People     People
 	Summary    []string
+	// SummaryLine is the file line of the summary key (0 when absent).
+	SummaryLine int
 
 	Ctx units.Context
 }
@@ -203,6 +205,7 @@ func (f *Front) setSummary(v *yaml.Node) []*frontErr {
 	if v.Kind != yaml.SequenceNode {
 		return nodeErr(v, "summary must be a list of names, such as [eta_th, W_net]")
 	}
+	f.SummaryLine = v.Line
 	for _, n := range v.Content {
 		if n.Kind != yaml.ScalarNode {
 			return nodeErr(n, "summary must be a list of names")

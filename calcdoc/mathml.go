@@ -4,8 +4,6 @@ import (
 	"html"
 	"strings"
 
-	"github.com/expr-lang/expr/ast"
-
 	"vouch/eval"
 	"vouch/units"
 )
@@ -15,35 +13,30 @@ import (
 type mathml struct {
 	stmt   *eval.Stmt
 	values func(name string) (*eval.Outcome, bool) // nil: write symbols, not numbers
+	evalAt func(n eval.Node) (any, bool)          // evaluates a part, for substitution
 	digits int
 	ctx    units.Context
 	b      strings.Builder
+	kelvin bool // inside a product, quotient or power: temperatures in K
 }
 
-// operator precedence for parentheses: higher binds tighter.
-func prec(n ast.Node) int {
+// prec is the operator precedence for parentheses: higher binds tighter.
+func prec(n eval.Node) int {
 	switch v := n.(type) {
-	case *ast.ConditionalNode:
+	case *eval.Cond:
 		return 0
-	case *ast.BinaryNode:
-		switch v.Operator {
-		case "||", "or":
-			return 1
-		case "&&", "and":
-			return 2
-		case "<", "<=", ">", ">=", "==", "!=":
-			return 3
-		case "+", "-":
-			return 4
-		case "*", "/":
-			return 5
-		case "^", "**":
-			return 7
-		}
-	case *ast.UnaryNode:
+	case *eval.Binary:
+		return binaryPrec[v.Op]
+	case *eval.Unary:
 		return 6
 	}
 	return 9
+}
+
+var binaryPrec = map[string]int{
+	"||": 1, "or": 1, "&&": 2, "and": 2,
+	"<": 3, "<=": 3, ">": 3, ">=": 3, "==": 3, "!=": 3,
+	"+": 4, "-": 4, "*": 5, "/": 5, "^": 7, "**": 7,
 }
 
 var opText = map[string]string{
@@ -58,57 +51,51 @@ func (m *mathml) text(tag, s string) {
 }
 
 // node writes one expression node.
-func (m *mathml) node(n ast.Node) {
+func (m *mathml) node(n eval.Node) {
 	switch v := n.(type) {
-	case *ast.IntegerNode, *ast.FloatNode:
-		m.number(n)
-	case *ast.BoolNode:
+	case *eval.Number:
+		m.w(numberMathML(v.Value, 15, true))
+	case *eval.Bool:
 		m.text("mi", map[bool]string{true: "true", false: "false"}[v.Value])
-	case *ast.StringNode:
+	case *eval.Text:
 		m.text("mtext", "“"+v.Value+"”")
-	case *ast.IdentifierNode:
-		m.ident(v.Value)
-	case *ast.UnaryNode:
+	case *eval.Quantity:
+		m.literal(v.Lit)
+	case *eval.Name:
+		m.name(v.Name)
+	case *eval.Unary:
 		m.unary(v)
-	case *ast.BinaryNode:
-		m.binary(v)
-	case *ast.MemberNode:
-		m.member(v)
-	case *ast.CallNode:
+	case *eval.Binary:
+		m.binaryKelvin(v)
+	case *eval.Field:
+		m.field(v)
+	case *eval.Call:
 		m.call(v)
-	case *ast.ConditionalNode:
+	case *eval.Cond:
 		m.w("<mrow>")
-		m.node(v.Exp1)
+		m.node(v.Then)
 		m.text("mtext", " if ")
 		m.node(v.Cond)
 		m.text("mtext", ", else ")
-		m.node(v.Exp2)
+		m.node(v.Else)
 		m.w("</mrow>")
-	default:
-		m.text("mtext", n.String())
+	case *eval.Other:
+		m.text("mtext", v.Text)
 	}
 }
 
-func (m *mathml) number(n ast.Node) {
-	var v float64
-	switch x := n.(type) {
-	case *ast.IntegerNode:
-		v = float64(x.Value)
-	case *ast.FloatNode:
-		v = x.Value
-	}
-	m.w(numberMathML(v, 15, true))
-}
-
-// ident writes a name, a unit literal, or (when substituting) a value.
-func (m *mathml) ident(name string) {
-	if l, ok := m.stmt.Literal(name); ok {
-		m.w("<mrow>")
-		m.w(numberMathML(parseNum(l.Num), 15, true))
-		m.w(unitMathML(l.Unit))
-		m.w("</mrow>")
+// literal writes a unit literal as written; inside a product, when numbers
+// are substituted, an absolute temperature is shown in kelvin.
+func (m *mathml) literal(l *eval.Literal) {
+	if m.values != nil && m.kelvin && l.Q.D == units.DimTemperature && l.Unit.Offset != 0 {
+		m.value(l.Q, units.Unit{})
 		return
 	}
+	m.w("<mrow>" + numberMathML(parseNum(l.Num), 15, true) + unitMathML(l.Unit) + "</mrow>")
+}
+
+// name writes a name, or (when substituting) its value.
+func (m *mathml) name(name string) {
 	if name == "pi" {
 		m.text("mi", "π")
 		return
@@ -127,7 +114,7 @@ func (m *mathml) ident(name string) {
 func (m *mathml) value(v any, u units.Unit) {
 	switch x := v.(type) {
 	case units.Quantity:
-		if u.Dim != x.D || u.Factor == 0 {
+		if u.Dim != x.D || u.Factor == 0 || (m.kelvin && x.D == units.DimTemperature) {
 			u = units.DefaultUnit(x)
 		}
 		m.w(quantityMathML(x, u, m.digits, m.ctx))
@@ -135,157 +122,153 @@ func (m *mathml) value(v any, u units.Unit) {
 		m.text("mi", map[bool]string{true: "true", false: "false"}[x])
 	case string:
 		m.text("mtext", "“"+x+"”")
+	case *eval.Table:
+		m.text("mtext", x.String())
 	default:
 		m.text("mtext", "(state)")
 	}
 }
 
-func (m *mathml) unary(v *ast.UnaryNode) {
+func (m *mathml) unary(v *eval.Unary) {
 	m.w("<mrow>")
-	switch v.Operator {
+	switch v.Op {
 	case "-":
 		m.w("<mo>−</mo>")
 	case "!", "not":
 		m.w("<mo>¬</mo>")
 	}
-	m.child(v.Node, prec(v)+1)
+	m.child(v.X, prec(v)+1)
 	m.w("</mrow>")
 }
 
 // child writes a node, parenthesised when it binds looser than min.
-func (m *mathml) child(n ast.Node, min int) {
+func (m *mathml) child(n eval.Node, min int) {
 	if prec(n) < min || (m.values != nil && m.isNegative(n) && min > 4) {
-		m.w("<mrow><mo>(</mo>")
-		m.node(n)
-		m.w("<mo>)</mo></mrow>")
+		m.paren(n)
 		return
 	}
 	m.node(n)
 }
 
+func (m *mathml) paren(n eval.Node) {
+	m.w("<mrow><mo>(</mo>")
+	m.node(n)
+	m.w("<mo>)</mo></mrow>")
+}
+
 // isNegative tells whether a substituted leaf shows a negative number.
-func (m *mathml) isNegative(n ast.Node) bool {
-	id, ok := n.(*ast.IdentifierNode)
-	if !ok {
-		return false
-	}
-	if l, ok := m.stmt.Literal(id.Value); ok {
-		return strings.HasPrefix(l.Num, "-")
-	}
-	if o, ok := m.values(id.Value); ok {
-		q, isQ := o.Value.(units.Quantity)
-		return isQ && q.V < 0
+func (m *mathml) isNegative(n eval.Node) bool {
+	switch v := n.(type) {
+	case *eval.Quantity:
+		return strings.HasPrefix(v.Lit.Num, "-")
+	case *eval.Name:
+		if o, ok := m.values(v.Name); ok {
+			q, isQ := o.Value.(units.Quantity)
+			return isQ && q.V < 0
+		}
 	}
 	return false
 }
 
-func (m *mathml) binary(v *ast.BinaryNode) {
+// binaryKelvin writes a binary node; products, quotients and powers show
+// temperatures in kelvin, since that is the value they use.
+func (m *mathml) binaryKelvin(v *eval.Binary) {
+	k := m.kelvin
+	switch v.Op {
+	case "*", "/", "^", "**":
+		m.kelvin = true
+	}
+	m.binary(v)
+	m.kelvin = k
+}
+
+func (m *mathml) binary(v *eval.Binary) {
 	p := prec(v)
-	switch v.Operator {
+	switch v.Op {
 	case "/":
 		m.w("<mfrac>")
-		m.node(v.Left)
-		m.node(v.Right)
+		m.node(v.L)
+		m.node(v.R)
 		m.w("</mfrac>")
 		return
 	case "^", "**":
 		m.w("<msup>")
-		m.base(v.Left, p)
-		m.node(v.Right)
+		m.base(v.L, p)
+		m.node(v.R)
 		m.w("</msup>")
 		return
 	}
 	m.w("<mrow>")
-	m.child(v.Left, p)
-	m.w("<mo>" + opText[v.Operator] + "</mo>")
+	m.child(v.L, p)
+	m.w("<mo>" + opText[v.Op] + "</mo>")
 	right := p
-	if v.Operator == "-" || v.Operator == "<" || v.Operator == ">" {
+	if v.Op == "-" || v.Op == "<" || v.Op == ">" {
 		right = p + 1
 	}
-	m.child(v.Right, right)
+	m.child(v.R, right)
 	m.w("</mrow>")
 }
 
 // base writes the base of a power: parenthesised unless it is a plain
 // symbol (a number with a unit needs parentheses: (2 m)²).
-func (m *mathml) base(n ast.Node, p int) {
-	id, isID := n.(*ast.IdentifierNode)
-	_, isLit := m.stmt.Literal(idName(id, isID))
-	if prec(n) <= p || isLit || (isID && m.values != nil) {
-		m.w("<mrow><mo>(</mo>")
-		m.node(n)
-		m.w("<mo>)</mo></mrow>")
+func (m *mathml) base(n eval.Node, p int) {
+	_, isLit := n.(*eval.Quantity)
+	_, isName := n.(*eval.Name)
+	if prec(n) <= p || isLit || (isName && m.values != nil) {
+		m.paren(n)
 		return
 	}
 	m.node(n)
 }
 
-func idName(id *ast.IdentifierNode, ok bool) string {
-	if !ok {
-		return ""
-	}
-	return id.Value
-}
-
-// member writes st_1.h as h(st₁): the field of the state.
-func (m *mathml) member(v *ast.MemberNode) {
-	prop, _ := v.Property.(*ast.StringNode)
-	if m.values != nil {
-		if val, ok := m.memberValue(v); ok {
+// field writes st_1.h as h(st₁): the field of the state; when substituting,
+// its value.
+func (m *mathml) field(v *eval.Field) {
+	if m.values != nil && m.evalAt != nil {
+		if val, ok := m.evalAt(v); ok {
 			m.value(val, units.Unit{})
 			return
 		}
 	}
-	field := "?"
-	if prop != nil {
-		field = prop.Value
-	}
-	m.w("<mrow>" + NameMathML(field) + "<mo>(</mo>")
-	m.node(v.Node)
+	k := m.kelvin
+	m.kelvin = false
+	m.w("<mrow>" + NameMathML(v.Name) + "<mo>(</mo>")
+	m.symbols(v.X)
 	m.w("<mo>)</mo></mrow>")
+	m.kelvin = k
 }
 
-// memberValue looks up a field of a named state for substitution.
-func (m *mathml) memberValue(v *ast.MemberNode) (any, bool) {
-	id, ok := v.Node.(*ast.IdentifierNode)
-	prop, ok2 := v.Property.(*ast.StringNode)
-	if !ok || !ok2 {
-		return nil, false
-	}
-	st, ok := m.values(id.Value)
-	if !ok {
-		return nil, false
-	}
-	rec, ok := st.Value.(eval.Record)
-	if !ok {
-		return nil, false
-	}
-	f, err := rec.Field(prop.Value)
-	return f, err == nil
+// symbols writes a node with symbols even while substituting.
+func (m *mathml) symbols(n eval.Node) {
+	values := m.values
+	m.values = nil
+	m.node(n)
+	m.values = values
 }
 
-func (m *mathml) call(v *ast.CallNode) {
-	name := v.Callee.String()
-	if name == "solve" && len(v.Arguments) == 3 {
+func (m *mathml) call(v *eval.Call) {
+	switch {
+	case v.Func == "solve" && len(v.Args) == 3:
 		m.solve(v)
 		return
-	}
-	if name == "sqrt" && len(v.Arguments) == 1 {
+	case v.Func == "sqrt" && len(v.Args) == 1:
 		m.w("<msqrt>")
-		m.node(v.Arguments[0])
+		m.node(v.Args[0])
 		m.w("</msqrt>")
 		return
-	}
-	if name == "abs" && len(v.Arguments) == 1 {
+	case v.Func == "abs" && len(v.Args) == 1:
 		m.w("<mrow><mo>|</mo>")
-		m.node(v.Arguments[0])
+		m.node(v.Args[0])
 		m.w("<mo>|</mo></mrow>")
 		return
 	}
+	k := m.kelvin
+	m.kelvin = false // arguments keep their own units: water(12.5 MPa, 540 °C)
+	defer func() { m.kelvin = k }()
 	m.w("<mrow>")
-	m.text("mi", name)
+	m.text("mi", v.Func)
 	m.w("<mo>(</mo>")
-	for i, a := range v.Arguments {
+	for i, a := range v.Args {
 		if i > 0 {
 			m.w("<mo separator=\"true\">,</mo>")
 		}
@@ -294,16 +277,15 @@ func (m *mathml) call(v *ast.CallNode) {
 	m.w("<mo>)</mo></mrow>")
 }
 
-// solve writes solve(L == R, LO, HI) as "L = R, solved for NAME in [LO, HI]".
-func (m *mathml) solve(v *ast.CallNode) {
-	m.w("<mrow>")
-	m.node(v.Arguments[0])
-	m.text("mtext", " solved for ")
+// solve writes solve(L == R, LO, HI) as "solve L = R for NAME ∈ [LO, HI]".
+func (m *mathml) solve(v *eval.Call) {
+	m.w("<mrow><mtext>solve\u2002</mtext>")
+	m.node(v.Args[0])
+	m.w("<mtext>\u2002for\u2002</mtext>")
 	m.w(NameMathML(m.stmt.Name))
-	m.text("mtext", " in ")
-	m.w("<mo>[</mo>")
-	m.node(v.Arguments[1])
+	m.w("<mo>∈</mo><mo>[</mo>")
+	m.node(v.Args[1])
 	m.w("<mo separator=\"true\">,</mo>")
-	m.node(v.Arguments[2])
+	m.node(v.Args[2])
 	m.w("<mo>]</mo></mrow>")
 }

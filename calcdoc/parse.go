@@ -47,6 +47,7 @@ type Doc struct {
 
 	diagramBlocks []*diagramBlock
 	byName        map[string]*Item // evaluated definitions, built on first use
+	engine        *eval.Engine     // the engine after evaluation, for substitution
 	// Progress, when set, is told how far a sweep has come.
 	Progress func(name string, done, total int)
 	MD       gast.Node // the Markdown tree, for rendering
@@ -120,6 +121,9 @@ func (d *Doc) readFront() {
 	f, errs := parseFront(yml)
 	d.Front = f
 	firstLine := d.lines.pos(d.Src, start).Line
+	if f.SummaryLine > 0 {
+		d.Front.SummaryLine += firstLine - 1
+	}
 	for _, e := range errs {
 		d.Errors = append(d.Errors, &Error{Pos: Pos{Off: start, Line: firstLine + e.line - 1, Col: e.col}, Msg: e.msg})
 	}

@@ -46,6 +46,7 @@ func (d *Doc) Evaluate() {
 		d.runSweeps(eng)
 		d.drawDiagrams()
 	}
+	d.engine = eng
 	d.checkSummary(eng)
 	d.Errors.Sort()
 }
@@ -53,21 +54,26 @@ func (d *Doc) Evaluate() {
 // checkSummary reports summary names that the calc does not define.
 func (d *Doc) checkSummary(eng *eval.Engine) {
 	for _, name := range d.Front.Summary {
-		if _, ok := eng.Value(name); ok || d.failed(name) {
-			continue
+		if _, ok := eng.Value(name); ok || d.defines(name) {
+			continue // defined, or defined on a line whose own error is reported
 		}
 		msg := "summary names " + name + ", which the calc does not define"
 		if near := units.Nearest(name, eng.Names()); near != "" {
 			msg += "; did you mean " + near + "?"
 		}
-		d.errorf(0, "%s", msg)
+		off := 0
+		if l := d.Front.SummaryLine; l > 0 && l <= len(d.lines.starts) {
+			off = d.lines.starts[l-1]
+		}
+		d.errorf(off, "%s", msg)
 	}
 }
 
-// failed reports whether a definition of name exists but has an error.
-func (d *Doc) failed(name string) bool {
+// defines reports whether a line of the calc defines name, whether or not
+// it could be evaluated.
+func (d *Doc) defines(name string) bool {
 	for _, it := range d.Items {
-		if it.Err && it.Stmt.Kind == eval.Def && it.Stmt.Name == name {
+		if it.Stmt.Kind == eval.Def && it.Stmt.Name == name {
 			return true
 		}
 	}
@@ -83,6 +89,22 @@ func (d *Doc) Results() []*Item {
 			continue
 		}
 		if _, ok := it.Outcome.Value.(units.Quantity); ok {
+			out = append(out, it)
+		}
+	}
+	return out
+}
+
+// Shown returns the definitions a results table lists: quantities and
+// texts (a fluid's name, a file path), in file order.
+func (d *Doc) Shown() []*Item {
+	var out []*Item
+	for _, it := range d.Items {
+		if it.Outcome == nil || it.Outcome.Skipped || it.Stmt.Kind != eval.Def {
+			continue
+		}
+		switch it.Outcome.Value.(type) {
+		case units.Quantity, string:
 			out = append(out, it)
 		}
 	}
@@ -113,6 +135,13 @@ func (d *Doc) Failed() bool {
 // ValueText formats an outcome's value in its display unit with the calc's
 // significant figures.
 func (d *Doc) ValueText(o *eval.Outcome) string {
+	if o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsLiteralInput() {
+		l := o.Stmt.LoneLiteral()
+		if t := l.Unit.String(); t != "1" {
+			return l.Num + " " + t
+		}
+		return l.Num
+	}
 	switch v := o.Value.(type) {
 	case units.Quantity:
 		s, err := v.Text(o.Display, d.Front.Digits, d.Front.Ctx)

@@ -25,7 +25,9 @@ func NameMathML(name string) string {
 	base, sub, _ := strings.Cut(name, "_")
 	sym := greekOr(base)
 	if rest, ok := cutWord(sub, "dot"); ok {
-		sym = "<mover accent=\"true\">" + sym + "<mo>˙</mo></mover>"
+		// The letter and a combining dot above in one token: MathML
+		// accents over identifiers are not drawn by every browser.
+		sym = "<mi>" + html.EscapeString(greekText(base)) + "\u0307</mi>"
 		sub = rest
 	}
 	if sub == "" {
@@ -33,7 +35,7 @@ func NameMathML(name string) string {
 	}
 	parts := strings.Split(sub, "_")
 	for i, p := range parts {
-		parts[i] = html.EscapeString(greekText(p))
+		parts[i] = html.EscapeString(p)
 	}
 	return "<msub>" + sym + "<mi mathvariant=\"normal\">" + strings.Join(parts, ",") + "</mi></msub>"
 }
@@ -80,14 +82,14 @@ func NameText(name string) string {
 	}
 	parts := strings.Split(sub, "_")
 	for i, p := range parts {
-		parts[i] = html.EscapeString(greekText(p))
+		parts[i] = html.EscapeString(p)
 	}
 	return "<i>" + sym + "</i><sub>" + strings.Join(parts, ",") + "</sub>"
 }
 
 // groupDigits inserts thin spaces between groups of three digits (ISO
-// 80000-1) in the integer part when it has five or more digits, and in the
-// fraction when it has five or more.
+// 80000-1) in the integer part when it has five or more digits. Fractions
+// are left whole: "0.076 30" would read as two numbers.
 func groupDigits(s string) string {
 	sign := ""
 	if strings.HasPrefix(s, "-") {
@@ -103,16 +105,6 @@ func groupDigits(s string) string {
 			b.WriteRune(c)
 		}
 		intPart = b.String()
-	}
-	if hasFrac && len(frac) >= 5 {
-		var b strings.Builder
-		for i, c := range frac {
-			if i > 0 && i%3 == 0 {
-				b.WriteString("\u2009")
-			}
-			b.WriteRune(c)
-		}
-		frac = b.String()
 	}
 	if hasFrac {
 		return sign + intPart + "." + frac
@@ -228,4 +220,20 @@ func QuantityText(q units.Quantity, u units.Unit, digits int, ctx units.Context)
 		s += "\u2009" + html.EscapeString(t)
 	}
 	return s
+}
+
+// PlainName writes a calc name as plain text for places without markup
+// (plot titles and axes): the symbol as a Greek letter when it names one,
+// the subscript after an underscore: "η_th".
+func PlainName(name string) string {
+	base, sub, ok := strings.Cut(name, "_")
+	if r, isDot := cutWord(sub, "dot"); ok && isDot {
+		base, sub, ok = greekText(base)+"\u0307", r, r != ""
+	} else {
+		base = greekText(base)
+	}
+	if !ok {
+		return base
+	}
+	return base + "_" + sub
 }

@@ -145,7 +145,7 @@ func (e *Engine) displayUnit(s *Stmt, q units.Quantity) units.Unit {
 	if s.hasUnit {
 		return s.display
 	}
-	if l := s.loneLiteral(); l != nil {
+	if l := s.LoneLiteral(); l != nil {
 		return l.Unit
 	}
 	return units.DefaultUnit(q)

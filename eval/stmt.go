@@ -221,9 +221,9 @@ func checkName(name string, off int) *Error {
 	return nil
 }
 
-// loneLiteral returns the literal when the whole expression is one unit
-// literal, such as 540 degC.
-func (s *Stmt) loneLiteral() *Literal {
+// LoneLiteral returns the literal when the whole expression is one unit
+// literal, such as 540 degC, else nil.
+func (s *Stmt) LoneLiteral() *Literal {
 	if id, ok := s.tree.(*ast.IdentifierNode); ok {
 		return s.lits[id.Value]
 	}
@@ -266,6 +266,20 @@ func ParseInline(text string, off, line int, ctx units.Context) (*Stmt, []*Error
 // literal shown in its own unit (p_1 = 12.5 MPa), so the value as written
 // is the result.
 func (s *Stmt) IsLiteralInput() bool {
-	l := s.loneLiteral()
+	l := s.LoneLiteral()
 	return l != nil && (!s.hasUnit || s.display.String() == l.Unit.String())
+}
+
+// IsLoneName reports whether the expression is one name or one field of a
+// name (h_1 = st_1.h), whose substituted value is the result itself.
+func (s *Stmt) IsLoneName() bool {
+	switch v := s.tree.(type) {
+	case *ast.IdentifierNode:
+		_, lit := s.lits[v.Value]
+		return !lit
+	case *ast.MemberNode:
+		_, ok := v.Node.(*ast.IdentifierNode)
+		return ok
+	}
+	return false
 }

@@ -11,12 +11,16 @@ import (
 type CurvePoint struct{ T, S, H float64 }
 
 // Dome returns the saturation dome of a fluid as one curve: the saturated
-// liquid line from the triple point up to the critical point, then the
-// saturated vapour line back down, n points on each side.
-func Dome(fluid string, n int) ([]CurvePoint, error) {
+// liquid line from tLow (or the lowest temperature of the formulation, if
+// higher) up to the critical point, then the saturated vapour line back
+// down, n points on each side.
+func Dome(fluid string, n int, tLow float64) ([]CurvePoint, error) {
 	sat, tmin, tc, err := satFunc(fluid)
 	if err != nil {
 		return nil, err
+	}
+	if tLow > tmin && tLow < tc {
+		tmin = tLow
 	}
 	liq := make([]CurvePoint, 0, n)
 	vap := make([]CurvePoint, 0, n)
@@ -56,9 +60,10 @@ func satFunc(fluid string) (func(T float64) (numSat, error), float64, float64, e
 // saturation corners are included exactly.
 func Isobar(fluid string, p, h1, h2 float64, n int) ([]CurvePoint, error) {
 	hs := make([]float64, 0, n+2)
-	for i := 0; i < n; i++ {
+	for i := 0; i < n-1; i++ {
 		hs = append(hs, h1+(h2-h1)*float64(i)/float64(n-1))
 	}
+	hs = append(hs, h2) // the end state exactly, not a rounding of it
 	hs = addCorners(fluid, p, h1, h2, hs)
 	out := make([]CurvePoint, 0, len(hs))
 	for _, h := range hs {

@@ -54,7 +54,7 @@ func TestWaterErrors(t *testing.T) {
 		{q(1, "m"), q(3, "MPa"), "the first argument is length"},
 		{q(3, "MPa"), q(4, "MPa"), "water(p, p) is not a pair"},
 		{q(120, "MPa"), q(300, "K"), "p = 120 MPa is above the 100 MPa limit of IAPWS-IF97"},
-		{q(0, "MPa"), q(300, "K"), "p = 0 MPa must be above zero"},
+		{q(0, "MPa"), q(300, "K"), "p = 0 Pa must be above zero"},
 		{q(1, "bar"), units.Num(1.2), "water(p, x)"},
 	}
 	for _, c := range cases {
@@ -113,7 +113,7 @@ func TestFluidNames(t *testing.T) {
 // its highest point is at the critical temperature.
 func TestDome(t *testing.T) {
 	for _, f := range []string{"water", "isopentane"} {
-		d, err := Dome(f, 50)
+		d, err := Dome(f, 50, 0)
 		if err != nil {
 			t.Fatalf("%s: %v", f, err)
 		}

@@ -152,6 +152,12 @@ func showNum(v float64) string {
 // for it.
 func showValue(input string, v float64) string {
 	unit := map[string]string{"p": "MPa", "T": "K", "h": "kJ/kg", "s": "kJ/(kg*K)", "v": "m^3/kg", "rho": "kg/m^3", "u": "kJ/kg"}[input]
+	if input == "p" && math.Abs(v) < 1e5 {
+		unit = "kPa"
+		if math.Abs(v) < 100 {
+			unit = "Pa"
+		}
+	}
 	if unit == "" {
 		return showNum(v)
 	}

@@ -13,6 +13,7 @@ import (
 func cmdRender(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("render", stderr)
 	outDir := fs.String("o", "", "directory for the packages (default: beside each calc)")
+	pdf := fs.Bool("pdf", false, "also print each package to PDF with headless Chromium")
 	files, err := parseArgs(fs, args)
 	if err != nil {
 		return exitUsage
@@ -23,7 +24,7 @@ func cmdRender(args []string, stdout, stderr io.Writer) int {
 	}
 	code := exitOK
 	for _, path := range files {
-		c := renderOne(path, *outDir, stdout, stderr)
+		c := renderOne(path, *outDir, *pdf, stdout, stderr)
 		code = max(code, c)
 	}
 	return code
@@ -31,8 +32,8 @@ func cmdRender(args []string, stdout, stderr io.Writer) int {
 
 // renderOne evaluates and renders one calc; a calc with errors writes
 // nothing and leaves an earlier package untouched.
-func renderOne(path, outDir string, stdout, stderr io.Writer) int {
-	d, err := calcdoc.ReadFile(path)
+func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
+	d, err := loadCalc(path, stderr)
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors
@@ -53,6 +54,14 @@ func renderOne(path, outDir string, stdout, stderr io.Writer) int {
 		return exitErrors
 	}
 	fmt.Fprintf(stdout, "wrote %s\n", dest)
+	if pdf {
+		p, err := writePDF(dest)
+		if err != nil {
+			fmt.Fprintf(stderr, "vouch: %v\n", err)
+			return exitErrors
+		}
+		fmt.Fprintf(stdout, "wrote %s\n", p)
+	}
 	if d.Failed() {
 		return exitFailed
 	}

@@ -139,7 +139,7 @@ func writeTable(w io.Writer, d *calcdoc.Doc) {
 	fmt.Fprintln(w)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "line\tname\tvalue\tdescription")
-	for _, it := range d.Results() {
+	for _, it := range d.Shown() {
 		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\n", it.Stmt.Line, it.Stmt.Name, alignValue(d.ValueText(it.Outcome)), it.Stmt.Desc)
 	}
 	tw.Flush()
