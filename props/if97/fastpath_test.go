@@ -58,3 +58,64 @@ func TestAboveSat(t *testing.T) {
 		}
 	}
 }
+
+// TestSuperBounds checks the bounds y1Lo..y2Hi of superPY on a fine grid of pressures from
+// ps(623.15 K) to 100 MPa.
+func TestSuperBounds(t *testing.T) {
+	for i := 0; i <= 100000; i++ {
+		p := PSat623 + (PMax-PSat623)*float64(i)/100000
+		for _, k := range []yKind{byH, byS} {
+			y1, y2 := yAt(1, p, T13, k), yAt(2, p, TB23(p), k)
+			if !(y1 > y1Lo[k] && y1 < y1Hi[k] && y2 > y2Lo[k] && y2 < y2Hi[k]) {
+				t.Fatalf("p = %g: %s1 = %v, %s2 = %v outside [%v, %v], [%v, %v]", p, k.input(), y1, k.input(), y2, y1Lo[k], y1Hi[k], y2Lo[k], y2Hi[k])
+			}
+		}
+	}
+}
+
+// TestSatBands checks the bands of subPY against the saturated values at (p, ts(p)) for
+// pressures from PSatMin to ps(623.15 K), log-spaced, and at the pressures of the grid.
+func TestSatBands(t *testing.T) {
+	var ps []float64
+	for i := 0; i <= 200000; i++ {
+		ps = append(ps, PSatMin*math.Pow(PSat623/PSatMin, float64(i)/200000))
+	}
+	for k := range psN + 1 {
+		p := psatEq(TMin + float64(k)*psStep)
+		ps = append(ps, p, math.Nextafter(p, 0), math.Nextafter(p, PMax))
+	}
+	for _, p := range ps {
+		if p < PSatMin || p > PSat623 {
+			continue
+		}
+		Ts := tsatEq(p)
+		for _, k := range []yKind{byH, byS} {
+			b := satBandAt(Ts, k)
+			f, g := yAt(1, p, Ts, k), yAt(2, p, Ts, k)
+			if !(f > b.fLo && f < b.fHi && g > b.gLo && g < b.gHi) {
+				t.Fatalf("p = %g, Ts = %g: %s' = %v, %s\" = %v outside %+v", p, Ts, k.input(), f, k.input(), g, *b)
+			}
+		}
+	}
+}
+
+// TestWetPY checks the two-phase states of wetPY, built from γ, γπ and γτ of the end points,
+// against those from the complete saturated states: the same, bit for bit.
+func TestWetPY(t *testing.T) {
+	for i := 0; i <= 2000; i++ {
+		p := PSatMin * math.Pow(PSat623/PSatMin, float64(i)/2000)
+		Ts := tsatEq(p)
+		l, g := satStates(p, Ts)
+		for _, x := range []float64{1e-9, 0.01, 0.37, 0.999} {
+			for _, k := range []yKind{byH, byS} {
+				y := l.H + x*(g.H-l.H)
+				if k == byS {
+					y = l.S + x*(g.S-l.S)
+				}
+				if got, want := wetPY(p, Ts, y, k), mixY(&l, &g, y, k); got != want {
+					t.Fatalf("p = %g, %s = %v: got %+v, want %+v", p, k.input(), y, got, want)
+				}
+			}
+		}
+	}
+}

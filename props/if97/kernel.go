@@ -18,16 +18,17 @@ const (
 	wantXX                   // xx = Σ n I(I-1) t
 	wantYY                   // yy = Σ n J(J-1) t
 	wantXY                   // xy = Σ n I J t
+	wantYYY                  // yyy = Σ n J(J-1)(J-2) t, for the third τ-derivative
 
-	wantAll = wantF | wantX | wantY | wantXX | wantYY | wantXY
+	wantAll = wantF | wantX | wantY | wantXX | wantYY | wantXY // all that a state needs
 )
 
 // termSums holds weighted sums over the terms t_i = x^I_i y^J_i of one coefficient table. With
 // the sum F = Σ n_i t_i, the partial derivatives are ∂F/∂x = x/x_, ∂²F/∂x² = xx/x_², ∂F/∂y =
-// y/y_, ∂²F/∂y² = yy/y_², ∂²F/∂x∂y = xy/(x_ y_), where x_ and y_ are the variable values. This
-// keeps each term product to one evaluation for all derivatives.
+// y/y_, ∂²F/∂y² = yy/y_², ∂²F/∂x∂y = xy/(x_ y_), ∂³F/∂y³ = yyy/y_³, where x_ and y_ are the
+// variable values. This keeps each term product to one evaluation for all derivatives.
 type termSums struct {
-	f, x, y, xx, yy, xy float64
+	f, x, y, xx, yy, xy, yyy float64
 }
 
 // gibbs holds the dimensionless Gibbs free energy γ = g/(RT) of one region and its partial
@@ -48,20 +49,27 @@ func (d *gibbs) props(p, T float64, region int) Props {
 // setProps is props writing into *st (all fields but Phase and X), so that the state is built
 // in place rather than copied on its way out.
 func (d *gibbs) setProps(st *Props, p, T float64, region int) {
+	d.setVHSU(st, p, T, region)
+	RT := R * T
+	a := d.gp - d.tau*d.gpt
+	cp := -R * d.tau * d.tau * d.gtt
+	st.Cp = cp
+	st.Cv = cp + R*a*a/d.gpp
+	st.W = safeSqrt(RT * d.gp * d.gp / (a*a/(d.tau*d.tau*d.gtt) - d.gpp))
+}
+
+// setVHSU sets P, T, Region, V, Rho, H, S and U of *st as setProps does; it needs only γ, γπ
+// and γτ (wantF|wantX|wantY), which is all a two-phase mixture takes from its end points.
+func (d *gibbs) setVHSU(st *Props, p, T float64, region int) {
 	RT := R * T
 	tgt := d.tau * d.gt
 	pgp := d.pi * d.gp
-	a := d.gp - d.tau*d.gpt
-	cp := -R * d.tau * d.tau * d.gtt
 	st.P, st.T, st.Region = p, T, region
 	st.V = RT / p * pgp
 	st.Rho = 1 / st.V
 	st.H = RT * tgt
 	st.U = RT * (tgt - pgp)
 	st.S = R * (tgt - d.g)
-	st.Cp = cp
-	st.Cv = cp + R*a*a/d.gpp
-	st.W = safeSqrt(RT * d.gp * d.gp / (a*a/(d.tau*d.tau*d.gtt) - d.gpp))
 }
 
 // safeSqrt is math.Sqrt for x >= 0 and 0 otherwise, so that a property that is not defined

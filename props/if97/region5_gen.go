@@ -37,6 +37,12 @@ func r5oSums(y float64, want uint8, s *termSums) {
 		a3 := -0.65923253077834 * y2
 		s.yy = (a0 + a1) + (a2 + a3)
 	}
+	if want&wantYYY != 0 {
+		a0 := 1.48830893600796 * yi3
+		a1 := -8.85636839527992 * yi2
+		a2 := 18.696790928355 * yi
+		s.yyy = (a0 + a1) + a2
+	}
 }
 
 // r5rSums returns the weighted sums of the terms n_i x^I_i y^J_i with x = π and y = τ for
@@ -99,5 +105,12 @@ func r5rSums(x, y float64, want uint8, s *termSums) {
 		a2 := -0.0150810233032944 * t3
 		a3 := 1.3464022445691e-05 * t4
 		s.xy = (a0 + a1) + (a2 + a3)
+	}
+	if want&wantYYY != 0 {
+		a0 := -0.0301620466065888 * t3
+		a1 := 1.3464022445691e-05 * t4
+		a2 := -0.0020746290828549383 * t5
+		a3 := 7.96308551282055e-06 * t6
+		s.yyy = (a0 + a1) + (a2 + a3)
 	}
 }

@@ -141,12 +141,12 @@ func satOf(l, g Props) Sat {
 }
 
 // mix returns the two-phase state of quality x between saturated liquid l and vapour g.
-func mix(l, g Props, x float64) Props {
+func mix(l, g *Props, x float64) Props {
 	switch x {
 	case 0:
-		return l
+		return *l
 	case 1:
-		return g
+		return *g
 	}
 	m := Props{P: l.P, T: l.T, X: x, Region: 4, Phase: TwoPhase}
 	m.V = l.V + x*(g.V-l.V)
@@ -177,7 +177,7 @@ func StatePX(p, x float64) (Props, error) {
 		return Props{}, err
 	}
 	l, g := satStates(p, T)
-	return mix(l, g, x), nil
+	return mix(&l, &g, x), nil
 }
 
 // StateTX returns the two-phase state at saturation temperature T (K) and vapour quality x
@@ -194,5 +194,5 @@ func StateTX(T, x float64) (Props, error) {
 		p = psatEq(T)
 	}
 	l, g := satStates(p, T)
-	return mix(l, g, x), nil
+	return mix(&l, &g, x), nil
 }

@@ -256,7 +256,7 @@ func twoPhaseHS(h, s float64) (Props, bool) {
 	if !(x >= -1e-6 && x <= 1+1e-6) {
 		return Props{}, false
 	}
-	return mix(l, gv, math.Min(1, math.Max(0, x))), true
+	return mix(&l, &gv, math.Min(1, math.Max(0, x))), true
 }
 
 // satTempOfS returns the saturation temperature at which the saturated liquid (s <= sc) or the

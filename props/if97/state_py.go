@@ -167,9 +167,24 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 }
 
 // subPY handles PSatMin <= p <= ps(623.15 K): liquid, two-phase or vapour, decided by the
-// saturated-liquid and saturated-vapour values at Ts(p).
+// saturated-liquid and saturated-vapour values at Ts(p). Bounds of those values (satBands)
+// decide without them unless y lies near one of them.
 func subPY(p, y float64, k yKind) (Props, error) {
 	Ts := tsatEq(p)
+	b := satBandAt(Ts, k)
+	switch {
+	case y < b.fLo:
+		return liquidPY(p, y, k, Ts)
+	case y > b.gHi:
+		return vapourPY(p, y, k, Ts)
+	case y > b.fHi && y < b.gLo:
+		return wetPY(p, Ts, y, k), nil
+	}
+	return nearSatPY(p, Ts, y, k)
+}
+
+// nearSatPY is subPY for y near the saturated-liquid or saturated-vapour value at Ts.
+func nearSatPY(p, Ts, y float64, k yKind) (Props, error) {
 	// Fast path: when the region 1 backward equation puts the state plausibly and well below Ts
 	// (outside region 1 it extrapolates wildly), solve
 	// region 1 directly; the bracket [273.15 K, Ts] rejects a wrong guess (out > 0).
@@ -193,28 +208,92 @@ func subPY(p, y float64, k yKind) (Props, error) {
 		return vapourPY(p, y, k, Ts)
 	}
 	l, g := satStates(p, Ts)
-	return mixY(l, g, y, k), nil
+	return mixY(&l, &g, y, k), nil
+}
+
+// wetPY returns the two-phase state at p and Ts = ts(p) <= 623.15 K whose h or s is y, for y
+// strictly between the saturated values (as satBands place it): the mixture takes only v, h, s
+// and u from its end points, so these are evaluated with γ, γπ and γτ alone.
+func wetPY(p, Ts, y float64, k yKind) Props {
+	var l, g Props
+	d := r1Gibbs(p, Ts, wantF|wantX|wantY)
+	d.setVHSU(&l, p, Ts, 4)
+	d = r2Gibbs(p, Ts, wantF|wantX|wantY)
+	d.setVHSU(&g, p, Ts, 4)
+	if m := mixY(&l, &g, y, k); m.X > 0 && m.X < 1 {
+		return m
+	}
+	l, g = satStates(p, Ts) // an end point itself, which needs all its properties
+	return mixY(&l, &g, y, k)
+}
+
+// satBand bounds the saturated-liquid value f and the saturated-vapour value g of h or s at
+// (ts(p), ts(p)) for ts(p) in one cell of the 2 K grid of psLo and psHi:
+// fLo < f < fHi and gLo < g < gHi.
+type satBand struct{ fLo, fHi, gLo, gHi float64 }
+
+// satBandsH and satBandsS hold the bands of h and s, from the saturated states at the grid
+// temperatures, widened by 100 J/kg and 0.5 J/(kg·K): far more than the bulge of h” between
+// two grid points (under 10 J/kg at its maximum near 508 K) and than rounding.
+var satBandsH, satBandsS = satBands()
+
+func satBands() (bh, bs [psN]satBand) {
+	var hf, hg, sf, sg [psN + 1]float64
+	for k := range psN + 1 {
+		T := TMin + float64(k)*psStep
+		p := psatEq(T)
+		hf[k], hg[k] = hG(1, p, T), hG(2, p, T)
+		sf[k], sg[k] = sG(1, p, T), sG(2, p, T)
+	}
+	band := func(f, g *[psN + 1]float64, k int, m float64) satBand {
+		return satBand{min(f[k], f[k+1]) - m, max(f[k], f[k+1]) + m, min(g[k], g[k+1]) - m, max(g[k], g[k+1]) + m}
+	}
+	for k := range psN {
+		bh[k] = band(&hf, &hg, k, 100)
+		bs[k] = band(&sf, &sg, k, 0.5)
+	}
+	return bh, bs
+}
+
+// satBandAt returns the band of h or s for the saturation temperature Ts.
+func satBandAt(Ts float64, k yKind) *satBand {
+	c := min(max(int((Ts-TMin)*(1/psStep)), 0), psN-1)
+	if k == byH {
+		return &satBandsH[c]
+	}
+	return &satBandsS[c]
 }
 
 // mixY returns the two-phase state whose h or s is y.
-func mixY(l, g Props, y float64, k yKind) Props {
+func mixY(l, g *Props, y float64, k yKind) Props {
 	var x float64
 	if k == byH {
 		x = (y - l.H) / (g.H - l.H)
 	} else {
 		x = (y - l.S) / (g.S - l.S)
 	}
-	return mix(l, g, math.Min(1, math.Max(0, x)))
+	return mix(l, g, min(1, max(0, x))) // as math.Min and math.Max, also for NaN and ±0
 }
+
+// Bounds, for ps(623.15 K) <= p <= 100 MPa, of h and s of region 1 on the 623.15 K isotherm
+// (y1, falling with p: 1553.92..1670.86 kJ/kg, 3.39778..3.77829 kJ/(kg·K)) and of region 2 on
+// the B23 line (y2: 2563.59..2812.95 kJ/kg, 5.04809..5.26058 kJ/(kg·K)), rounded outward;
+// TestSuperBounds holds them. superPY evaluates y1(p) and y2(p) only for y between the bounds.
+var (
+	y1Lo = [2]float64{byH: 1553.92e3, byS: 3397.78}
+	y1Hi = [2]float64{byH: 1670.86e3, byS: 3778.29}
+	y2Lo = [2]float64{byH: 2563.59e3, byS: 5048.09}
+	y2Hi = [2]float64{byH: 2812.95e3, byS: 5260.59}
+)
 
 // superPY handles p > ps(623.15 K): region 1 up to 623.15 K, region 3 up to the B23 line,
 // region 2 and 5 above it; below 22.064 MPa region 3 holds a part of the two-phase region.
 func superPY(p, y float64, k yKind) (Props, error) {
-	if y <= yAt(1, p, T13, k) {
+	if y <= y1Lo[k] || y <= y1Hi[k] && y <= yAt(1, p, T13, k) {
 		return liquidPY(p, y, k, T13)
 	}
 	TB := TB23(p)
-	if y >= yAt(2, p, TB, k) {
+	if y >= y2Hi[k] || y >= y2Lo[k] && y >= yAt(2, p, TB, k) {
 		return vapourPY(p, y, k, TB)
 	}
 	if p < Pc {
@@ -237,7 +316,7 @@ func superPY(p, y float64, k yKind) (Props, error) {
 				yf, yg = l.S, g.S
 			}
 			if y >= yf && y <= yg {
-				return mixY(l, g, y, k), nil
+				return mixY(&l, &g, y, k), nil
 			}
 		}
 	}

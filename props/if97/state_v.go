@@ -108,7 +108,7 @@ func StateTV(T, v float64) (Props, error) {
 			return gibbsTV(1, T, v, ps, PMax)
 		}
 		l, g := satStates(ps, T)
-		return mix(l, g, (v-vf)/(vg-vf)), nil
+		return mix(&l, &g, (v-vf)/(vg-vf)), nil
 	case T <= TB23Max:
 		pB := PB23(T)
 		if v >= vG(2, pB, T) {
@@ -148,7 +148,7 @@ func region3TV(T, v float64) (Props, error) {
 		rf, rg := sat3Densities(ps, T)
 		if rho >= rg && rho <= rf {
 			l, g := satStates(ps, T)
-			return mix(l, g, (v-l.V)/(g.V-l.V)), nil
+			return mix(&l, &g, (v-l.V)/(g.V-l.V)), nil
 		}
 	}
 	a := r3Helm(rho, T, wantAll)
@@ -182,7 +182,7 @@ func StatePV(p, v float64) (Props, error) {
 			return liquidPV(p, v, Ts)
 		}
 		l, g := satStates(p, Ts)
-		return mix(l, g, (v-vf)/(vg-vf)), nil
+		return mix(&l, &g, (v-vf)/(vg-vf)), nil
 	}
 	if v <= vG(1, p, T13) {
 		return liquidPV(p, v, T13)
@@ -270,7 +270,7 @@ func region3PV(p, v float64) (Props, error) {
 			lo = Ts
 		default:
 			l, g := satStates(p, Ts)
-			return mix(l, g, (v-l.V)/(g.V-l.V)), nil
+			return mix(&l, &g, (v-l.V)/(g.V-l.V)), nil
 		}
 	}
 	f := func(T float64) (float64, float64) {

@@ -12,6 +12,7 @@
 //
 //	f  = Σ n t    x  = Σ n I t    y  = Σ n J t
 //	xx = Σ n I(I-1) t    yy = Σ n J(J-1) t    xy = Σ n I J t     (t = x^I y^J)
+//	yyy = Σ n J(J-1)(J-2) t
 //
 // only where the want mask asks for them (the other fields are left as they are); the caller divides by x, y, x², y² or xy to
 // get the partial derivatives. For the backward equations it writes func name(x, y float64)
@@ -436,6 +437,7 @@ func genSums(b *bytes.Buffer, s spec, t table) {
 		{"wantXX", "xx", func(tm term) int { return tm.I * (tm.I - 1) }},
 		{"wantYY", "yy", func(tm term) int { return tm.J * (tm.J - 1) }},
 		{"wantXY", "xy", func(tm term) int { return tm.I * tm.J }},
+		{"wantYYY", "yyy", func(tm term) int { return tm.J * (tm.J - 1) * (tm.J - 2) }},
 	}
 	for _, bl := range blocks {
 		if uni && (bl.field == "x" || bl.field == "xx" || bl.field == "xy") {
