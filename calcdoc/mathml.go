@@ -13,7 +13,7 @@ import (
 type mathml struct {
 	stmt   *eval.Stmt
 	values func(name string) (*eval.Outcome, bool) // nil: write symbols, not numbers
-	evalAt func(n eval.Node) (any, bool)          // evaluates a part, for substitution
+	evalAt func(n eval.Node) (any, bool)           // evaluates a part, for substitution
 	digits int
 	ctx    units.Context
 	b      strings.Builder
