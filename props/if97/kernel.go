@@ -12,13 +12,13 @@ import "math"
 // Bits of the want mask of the generated sum functions (r1Sums, r2rSums, ...): each selects one
 // field of termSums.
 const (
-	wantF  uint8 = 1 << iota // f  = Σ n t
-	wantX                    // x  = Σ n I t
-	wantY                    // y  = Σ n J t
-	wantXX                   // xx = Σ n I(I-1) t
-	wantYY                   // yy = Σ n J(J-1) t
-	wantXY                   // xy = Σ n I J t
-	wantYYY                  // yyy = Σ n J(J-1)(J-2) t, for the third τ-derivative
+	wantF   uint8 = 1 << iota // f  = Σ n t
+	wantX                     // x  = Σ n I t
+	wantY                     // y  = Σ n J t
+	wantXX                    // xx = Σ n I(I-1) t
+	wantYY                    // yy = Σ n J(J-1) t
+	wantXY                    // xy = Σ n I J t
+	wantYYY                   // yyy = Σ n J(J-1)(J-2) t, for the third τ-derivative
 
 	wantAll = wantF | wantX | wantY | wantXX | wantYY | wantXY // all that a state needs
 )
