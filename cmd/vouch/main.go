@@ -32,6 +32,7 @@ func init() {
 		{"render", "FILE... [-o DIR]", "write the HTML package of each calc", cmdRender},
 		{"sign", "PACKAGE --role ROLE [--key KEY]", "verify, reproduce and sign a package for one role", cmdSign},
 		{"verify", "PACKAGE [--signers FILE]", "check a package's signatures and reproduce it from git", cmdVerify},
+		{"diff", "FILE [--from REV] [--to REV]", "show what changed in a calc between two revisions", cmdDiff},
 		{"units", "", "list every unit with its SI factor", cmdUnits},
 		{"functions", "", "list the functions a calc can call", cmdFunctions},
 		{"help", "", "show this help", cmdHelp},

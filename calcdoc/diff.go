@@ -1,0 +1,344 @@
+package calcdoc
+
+import (
+	"math"
+	"strconv"
+	"strings"
+
+	"vouch/eval"
+	"vouch/units"
+)
+
+// Side is one of the two revisions a diff compares.
+type Side struct {
+	Label  string // how the report names it: "v1 (1a2b3c4d5e6f, 2031-05-02)" or "work tree"
+	Rev    string // the revision as given; "" for the work tree
+	Commit string // the full commit hash; "" for the work tree
+	Path   string // the calc's path in the repository at this revision
+	Doc    *Doc   // the calc read and evaluated at this revision
+	Shown  string // the file as the user named it, for the work tree's errors
+}
+
+// Diff is what changed in a calc between two revisions: front matter,
+// inputs and results, calc lines, checks and prose.
+type Diff struct {
+	From, To Side
+	Front    []FieldChange
+	Values   []ValueChange // every value defined at both sides, in the new file's order
+	Lines    []LineChange  // calc lines added, removed or rewritten
+	Checks   []CheckChange // checks found at both sides
+	Prose    []Hunk
+}
+
+// FieldChange is a front-matter field that changed.
+type FieldChange struct {
+	Field, Old, New string
+}
+
+// ValueChange compares a value defined at both revisions.
+type ValueChange struct {
+	Name             string
+	Input            bool // an input: its expression reads no names
+	OldLine, NewLine int
+	Old, New         string // the values as the package shows them
+	Change           string // new minus old, in the new display unit; "" when not a number
+	Rel              string // the change relative to the old value, in per cent
+	Same             bool   // the values are equal, bit for bit
+}
+
+// LineChange is a calc line added, removed or rewritten.
+type LineChange struct {
+	Kind             string // "added", "removed" or "changed"
+	Name             string // the name defined, or "check"
+	OldLine, NewLine int    // 0 on the side without the line
+	Old, New         string // the line as written, "" on the side without it
+	Value            string // an added line's value, or an added check's PASS or FAIL
+}
+
+// CheckChange compares a check found at both revisions.
+type CheckChange struct {
+	Old, New         string // the check's expression at each side
+	Desc             string
+	OldLine, NewLine int
+	OldPass, NewPass bool
+	Evaluated        bool // both sides evaluated the check
+}
+
+// Flipped reports a check that passed at one revision and failed at the
+// other.
+func (c CheckChange) Flipped() bool { return c.Evaluated && c.OldPass != c.NewPass }
+
+// Compare compares two evaluated calcs: the old one first.
+func Compare(old, new *Doc) *Diff {
+	df := &Diff{From: Side{Doc: old}, To: Side{Doc: new}}
+	df.Front = frontChanges(old.Front, new.Front)
+	df.compareDefs(old, new)
+	df.compareChecks(old, new)
+	df.Prose = proseHunks(old.prose(), new.prose())
+	return df
+}
+
+// Unchanged reports a diff that found nothing changed.
+func (df *Diff) Unchanged() bool {
+	if len(df.Front)+len(df.Lines)+len(df.Prose) > 0 {
+		return false
+	}
+	for _, v := range df.Values {
+		if !v.Same {
+			return false
+		}
+	}
+	for _, c := range df.Checks {
+		if c.Flipped() {
+			return false
+		}
+	}
+	return true
+}
+
+// frontChanges lists the front-matter fields that differ.
+func frontChanges(a, b Front) []FieldChange {
+	fields := []FieldChange{
+		{"title", a.Title, b.Title},
+		{"number", a.Number, b.Number},
+		{"project", a.Project, b.Project},
+		{"revision", a.Revision, b.Revision},
+		{"digits", strconv.Itoa(a.Digits), strconv.Itoa(b.Digits)},
+		{"atmosphere", a.Atmosphere, b.Atmosphere},
+		{"preparer", a.People.Preparer.Text, b.People.Preparer.Text},
+		{"checker", a.People.Checker.Text, b.People.Checker.Text},
+		{"approver", a.People.Approver.Text, b.People.Approver.Text},
+		{"summary", strings.Join(a.Summary, ", "), strings.Join(b.Summary, ", ")},
+	}
+	var out []FieldChange
+	for _, f := range fields {
+		if f.Old != f.New {
+			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// definitions maps each defined name to its item, in file order.
+func definitions(d *Doc) (map[string]*Item, []*Item) {
+	byName := map[string]*Item{}
+	var order []*Item
+	for _, it := range d.Items {
+		if it.Inline || it.Stmt == nil || it.Stmt.Kind != eval.Def || it.Stmt.Name == "" {
+			continue
+		}
+		if _, dup := byName[it.Stmt.Name]; !dup {
+			byName[it.Stmt.Name] = it
+			order = append(order, it)
+		}
+	}
+	return byName, order
+}
+
+// compareDefs compares the definitions by name: values of names defined at
+// both sides, and lines added, removed or rewritten.
+func (df *Diff) compareDefs(old, new *Doc) {
+	oldDefs, oldOrder := definitions(old)
+	newDefs, newOrder := definitions(new)
+	for _, it := range oldOrder {
+		if newDefs[it.Stmt.Name] == nil {
+			df.Lines = append(df.Lines, LineChange{Kind: "removed", Name: it.Stmt.Name, OldLine: it.Stmt.Line, Old: sourceLine(old, it)})
+		}
+	}
+	for _, it := range newOrder {
+		was := oldDefs[it.Stmt.Name]
+		if was == nil {
+			df.Lines = append(df.Lines, LineChange{Kind: "added", Name: it.Stmt.Name, NewLine: it.Stmt.Line,
+				New: sourceLine(new, it), Value: valueText(new, it)})
+			continue
+		}
+		if a, b := sourceLine(old, was), sourceLine(new, it); normalise(a) != normalise(b) {
+			df.Lines = append(df.Lines, LineChange{Kind: "changed", Name: it.Stmt.Name, OldLine: was.Stmt.Line, NewLine: it.Stmt.Line, Old: a, New: b})
+		}
+		if vc, ok := compareValue(old, was, new, it); ok {
+			df.Values = append(df.Values, vc)
+		}
+	}
+}
+
+// sourceLine is the calc line of an item as written, without its line
+// break.
+func sourceLine(d *Doc, it *Item) string {
+	return strings.TrimSpace(d.lines.text(d.Src, it.Stmt.Line))
+}
+
+// normalise collapses runs of blanks, so that re-aligning a line is no
+// change.
+func normalise(s string) string { return strings.Join(strings.Fields(s), " ") }
+
+// valueText is an item's value as the package shows it, or what stopped it.
+func valueText(d *Doc, it *Item) string {
+	switch {
+	case it.Outcome == nil || it.Outcome.Skipped:
+		return "(not evaluated)"
+	case it.Stmt.Kind == eval.Check:
+		return verdictText(it.Outcome.Pass)
+	}
+	if _, ok := it.Outcome.Value.(eval.Record); ok {
+		return "(state)"
+	}
+	return d.ValueText(it.Outcome)
+}
+
+func verdictText(pass bool) string {
+	if pass {
+		return "PASS"
+	}
+	return "FAIL"
+}
+
+// comparable reports whether an item's value is one a diff lists: a
+// quantity, a truth value or a text, or no value because the line failed.
+func comparable(it *Item) bool {
+	if it.Outcome == nil || it.Outcome.Skipped {
+		return true
+	}
+	switch it.Outcome.Value.(type) {
+	case units.Quantity, bool, string:
+		return true
+	}
+	return false
+}
+
+// compareValue compares the values of one name at both sides.
+func compareValue(old *Doc, a *Item, new *Doc, b *Item) (ValueChange, bool) {
+	if !comparable(a) || !comparable(b) {
+		return ValueChange{}, false
+	}
+	vc := ValueChange{
+		Name: b.Stmt.Name, Input: len(b.Stmt.Deps()) == 0,
+		OldLine: a.Stmt.Line, NewLine: b.Stmt.Line,
+		Old: valueText(old, a), New: valueText(new, b),
+	}
+	qa, okA := quantityOf(a)
+	qb, okB := quantityOf(b)
+	switch {
+	case okA && okB:
+		vc.Same = qa.V == qb.V && qa.D == qb.D
+		if !vc.Same {
+			vc.Change, vc.Rel = quantityChange(qa, qb, new, b.Outcome.Display)
+		}
+	default:
+		vc.Same = vc.Old == vc.New && a.Outcome != nil && b.Outcome != nil
+	}
+	return vc, true
+}
+
+func quantityOf(it *Item) (units.Quantity, bool) {
+	if it.Outcome == nil || it.Outcome.Skipped {
+		return units.Quantity{}, false
+	}
+	q, ok := it.Outcome.Value.(units.Quantity)
+	return q, ok
+}
+
+// quantityChange formats new minus old in the new display unit (a
+// temperature change in K or delta_degF, since a change is a difference)
+// and the change relative to the old value, in per cent.
+func quantityChange(a, b units.Quantity, d *Doc, display units.Unit) (change, rel string) {
+	if a.D != b.D {
+		return "dimension changed", ""
+	}
+	delta := units.Quantity{V: b.V - a.V, D: b.D}
+	text, err := delta.Text(changeUnit(delta, display), d.Front.Digits, d.Front.Ctx)
+	if err != nil {
+		text = err.Error()
+	} else if delta.V > 0 {
+		text = "+" + text
+	}
+	if a.V != 0 {
+		rel = signed(units.FormatSig(100*(b.V-a.V)/math.Abs(a.V), 3)) + " %"
+	}
+	return text, rel
+}
+
+// changeUnit is the unit a change is shown in: the display unit, unless it
+// has an offset (degC, degF, barg), which a difference must not carry.
+func changeUnit(delta units.Quantity, display units.Unit) units.Unit {
+	switch {
+	case display.Kind == units.Linear && display.Dim == delta.D && !display.Kelvin:
+		return display
+	case display.Kind == units.AbsTemp && strings.Contains(display.String(), "degF"):
+		return units.MustParse("delta_degF")
+	case delta.D == units.DimTemperature:
+		return units.MustParse("K")
+	}
+	return units.DefaultUnit(delta)
+}
+
+func signed(s string) string {
+	if !strings.HasPrefix(s, "-") {
+		return "+" + s
+	}
+	return s
+}
+
+// checkItems lists the checks of a calc that parsed, in file order.
+func checkItems(d *Doc) []*Item {
+	var out []*Item
+	for _, it := range d.Items {
+		if it.Stmt != nil && it.Stmt.Kind == eval.Check && !it.Inline {
+			out = append(out, it)
+		}
+	}
+	return out
+}
+
+// compareChecks pairs the checks of both sides — first those with the same
+// expression, then those with the same description — and lists the rest as
+// added or removed.
+func (df *Diff) compareChecks(old, new *Doc) {
+	a, b := checkItems(old), checkItems(new)
+	pair := make([]int, len(b)) // index into a, or -1
+	used := make([]bool, len(a))
+	for i := range pair {
+		pair[i] = -1
+	}
+	match := func(same func(x, y *Item) bool) {
+		for i, y := range b {
+			for j, x := range a {
+				if pair[i] < 0 && !used[j] && same(x, y) {
+					pair[i], used[j] = j, true
+				}
+			}
+		}
+	}
+	match(func(x, y *Item) bool { return normalise(x.Stmt.Expr) == normalise(y.Stmt.Expr) })
+	match(func(x, y *Item) bool { return x.Stmt.Desc != "" && x.Stmt.Desc == y.Stmt.Desc })
+	df.addCheckLines(old, new, a, b, pair, used)
+}
+
+// addCheckLines records the paired checks and the lines of the others.
+func (df *Diff) addCheckLines(old, new *Doc, a, b []*Item, pair []int, used []bool) {
+	for j, x := range a {
+		if !used[j] {
+			df.Lines = append(df.Lines, LineChange{Kind: "removed", Name: "check", OldLine: x.Stmt.Line, Old: sourceLine(old, x)})
+		}
+	}
+	for i, y := range b {
+		if pair[i] < 0 {
+			df.Lines = append(df.Lines, LineChange{Kind: "added", Name: "check", NewLine: y.Stmt.Line, New: sourceLine(new, y), Value: valueText(new, y)})
+			continue
+		}
+		x := a[pair[i]]
+		if sa, sb := sourceLine(old, x), sourceLine(new, y); normalise(sa) != normalise(sb) {
+			df.Lines = append(df.Lines, LineChange{Kind: "changed", Name: "check", OldLine: x.Stmt.Line, NewLine: y.Stmt.Line, Old: sa, New: sb})
+		}
+		df.Checks = append(df.Checks, checkChange(x, y))
+	}
+}
+
+func checkChange(x, y *Item) CheckChange {
+	c := CheckChange{Old: x.Stmt.Expr, New: y.Stmt.Expr, Desc: y.Stmt.Desc, OldLine: x.Stmt.Line, NewLine: y.Stmt.Line}
+	ex := x.Outcome != nil && !x.Outcome.Skipped
+	ey := y.Outcome != nil && !y.Outcome.Skipped
+	if c.Evaluated = ex && ey; c.Evaluated {
+		c.OldPass, c.NewPass = x.Outcome.Pass, y.Outcome.Pass
+	}
+	return c
+}

@@ -1,0 +1,296 @@
+package calcdoc
+
+import (
+	"bytes"
+	"errors"
+	"strings"
+	"testing"
+)
+
+// diffRepo builds a repository whose history exercises vouch diff:
+//
+//	v1  calcs/fp.calc.md as first issued
+//	v2  an input changed (discharge pressure 12.5 -> 14 MPa), revision B
+//	v3  a line added (motor power) and the check tightened so it fails
+//	v4  the calc renamed to pumps/fp-001.calc.md, with a prose edit
+func diffRepo(t *testing.T) *gitRepo {
+	r := newGitRepo(t)
+	r.write("calcs/fp.calc.md", signCalc)
+	r.commit("Feed pump power, first issue")
+	r.git("tag", "v1")
+	src := strings.Replace(signCalc, "p_out = 12.5 MPa", "p_out = 14 MPa", 1)
+	src = strings.Replace(src, "revision: A", "revision: B", 1)
+	r.write("calcs/fp.calc.md", src)
+	r.commit("Raise the discharge pressure")
+	r.git("tag", "v2")
+	src = strings.Replace(src, "check P_pump < 5 MW", "P_motor [MW] = P_pump / 95 %    // motor input\ncheck P_pump < 3 MW", 1)
+	r.write("calcs/fp.calc.md", src)
+	r.commit("Motor power; tighter frame limit")
+	r.git("tag", "v3")
+	r.git("mv", "calcs/fp.calc.md", "calcs/fp-001.calc.md")
+	src = strings.Replace(src, "# Feed pump\n", "# Boiler feed pump\n", 1)
+	r.write("calcs/fp-001.calc.md", src)
+	r.commit("Rename by calc number")
+	r.git("tag", "v4")
+	return r
+}
+
+func TestDiffRevisions(t *testing.T) {
+	r := diffRepo(t)
+	cases := []struct {
+		name, file, from, to string
+		changed              []string // names of values that changed
+		flipped              int
+		lines                []string // kind:name of the calc lines changed
+		renamed              bool
+		text                 []string // in the terminal text
+	}{
+		{name: "changed input", file: "calcs/fp-001.calc.md", from: "v1", to: "v2",
+			changed: []string{"p_out", "w_p", "P_pump"}, lines: []string{"changed:p_out"},
+			text: []string{"revision  A  ->  B", "p_out", "12.5 MPa", "14 MPa", "+1.500 MPa", "+12.0 %", "inputs changed (1 of 3)"}},
+		{name: "added line and flipped check", file: "calcs/fp-001.calc.md", from: "v2", to: "v3",
+			flipped: 1, lines: []string{"added:P_motor", "changed:check"},
+			text: []string{"to:   v3 (", "calcs/fp.calc.md", "checks flipped (1 of 1)", "PASS -> FAIL", "+   21  P_motor [MW] = P_pump / 95 %", "= 3.958 MW", "motor frame limit"}},
+		{name: "renamed file", file: "calcs/fp-001.calc.md", from: "v3", to: "v4",
+			renamed: true, text: []string{"renamed: calcs/fp.calc.md -> calcs/fp-001.calc.md", "- # Feed pump", "+ # Boiler feed pump"}},
+		{name: "work tree against HEAD~1", file: "calcs/fp-001.calc.md", from: "HEAD~1",
+			renamed: true, text: []string{"from: HEAD~1 (", "to:   work tree"}},
+		{name: "unchanged", file: "calcs/fp-001.calc.md", from: "HEAD",
+			text: []string{"no changes"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			df, err := DiffRevisions(r.path(c.file), DiffOptions{From: c.from, To: c.to})
+			if err != nil {
+				t.Fatal(err)
+			}
+			if df.HasErrors() {
+				t.Fatalf("errors: %s", df.ErrorText())
+			}
+			if got := changedNames(df); strings.Join(got, ",") != strings.Join(c.changed, ",") {
+				t.Errorf("changed values %v, want %v", got, c.changed)
+			}
+			if got := flips(df); got != c.flipped {
+				t.Errorf("%d checks flipped, want %d", got, c.flipped)
+			}
+			if got := lineKinds(df); strings.Join(got, ",") != strings.Join(c.lines, ",") {
+				t.Errorf("lines %v, want %v", got, c.lines)
+			}
+			if df.Renamed() != c.renamed {
+				t.Errorf("renamed %v, want %v (%s -> %s)", df.Renamed(), c.renamed, df.From.Path, df.To.Path)
+			}
+			text := df.Text(false)
+			for _, want := range c.text {
+				if !strings.Contains(text, want) {
+					t.Errorf("text lacks %q:\n%s", want, text)
+				}
+			}
+		})
+	}
+}
+
+func changedNames(df *Diff) []string {
+	var out []string
+	for _, v := range df.Values {
+		if !v.Same {
+			out = append(out, v.Name)
+		}
+	}
+	return out
+}
+
+func flips(df *Diff) int {
+	n := 0
+	for _, c := range df.Checks {
+		if c.Flipped() {
+			n++
+		}
+	}
+	return n
+}
+
+func lineKinds(df *Diff) []string {
+	var out []string
+	for _, l := range df.Lines {
+		out = append(out, l.Kind+":"+l.Name)
+	}
+	return out
+}
+
+func TestDiffBadInput(t *testing.T) {
+	r := diffRepo(t)
+	r.write("calcs/new.calc.md", "---\ntitle: Condenser duty (fictional)\nnumber: CD-001\n---\n# Duty\n\n```calc\nQ = 400 MW // duty\n```\n")
+	r.commit("A second calc")
+	cases := []struct {
+		name, file, from, to string
+		want                 []string
+	}{
+		{"unknown revision", "calcs/fp-001.calc.md", "v5", "", []string{`unknown revision "v5"`, "v1", "v4"}},
+		{"unknown later revision", "calcs/fp-001.calc.md", "v1", "release-9", []string{`unknown revision "release-9"`}},
+		{"past the root", "calcs/fp-001.calc.md", "HEAD~40", "", []string{`"HEAD~40"`, "HEAD resolves, but not the ancestor"}},
+		{"file not at revision", "calcs/new.calc.md", "v1", "", []string{"calcs/new.calc.md did not exist at v1 (commit ", "no calc file there looks like its earlier name"}},
+		{"file not at later revision", "calcs/new.calc.md", "v1", "v3", []string{"calcs/new.calc.md did not exist at v3"}},
+		{"file missing from the work tree", "calcs/gone.calc.md", "v1", "", []string{"calcs/gone.calc.md", "no such file"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := DiffRevisions(r.path(c.file), DiffOptions{From: c.from, To: c.to})
+			var usage *UsageError
+			if !errors.As(err, &usage) {
+				t.Fatalf("error %v, want a usage error", err)
+			}
+			for _, w := range c.want {
+				if !strings.Contains(err.Error(), w) {
+					t.Errorf("error %q lacks %q", err, w)
+				}
+			}
+		})
+	}
+	t.Run("outside a repository", func(t *testing.T) {
+		_, err := DiffRevisions(writeTemp(t, signCalc), DiffOptions{})
+		if err == nil || !strings.Contains(err.Error(), "not in a git repository") {
+			t.Errorf("error %v, want not in a git repository", err)
+		}
+	})
+}
+
+// writeTemp writes a calc to a fresh directory outside any repository.
+func writeTemp(t *testing.T, src string) string {
+	r := &gitRepo{t: t, dir: t.TempDir()}
+	r.write("c.calc.md", src)
+	return r.path("c.calc.md")
+}
+
+// TestDiffErrorsInRevision keeps going when one revision has errors: the
+// errors name the revision and the line.
+func TestDiffErrorsInRevision(t *testing.T) {
+	r := diffRepo(t)
+	src := string(r.read("calcs/fp-001.calc.md"))
+	r.write("calcs/fp-001.calc.md", strings.Replace(src, "p_out = 14 MPa", "p_out = 14 MPa + 3 kg", 1))
+	df, err := DiffRevisions(r.path("calcs/fp-001.calc.md"), DiffOptions{From: "v4"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !df.HasErrors() {
+		t.Fatal("no errors")
+	}
+	if got := df.ErrorText(); !strings.Contains(got, "fp-001.calc.md:16:") || !strings.Contains(got, "cannot add") {
+		t.Errorf("errors: %s", got)
+	}
+	if text := df.Text(false); !strings.Contains(text, "(not evaluated)") {
+		t.Errorf("the failed value is not shown:\n%s", text)
+	}
+}
+
+func TestDiffReportDeterministic(t *testing.T) {
+	r := diffRepo(t)
+	var first []byte
+	for i := 0; i < 2; i++ {
+		df, err := DiffRevisions(r.path("calcs/fp-001.calc.md"), DiffOptions{From: "v1", To: "v4"})
+		if err != nil {
+			t.Fatal(err)
+		}
+		html, err := df.HTML(i == 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, bad := range []string{"<script", "http://", "https://"} {
+			if bytes.Contains(html, []byte(bad)) {
+				t.Errorf("the report holds %q", bad)
+			}
+		}
+		if i == 0 {
+			for _, want := range []string{"Inputs (3)", "Checks (1)", "Renamed", "PASS</span> &rarr;"} {
+				if !bytes.Contains(html, []byte(want)) {
+					t.Errorf("report with --all lacks %q", want)
+				}
+			}
+			first, _ = df.HTML(false)
+			continue
+		}
+		if !bytes.Equal(first, html) {
+			t.Error("the same diff gave different reports")
+		}
+	}
+}
+
+func TestCompareValues(t *testing.T) {
+	calc := func(body string) *Doc {
+		d := Read("t.calc.md", []byte("---\ntitle: Test (fictional)\n---\n```calc\n"+body+"\n```\n"))
+		d.Evaluate()
+		if len(d.Errors) > 0 {
+			t.Fatalf("%s", d.Errors.Format("t", d.Src))
+		}
+		return d
+	}
+	cases := []struct {
+		name, old, new string
+		change, rel    string
+		same           bool
+	}{
+		{"pressure", "p = 10 MPa", "p = 11 MPa", "+1.000 MPa", "+10.0 %", false},
+		{"temperature in K", "T [degC] = 540 degC", "T [degC] = 545 degC", "+5.000 K", "+0.615 %", false},
+		{"temperature in delta_degF", "T [degF] = 1000 degF", "T [degF] = 990 degF", "-10.00 delta_degF", "", false},
+		{"gauge pressure", "p [barg] = 10 barg", "p [barg] = 12 barg", "+200.0 kPa", "+18.2 %", false},
+		{"from zero", "q = 0 kW", "q = 3 kW", "+3.000 kW", "", false},
+		{"unchanged", "m = 2 kg", "m = 2 kg", "", "", true},
+		{"rewritten, same value", "m = 2 kg", "m = 2000 g", "", "", true},
+		{"dimension changed", "m = 2 kg", "m = 2 m", "dimension changed", "", false},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			df := Compare(calc(c.old), calc(c.new))
+			if len(df.Values) != 1 {
+				t.Fatalf("values %+v", df.Values)
+			}
+			v := df.Values[0]
+			if v.Same != c.same || v.Change != c.change || c.rel != "" && v.Rel != c.rel {
+				t.Errorf("got same=%v change=%q rel=%q, want %v %q %q", v.Same, v.Change, v.Rel, c.same, c.change, c.rel)
+			}
+		})
+	}
+}
+
+func TestDiffLines(t *testing.T) {
+	cases := []struct {
+		a, b  string // lines as letters
+		edits int    // lines removed and added by a shortest script
+	}{
+		{"", "", 0},
+		{"abc", "abc", 0},
+		{"abc", "", 3},
+		{"", "ab", 2},
+		{"abcabba", "cbabac", 5}, // Myers (1986), figure 1
+		{"axc", "ayc", 2},
+	}
+	for _, c := range cases {
+		a, b := strings.Split(c.a, ""), strings.Split(c.b, "")
+		ops := diffLines(a, b)
+		edits := 0
+		for _, op := range ops {
+			if op.Op != ' ' {
+				edits++
+			}
+		}
+		if edits != c.edits {
+			t.Errorf("diff(%q, %q) makes %d edits, want %d", c.a, c.b, edits, c.edits)
+		}
+		if got := apply(a, b, ops); got != c.b {
+			t.Errorf("diff(%q, %q) rebuilds %q", c.a, c.b, got)
+		}
+	}
+}
+
+// apply rebuilds the new text from the old one and an edit script.
+func apply(a, b []string, ops []editOp) string {
+	var out strings.Builder
+	for _, op := range ops {
+		switch op.Op {
+		case ' ':
+			out.WriteString(a[op.A])
+		case '+':
+			out.WriteString(b[op.B])
+		}
+	}
+	return out.String()
+}
