@@ -182,9 +182,7 @@ func (d *Doc) formulations() []string {
 		}
 	}
 	for i, s := range out {
-		if s == props.IF97 {
-			out[i] = props.IF97 + " (" + props.IF97Version + "); " + props.IF97Reference
-		}
+		out[i] = props.Describe(s)
 	}
 	return out
 }

@@ -103,7 +103,7 @@ func FluidSat(name string, x units.Quantity) (*Sat, error) {
 	if err != nil {
 		return nil, fluidError(call, f, err)
 	}
-	return numSat{P: s.P, T: s.T, Hf: s.Hf, Hg: s.Hg, Sf: s.Sf, Sg: s.Sg, Vf: s.Vf, Vg: s.Vg}.sat(f.Name, f.Equation, f.Reference), nil
+	return numSat{P: s.P, T: s.T, Hf: s.Hf, Hg: s.Hg, Sf: s.Sf, Sg: s.Sg, Vf: s.Vf, Vg: s.Vg}.sat(f.Name, f.Equation+" for "+f.Name, f.Reference), nil
 }
 
 // fluidError turns a numerics error into a message with values and limits.
@@ -118,7 +118,7 @@ func fluidError(call string, f *helmholtz.Fluid, err error) error {
 func fluidState(f *helmholtz.Fluid, p helmholtz.Props) *State {
 	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
 		Phase: p.Phase.String(), TwoPhase: p.Phase == helmholtz.TwoPhase}
-	s := n.state(f.Name, f.Equation, f.Reference)
+	s := n.state(f.Name, f.Equation+" for "+f.Name, f.Reference)
 	for _, k := range []string{"mu", "k"} {
 		delete(s.values, k)
 		s.missing[k] = "vouch has no transport-property correlation for " + f.Name
@@ -174,4 +174,18 @@ func fluidStateTS(fluid string, p, h float64) (float64, float64, error) {
 		return 0, 0, fluidError("fluid(p, h)", f, err)
 	}
 	return st.T, st.S, nil
+}
+
+// Describe gives the full citation and reference state of a formulation
+// named by a state's Source, for the package's appendix.
+func Describe(source string) string {
+	if source == IF97 {
+		return IF97 + " (" + IF97Version + "); " + IF97Reference
+	}
+	if i := strings.LastIndex(source, " for "); i >= 0 {
+		if f, ok := helmholtz.Lookup(source[i+5:]); ok {
+			return source + ": " + f.Citation + "; reference state " + f.Reference
+		}
+	}
+	return source
 }
