@@ -347,16 +347,16 @@ func stateHTML(st eval.Record, digits int) string {
 // with the checks that fail there, and the plots.
 func (d *Doc) sweepHTML(sw *Sweep) string {
 	var b strings.Builder
-	b.WriteString(sprintf("<figure class=\"sweep\" id=\"L%d\"><figcaption>Sweep of %s (line %d): %d points</figcaption>", sw.Line, NameText(sw.Var), sw.Line, len(sw.X)))
-	b.WriteString("<table class=\"grid\"><tr><th>" + NameText(sw.Var) + " [" + html.EscapeString(UnitText(sw.XUnit)) + "]</th>")
+	b.WriteString(sprintf("<figure class=\"sweep\" id=\"L%d\"><figcaption>Sweep of %s (line %d): %d points</figcaption>", sw.Line, NameText(sw.Var), sw.Line, sw.Len()))
+	b.WriteString("<table class=\"grid\"><tr><th>" + NameText(sw.Var) + unitHeading(sw.XUnit) + "</th>")
 	cols := make([]units.Unit, len(sw.Show))
 	for j, c := range sw.Show {
 		cols[j] = d.ColumnUnit(c, sw.Rows[0][j])
 		b.WriteString("<th>" + NameText(c.Name) + unitHeading(cols[j]) + "</th>")
 	}
 	b.WriteString("<th>Checks</th></tr>\n")
-	for i, x := range sw.X {
-		b.WriteString("<tr><td class=\"num\">" + numberIn(x, sw.XUnit, d) + "</td>")
+	for i := 0; i < sw.Len(); i++ {
+		b.WriteString("<tr><td class=\"num\">" + d.sweepXHTML(sw, i) + "</td>")
 		for j := range sw.Show {
 			b.WriteString("<td class=\"num\">" + numberIn(sw.Rows[i][j], cols[j], d) + "</td>")
 		}
@@ -446,4 +446,12 @@ func cellText(q units.Quantity, u units.Unit, digits int) string {
 		v = q.V
 	}
 	return NumberText(v, digits)
+}
+
+// sweepXHTML is the varied input at point i for the table.
+func (d *Doc) sweepXHTML(sw *Sweep, i int) string {
+	if sw.Texts != nil {
+		return html.EscapeString(sw.Texts[i])
+	}
+	return numberIn(sw.X[i], sw.XUnit, d)
 }

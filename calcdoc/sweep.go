@@ -27,7 +27,8 @@ type Sweep struct {
 	Plot      []string
 	plotOffs  []int
 
-	X      []units.Quantity // the varied input at each point
+	X      []units.Quantity // the varied input at each point (a number or quantity)
+	Texts  []string         // the varied input at each point (text)
 	XUnit  units.Unit
 	Rows   [][]units.Quantity // Show values at each point
 	Failed [][]int            // lines of the checks that fail at each point

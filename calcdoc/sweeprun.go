@@ -9,7 +9,10 @@ import (
 func (d *Doc) runSweeps(eng *eval.Engine) {
 	for _, sw := range d.Sweeps {
 		d.runSweep(eng, sw)
-		if len(sw.Rows) == len(sw.X) && len(sw.X) > 1 {
+		switch {
+		case sw.Texts != nil && len(sw.Plot) > 0:
+			d.errorf(sw.plotOffs[0], "plot %s: a sweep over text values is shown as a table only", sw.Plot[0])
+		case len(sw.Rows) == len(sw.X) && len(sw.X) > 1:
 			d.sweepPlots(sw)
 		}
 	}
@@ -49,26 +52,75 @@ func (d *Doc) runSweep(eng *eval.Engine, sw *Sweep) {
 		d.errorf(sw.VarOff, "vary %s: the calc does not define %s", sw.Var, sw.Var)
 		return
 	}
+	if _, isText := input.Outcome.Value.(string); isText {
+		d.runTextSweep(eng, sw)
+		return
+	}
 	xs, ok := d.sweepValues(eng, sw, input)
 	if !ok {
 		return
 	}
+	if !d.showDefined(eng, sw) {
+		return
+	}
+	sw.X, sw.XUnit = xs, input.Outcome.Display
+	vals := make([]any, len(xs))
+	for i, x := range xs {
+		vals[i] = x
+	}
+	d.sweepPoints(eng, sw, vals)
+}
+
+// showDefined reports whether every shown name is defined.
+func (d *Doc) showDefined(eng *eval.Engine, sw *Sweep) bool {
 	for _, c := range sw.Show {
 		if _, ok := eng.Value(c.Name); !ok {
 			d.errorf(c.Off, "show %s: the calc does not define %s", c.Name, c.Name)
-			return
+			return false
 		}
 	}
+	return true
+}
+
+// sweepPoints evaluates every point of a sweep.
+func (d *Doc) sweepPoints(eng *eval.Engine, sw *Sweep, vals []any) {
 	redo, items := d.sweepPlan(sw.Var)
-	sw.X, sw.XUnit = xs, input.Outcome.Display
-	for i, x := range xs {
-		if !d.sweepPoint(eng, sw, redo, items, x) {
+	for i, x := range vals {
+		if !d.sweepPoint(eng, sw, redo, items, x, i) {
 			return
 		}
 		if d.Progress != nil {
-			d.Progress(sw.Var, i+1, len(xs))
+			d.Progress(sw.Var, i+1, len(vals))
 		}
 	}
+}
+
+// runTextSweep varies a text input, such as the working fluid, over a list:
+// vary wf over ["isopentane", "R-245fa"].
+func (d *Doc) runTextSweep(eng *eval.Engine, sw *Sweep) {
+	if sw.steps != 0 {
+		d.errorf(sw.VarOff, "vary %s: %s is text; list its values: vary %s over [\"A\", \"B\"]", sw.Var, sw.Var, sw.Var)
+		return
+	}
+	var vals []any
+	for _, b := range sw.bounds {
+		out, err := eng.Exec(b)
+		if err != nil {
+			d.errorf(err.Off, "%s", err.Msg)
+			return
+		}
+		s, ok := out.Value.(string)
+		if !ok {
+			d.errorf(b.ExprOff, "vary %s: %s is %s, but %s is text", sw.Var, b.Expr, kindName(out.Value), sw.Var)
+			return
+		}
+		sw.Texts = append(sw.Texts, s)
+		vals = append(vals, s)
+	}
+	if !d.showDefined(eng, sw) {
+		return
+	}
+	d.sweepPoints(eng, sw, vals)
 }
 
 // sweepValues evaluates the bounds or the listed values.
@@ -115,15 +167,14 @@ func kindName(v any) string {
 }
 
 // sweepPoint re-evaluates the dependent lines at one value of the input.
-func (d *Doc) sweepPoint(eng *eval.Engine, sw *Sweep, redo map[string]bool, items []*Item, x units.Quantity) bool {
+func (d *Doc) sweepPoint(eng *eval.Engine, sw *Sweep, redo map[string]bool, items []*Item, x any, i int) bool {
 	f := eng.Fork(redo)
 	f.Set(sw.Var, x)
 	var failed []int
 	for _, it := range items {
 		out, err := f.Exec(it.Stmt)
 		if err != nil {
-			xt, _ := x.Text(sw.XUnit, d.Front.Digits, d.Front.Ctx)
-			d.errorf(sw.VarOff, "sweep point %s = %s: line %d: %s", sw.Var, xt, it.Stmt.Line, err.Msg)
+			d.errorf(sw.VarOff, "sweep point %s = %s: line %d: %s", sw.Var, d.SweepX(sw, i), it.Stmt.Line, err.Msg)
 			return false
 		}
 		if it.Stmt.Kind == eval.Check && !out.Pass {
@@ -155,4 +206,24 @@ func (d *Doc) ColumnUnit(c SweepColumn, q units.Quantity) units.Unit {
 		return it.Outcome.Display
 	}
 	return units.DefaultUnit(q)
+}
+
+// SweepX is the varied input at point i as text, in its unit.
+func (d *Doc) SweepX(sw *Sweep, i int) string {
+	if sw.Texts != nil {
+		return sw.Texts[i]
+	}
+	t, err := sw.X[i].Text(sw.XUnit, d.Front.Digits, d.Front.Ctx)
+	if err != nil {
+		return err.Error()
+	}
+	return t
+}
+
+// Len is the number of points of a sweep.
+func (sw *Sweep) Len() int {
+	if sw.Texts != nil {
+		return len(sw.Texts)
+	}
+	return len(sw.X)
 }

@@ -202,8 +202,8 @@ func writeSweep(w io.Writer, d *calcdoc.Doc, sw *calcdoc.Sweep) {
 		head = append(head, c.Name)
 	}
 	fmt.Fprintln(tw, strings.Join(head, "\t")+"\tchecks\t")
-	for i, x := range sw.X {
-		cells := []string{sweepText(d, x, sw.XUnit)}
+	for i := 0; i < sw.Len(); i++ {
+		cells := []string{d.SweepX(sw, i)}
 		for j, c := range sw.Show {
 			cells = append(cells, sweepText(d, sw.Rows[i][j], d.ColumnUnit(c, sw.Rows[i][j])))
 		}
