@@ -248,6 +248,9 @@ func (d *Doc) equation(it *Item) []string {
 	if res := d.resultMathML(o); res != "" {
 		rest = append(rest, res)
 	}
+	if n := len(rest); n > 1 && rest[n-1] == rest[n-2] {
+		rest = rest[:n-1]
+	}
 	if len(rest) == 0 {
 		return []string{head}
 	}
@@ -271,7 +274,8 @@ func (d *Doc) formula(s *eval.Stmt, substitute bool) string {
 			return v, err == nil
 		}
 	}
-	m.node(s.Syntax())
+	m.root = s.Syntax()
+	m.node(m.root)
 	return m.b.String()
 }
 

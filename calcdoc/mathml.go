@@ -18,6 +18,7 @@ type mathml struct {
 	ctx    units.Context
 	b      strings.Builder
 	kelvin bool // inside a product, quotient or power: temperatures in K
+	root   eval.Node
 }
 
 // prec is the operator precedence for parentheses: higher binds tighter.
@@ -102,6 +103,10 @@ func (m *mathml) name(name string) {
 	}
 	if m.values != nil {
 		if o, ok := m.values(name); ok {
+			if o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsLiteralInput() {
+				m.literal(o.Stmt.LoneLiteral()) // an input as it was written
+				return
+			}
 			m.value(o.Value, o.Display)
 			return
 		}
@@ -224,6 +229,15 @@ func (m *mathml) base(n eval.Node, p int) {
 // field writes st_1.h as h(st₁): the field of the state; when substituting,
 // its value.
 func (m *mathml) field(v *eval.Field) {
+	_, ofCall := v.X.(*eval.Call)
+	if ofCall && eval.Node(v) == m.root && m.values != nil {
+		// The whole line is a field of a property call: show the call with
+		// its arguments' values; the result follows.
+		m.w("<mrow>" + NameMathML(v.Name) + "<mo>(</mo>")
+		m.node(v.X)
+		m.w("<mo>)</mo></mrow>")
+		return
+	}
 	if m.values != nil && m.evalAt != nil {
 		if val, ok := m.evalAt(v); ok {
 			m.value(val, units.Unit{})

@@ -74,7 +74,7 @@ func TestMathMLShapes(t *testing.T) {
 func TestSubstitution(t *testing.T) {
 	got := mathOf(t, "a = 2 m\nb [mm] = a * 3")
 	want := "<msub><mi>b</mi>" // name
-	for _, part := range []string{want, "<mi>a</mi><mo>·</mo><mn>3</mn>", "<mn>2.000</mn><mtext>\u2009m</mtext>", "<mn>6000</mn><mtext>\u2009mm</mtext>"} {
+	for _, part := range []string{want, "<mi>a</mi><mo>·</mo><mn>3</mn>", "<mn>2</mn><mtext>\u2009m</mtext>", "<mn>6000</mn><mtext>\u2009mm</mtext>"} {
 		if !strings.Contains(got, part) && part != want {
 			t.Errorf("missing %s in %s", part, got)
 		}
