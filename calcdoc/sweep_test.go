@@ -2,6 +2,7 @@ package calcdoc
 
 import (
 	"fmt"
+	"os"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -127,3 +128,24 @@ const reheatCalc = "```calc\n" +
 	"s_gc = water_sat(p_c).sg\nh_1b = water(p_1, T_satb).h\nh_rb = water(p_r, T_satb).h\nh_bb = water(p_b, T_satb + 10 K).h\n" +
 	"check x_5 > 0.85\ncheck eta > 0.3\n" +
 	"```\n"
+
+// BenchmarkGeothermalSweep1000 runs the geothermal example with its sweep
+// widened to 1 000 points.
+func BenchmarkGeothermalSweep1000(b *testing.B) {
+	src, err := os.ReadFile(filepath.Join("..", "examples", "geothermal-binary-isopentane.calc.md"))
+	if err != nil {
+		b.Fatal(err)
+	}
+	wide := strings.Replace(string(src), "vary p_1 from 0.5 MPa to 1.0 MPa in 10 steps", "vary p_1 from 0.5 MPa to 1.0 MPa in 999 steps", 1)
+	if wide == string(src) {
+		b.Fatal("the example's sweep line changed; update the benchmark")
+	}
+	dir := b.TempDir()
+	for b.Loop() {
+		d := Read(filepath.Join(dir, "g.calc.md"), []byte(wide))
+		d.Evaluate()
+		if len(d.Errors) > 0 {
+			b.Fatal(d.Errors[0].Msg)
+		}
+	}
+}
