@@ -33,6 +33,7 @@ func init() {
 		{"sign", "PACKAGE --role ROLE [--key KEY]", "verify, reproduce and sign a package for one role", cmdSign},
 		{"verify", "PACKAGE [--signers FILE]", "check a package's signatures and reproduce it from git", cmdVerify},
 		{"diff", "FILE [--from REV] [--to REV]", "show what changed in a calc between two revisions", cmdDiff},
+		{"register", "DIR [-o DIR] [--shard i/n]", "render every changed calc under DIR and write the register's index.html", cmdRegister},
 		{"units", "", "list every unit with its SI factor", cmdUnits},
 		{"functions", "", "list the functions a calc can call", cmdFunctions},
 		{"help", "", "show this help", cmdHelp},

@@ -1,0 +1,120 @@
+package register
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"encoding/json"
+	"os"
+	"path/filepath"
+
+	"vouch/calcdoc"
+	"vouch/calcdoc/provenance"
+)
+
+// cacheFormat names the layout of a cache entry; a new layout renders
+// everything again.
+const cacheFormat = "vouch-register/1"
+
+// Entry is one calc of the register, as the cache keeps it.
+type Entry struct {
+	Path     string      `json:"path"` // slash path relative to the registered folder
+	Key      string      `json:"key"`  // hash of the engine, the source and the data files
+	Number   string      `json:"number,omitempty"`
+	Title    string      `json:"title,omitempty"`
+	Revision string      `json:"revision,omitempty"`
+	Project  string      `json:"project,omitempty"`
+	Package  string      `json:"package,omitempty"` // the rendered package, relative to the output folder
+	Passed   int         `json:"passed"`
+	Failed   int         `json:"failed"`
+	Errors   []CalcError `json:"errors,omitempty"` // the calc is broken when it has any
+	Data     []DataRef   `json:"data,omitempty"`   // data files read, relative to the calc's folder
+	Signed   *Signed     `json:"signed,omitempty"` // the signed package beside the calc, if any
+}
+
+// DataRef is a data file a calc read and its git blob hash.
+type DataRef struct {
+	Path string `json:"path"`
+	Hash string `json:"hash"`
+}
+
+// Broken reports a calc with errors: it has no package.
+func (e *Entry) Broken() bool { return len(e.Errors) > 0 }
+
+// entryFile is the cache file of a calc.
+func entryFile(out, calc string) string {
+	sum := sha256.Sum256([]byte(calc))
+	return filepath.Join(cacheDir(out), hex.EncodeToString(sum[:10])+".json")
+}
+
+// loadEntry reads a calc's cache entry; nil when there is none or it
+// cannot be read.
+func loadEntry(out, calc string) *Entry {
+	e := readEntryFile(entryFile(out, calc))
+	if e == nil || e.Path != calc {
+		return nil
+	}
+	return e
+}
+
+// readEntryFile reads a cache file; nil when it cannot.
+func readEntryFile(file string) *Entry {
+	b, err := os.ReadFile(file)
+	if err != nil {
+		return nil
+	}
+	var e Entry
+	if json.Unmarshal(b, &e) != nil {
+		return nil
+	}
+	return &e
+}
+
+// save writes the entry to the cache atomically.
+func (e *Entry) save(out string) error {
+	b, err := json.MarshalIndent(e, "", "  ")
+	if err != nil {
+		return err
+	}
+	return writeAtomic(entryFile(out, e.Path), append(b, '\n'))
+}
+
+// cacheKey hashes what a package depends on besides git: the engine, the
+// calc's path and source, and each data file it read.
+func cacheKey(engine, calc string, src []byte, data []DataRef) string {
+	h := sha256.New()
+	for _, s := range []string{cacheFormat, engine, calc, provenance.BlobHash(src)} {
+		h.Write([]byte(s + "\n"))
+	}
+	for _, d := range data {
+		h.Write([]byte(d.Path + " " + d.Hash + "\n"))
+	}
+	return hex.EncodeToString(h.Sum(nil))
+}
+
+// currentData hashes the data files an entry lists as they are now; a
+// file that is gone gets no hash, which changes the key.
+func currentData(calcDir string, refs []DataRef) []DataRef {
+	out := make([]DataRef, len(refs))
+	for i, r := range refs {
+		out[i] = DataRef{Path: r.Path}
+		if b, err := os.ReadFile(filepath.Join(calcDir, filepath.FromSlash(r.Path))); err == nil {
+			out[i].Hash = provenance.BlobHash(b)
+		}
+	}
+	return out
+}
+
+// dataRefs lists the data files an evaluated calc read, relative to its
+// folder.
+func dataRefs(d *calcdoc.Doc) []DataRef {
+	var out []DataRef
+	dir, _ := filepath.Abs(filepath.Dir(d.Path))
+	for _, f := range d.DataFiles {
+		rel, err := filepath.Rel(dir, d.DataPath(f))
+		if err != nil {
+			rel = f.Path
+		}
+		out = append(out, DataRef{Path: filepath.ToSlash(rel), Hash: f.Hash})
+	}
+	return out
+}

@@ -1,0 +1,174 @@
+package register
+
+import (
+	"fmt"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"vouch/calcdoc"
+)
+
+// engine is the engine version the tests register with.
+const engine = "0.1.0-test"
+
+// needTool skips the test when an executable is missing, unless CI is set,
+// where a missing tool is a failure.
+func needTool(t testing.TB, name string) {
+	t.Helper()
+	if _, err := exec.LookPath(name); err != nil {
+		if os.Getenv("CI") != "" {
+			t.Fatalf("%s is required when CI is set: %v", name, err)
+		}
+		t.Skipf("%s not found: %v", name, err)
+	}
+}
+
+// tree is a scratch repository of generated calcs, with a fictional
+// identity and dates one day apart per commit.
+type tree struct {
+	t    testing.TB
+	dir  string
+	tick int
+}
+
+func newTree(t testing.TB) *tree {
+	t.Helper()
+	needTool(t, "git")
+	dir, err := filepath.EvalSymlinks(t.TempDir())
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := &tree{t: t, dir: dir}
+	r.git("init", "-q", "-b", "main")
+	r.write(".gitignore", "*.html\n*.manifest.json\n")
+	return r
+}
+
+func (r *tree) git(args ...string) string {
+	r.t.Helper()
+	cmd := exec.Command("git", args...)
+	date := fmt.Sprintf("@%d +0000", 1900000000+86400*r.tick)
+	cmd.Dir = r.dir
+	cmd.Env = append(os.Environ(), "GIT_CONFIG_GLOBAL=/dev/null", "GIT_CONFIG_NOSYSTEM=1",
+		"GIT_AUTHOR_NAME=P. Writer (fictional)", "GIT_AUTHOR_EMAIL=preparer@example.com",
+		"GIT_COMMITTER_NAME=P. Writer (fictional)", "GIT_COMMITTER_EMAIL=preparer@example.com",
+		"GIT_AUTHOR_DATE="+date, "GIT_COMMITTER_DATE="+date)
+	out, err := cmd.CombinedOutput()
+	if err != nil {
+		r.t.Fatalf("git %s: %v\n%s", strings.Join(args, " "), err, out)
+	}
+	return strings.TrimSpace(string(out))
+}
+
+func (r *tree) path(rel string) string { return filepath.Join(r.dir, filepath.FromSlash(rel)) }
+
+func (r *tree) write(rel, content string) {
+	r.t.Helper()
+	p := r.path(rel)
+	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
+		r.t.Fatal(err)
+	}
+	if err := os.WriteFile(p, []byte(content), 0o644); err != nil {
+		r.t.Fatal(err)
+	}
+}
+
+func (r *tree) commit(msg string) {
+	r.t.Helper()
+	r.git("add", "-A")
+	r.tick++
+	r.git("commit", "-q", "-m", msg)
+}
+
+// genCalc is a generated feed-pump calc of a fictional plant; kind adds a
+// failing check, a data file or an error.
+func genCalc(i int, kind string) string {
+	extra := ""
+	switch kind {
+	case "failing":
+		extra = "check P_pump < 1 kW                 // deliberately failing check\n"
+	case "data":
+		extra = "curve = csv(\"../data/pump-curve.csv\")  // pump curve (fictional)\neta_c = interp(curve, \"m_dot\", m_dot, \"eta\")\n"
+	case "broken":
+		extra = "P_bad = P_pump + 3 kg               // deliberate unit error\n"
+	}
+	return fmt.Sprintf(`---
+title: Feed pump %d power (fictional test plant)
+number: FP-%03d
+project: Test plant (fictional)
+revision: A
+people:
+  preparer: P. Writer <preparer@example.com>
+  checker: C. Reader <checker@example.com>
+summary: [P_pump]
+---
+# Feed pump %d
+
+`+"```calc"+`
+p_in = 8 kPa                         // pump suction pressure
+p_out = %.1f MPa                     // pump discharge pressure
+m_dot = %d kg/s                      // feedwater flow
+st_in = water(p_in, 0)               // saturated liquid at suction
+w_p [kJ/kg] = st_in.v * (p_out - p_in) / 80 %%
+P_pump [MW] = m_dot * w_p            // pump power
+check P_pump < 5 MW                  // motor frame limit (fictional)
+%s`+"```"+`
+`, i, i, i, 10+0.1*float64(i), 150+i, extra)
+}
+
+// pumpCurve is the data file the "data" calcs read.
+const pumpCurve = "m_dot [kg/s],eta\n100,0.70\n200,0.80\n300,0.78\n"
+
+// renderBeside renders a calc from the work tree and writes its package and
+// manifest file beside it, as vouch render does.
+func renderBeside(t testing.TB, calc string) string {
+	t.Helper()
+	d, err := calcdoc.ReadFile(calc)
+	if err != nil || len(d.Errors) > 0 {
+		t.Fatalf("%v %v", err, d.Errors)
+	}
+	html, err := d.Render(calcdoc.RenderOptions{Engine: engine})
+	if err != nil {
+		t.Fatal(err)
+	}
+	pkg := strings.TrimSuffix(calc, ".calc.md") + ".html"
+	writePackage(t, pkg, html)
+	return pkg
+}
+
+func writePackage(t testing.TB, pkg string, html []byte) {
+	t.Helper()
+	m, err := calcdoc.ManifestOf(html)
+	if err != nil {
+		t.Fatal(err)
+	}
+	file, err := calcdoc.ManifestFile(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(calcdoc.ManifestPath(pkg), file, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(pkg, html, 0o644); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// signAsPreparer signs a package with a fresh key.
+func signAsPreparer(t testing.TB, pkg string) {
+	t.Helper()
+	needTool(t, "ssh-keygen")
+	key := filepath.Join(t.TempDir(), "id")
+	if out, err := exec.Command("ssh-keygen", "-q", "-t", "ed25519", "-N", "", "-C", "preparer@example.com", "-f", key).CombinedOutput(); err != nil {
+		t.Fatalf("ssh-keygen: %v\n%s", err, out)
+	}
+	signed, rep, err := calcdoc.Sign(pkg, calcdoc.SignOptions{VerifyOptions: calcdoc.VerifyOptions{Engine: engine}, Role: "preparer", Key: key})
+	if err != nil {
+		t.Fatalf("sign: %v\n%v", err, rep)
+	}
+	os.WriteFile(calcdoc.ManifestPath(pkg), signed.ManifestFile, 0o644)
+	os.WriteFile(pkg, signed.HTML, 0o644)
+}

@@ -1,0 +1,165 @@
+package register
+
+import (
+	"bytes"
+	"html/template"
+	"os"
+	"path/filepath"
+	"sort"
+	"strings"
+	"unicode"
+
+	"vouch/calcdoc"
+	"vouch/templates"
+)
+
+// maxErrors is the number of errors the index shows for a broken calc.
+const maxErrors = 3
+
+// indexView is what index.html shows. It holds nothing that varies between
+// machines or runs: no clock, no absolute path.
+type indexView struct {
+	Folder, Engine string
+	Rows           []rowView
+	Broken         int
+	Failing        int
+	Stale          int
+	Statuses       []statusCount
+	Caution        string
+}
+
+type statusCount struct {
+	Status string
+	Count  int
+}
+
+type rowView struct {
+	Number, Title, Revision, Project, Path, Package, Status string
+	Passed, Failed                                          int
+	Errors                                                  []string
+	MoreErrors                                              int
+	Signed, Stale, Problem                                  string
+}
+
+var indexTemplate = template.Must(templates.Register(nil))
+
+// writeIndex writes index.html for the whole register.
+func (r *run) writeIndex() (string, error) {
+	var out bytes.Buffer
+	if err := indexTemplate.Execute(&out, r.view()); err != nil {
+		return "", err
+	}
+	dest := filepath.Join(r.opt.Out, "index.html")
+	return dest, writeAtomic(dest, out.Bytes())
+}
+
+// view builds the index from the entries, in register order.
+func (r *run) view() *indexView {
+	abs, _ := filepath.Abs(r.opt.Dir)
+	v := &indexView{Folder: filepath.Base(abs), Engine: r.opt.Engine, Caution: calcdoc.Caution}
+	entries := append([]*Entry(nil), r.entries...)
+	sortEntries(entries)
+	counts := map[string]int{}
+	for _, e := range entries {
+		row := rowOf(e)
+		v.Rows = append(v.Rows, row)
+		counts[row.Status]++
+		if e.Broken() {
+			v.Broken++
+		}
+		if e.Failed > 0 {
+			v.Failing++
+		}
+		if row.Stale != "" {
+			v.Stale++
+		}
+	}
+	for _, s := range []string{"APPROVED", "CHECKED", "PREPARED", "DRAFT"} {
+		v.Statuses = append(v.Statuses, statusCount{s, counts[s]})
+	}
+	return v
+}
+
+// rowOf is one calc's row of the index.
+func rowOf(e *Entry) rowView {
+	row := rowView{Number: e.Number, Title: e.Title, Revision: e.Revision, Project: e.Project, Path: e.Path,
+		Package: e.Package, Status: "DRAFT", Passed: e.Passed, Failed: e.Failed, Signed: "none"}
+	errs := e.ErrorText(e.Path)
+	if len(errs) > maxErrors {
+		row.MoreErrors = len(errs) - maxErrors
+		errs = errs[:maxErrors]
+	}
+	row.Errors = errs
+	if s := e.Signed; s != nil {
+		row.Status, row.Signed, row.Stale, row.Problem = s.Status, s.Package, s.Stale, s.Problem
+	}
+	return row
+}
+
+// sortEntries orders the register by calc number, in natural order
+// (HB-2 before HB-10), then by path; calcs without a number come last.
+func sortEntries(entries []*Entry) {
+	sort.SliceStable(entries, func(i, j int) bool {
+		a, b := entries[i], entries[j]
+		if (a.Number == "") != (b.Number == "") {
+			return a.Number != ""
+		}
+		if a.Number != b.Number {
+			return naturalLess(a.Number, b.Number)
+		}
+		return a.Path < b.Path
+	})
+}
+
+// naturalLess compares texts with runs of digits compared as numbers.
+func naturalLess(a, b string) bool {
+	for a != "" && b != "" {
+		da, ra := leadingDigits(a)
+		db, rb := leadingDigits(b)
+		switch {
+		case da != "" && db != "":
+			if x, y := strings.TrimLeft(da, "0"), strings.TrimLeft(db, "0"); x != y {
+				if len(x) != len(y) {
+					return len(x) < len(y)
+				}
+				return x < y
+			}
+			a, b = ra, rb
+		case a[0] != b[0]:
+			return a[0] < b[0]
+		default:
+			a, b = a[1:], b[1:]
+		}
+	}
+	return len(a) < len(b)
+}
+
+func leadingDigits(s string) (digits, rest string) {
+	i := strings.IndexFunc(s, func(r rune) bool { return !unicode.IsDigit(r) })
+	if i < 0 {
+		i = len(s)
+	}
+	return s[:i], s[i:]
+}
+
+// prune removes the cache entries, packages and manifest files of calcs
+// that are no longer under the folder. Only files the register wrote are
+// removed.
+func (r *run) prune() {
+	keep := map[string]bool{}
+	for _, c := range r.calcs {
+		keep[entryFile(r.opt.Out, c)] = true
+	}
+	files, _ := filepath.Glob(filepath.Join(cacheDir(r.opt.Out), "*.json"))
+	for _, f := range files {
+		if keep[f] {
+			continue
+		}
+		if e := readEntryFile(f); e != nil && e.Package != "" {
+			pkg := filepath.Join(r.opt.Out, filepath.FromSlash(e.Package))
+			os.Remove(calcdoc.ManifestPath(pkg))
+			os.Remove(pkg)
+		}
+		os.Remove(f)
+	}
+}

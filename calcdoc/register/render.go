@@ -1,0 +1,173 @@
+package register
+
+import (
+	"fmt"
+	"os"
+	"path/filepath"
+	"sync"
+
+	"vouch/calcdoc"
+	"vouch/calcdoc/provenance"
+)
+
+// CalcError is an error in a calc file, at its line and column.
+type CalcError struct {
+	Line int    `json:"line"`
+	Col  int    `json:"col"`
+	Msg  string `json:"msg"`
+}
+
+// lazyWorkspace opens the repository once, when the first calc needs
+// rendering: a run that renders nothing never runs git.
+type lazyWorkspace struct {
+	dir   string
+	once  sync.Once
+	space *calcdoc.Workspace
+	err   error
+}
+
+func (l *lazyWorkspace) get() (*calcdoc.Workspace, error) {
+	l.once.Do(func() { l.space, l.err = calcdoc.OpenWorkspace(l.dir) })
+	return l.space, l.err
+}
+
+// worker renders calcs one at a time, with its own handle on the
+// repository.
+type worker struct {
+	run   *run
+	space *calcdoc.Workspace
+}
+
+// do brings one calc's entry up to date: from the cache when the engine,
+// source and data files are unchanged, else by evaluating and rendering it.
+func (w *worker) do(calc string) outcome {
+	opt := w.run.opt
+	path := filepath.Join(opt.Dir, filepath.FromSlash(calc))
+	src, err := os.ReadFile(path)
+	if err != nil {
+		return outcome{entry: &Entry{Path: calc, Errors: []CalcError{{Msg: err.Error()}}}, rendered: true}
+	}
+	old := loadEntry(opt.Out, calc)
+	e, rendered := old, false
+	if !w.fresh(old, calc, path, src) {
+		if e, err = w.render(calc, path, src); err != nil {
+			return outcome{entry: e, rendered: true, err: err}
+		}
+		rendered = true
+	} else {
+		e = old.clone()
+	}
+	signedChanged := w.signedStatus(e, path, src, old)
+	if rendered || signedChanged {
+		err = e.save(opt.Out)
+	}
+	return outcome{entry: e, rendered: rendered, err: err}
+}
+
+// fresh reports whether a cache entry still holds: same key, and the
+// package it names still in the output folder.
+func (w *worker) fresh(old *Entry, calc, path string, src []byte) bool {
+	if old == nil {
+		return false
+	}
+	if old.Key != cacheKey(w.run.opt.Engine, calc, src, currentData(filepath.Dir(path), old.Data)) {
+		return false
+	}
+	if old.Broken() {
+		return true
+	}
+	_, err := os.Stat(filepath.Join(w.run.opt.Out, filepath.FromSlash(old.Package)))
+	return err == nil
+}
+
+// render evaluates a calc and writes its package and manifest file into the
+// output folder. A calc with errors gets an entry that lists them and no
+// package; the error is for a package that cannot be written.
+func (w *worker) render(calc, path string, src []byte) (*Entry, error) {
+	d := calcdoc.Read(path, src)
+	d.Evaluate()
+	e := entryOf(calc, d)
+	defer func() { e.Key = cacheKey(w.run.opt.Engine, calc, src, e.Data) }()
+	if e.Broken() {
+		return e, nil
+	}
+	html, manifest, err := w.renderDoc(d)
+	if err != nil {
+		e.Errors = []CalcError{{Msg: err.Error()}}
+		return e, nil
+	}
+	e.Package = packagePath(calc)
+	dest := filepath.Join(w.run.opt.Out, filepath.FromSlash(e.Package))
+	if err := writeAtomic(calcdoc.ManifestPath(dest), manifest); err != nil {
+		return e, err
+	}
+	return e, writeAtomic(dest, html)
+}
+
+// entryOf describes an evaluated calc: front matter, checks, data files and
+// errors.
+func entryOf(calc string, d *calcdoc.Doc) *Entry {
+	f := d.Front
+	e := &Entry{Path: calc, Number: f.Number, Title: f.Title, Revision: f.Revision, Project: f.Project, Data: dataRefs(d)}
+	for _, c := range d.Checks() {
+		if c.Outcome.Pass {
+			e.Passed++
+		} else {
+			e.Failed++
+		}
+	}
+	for _, x := range d.Errors {
+		e.Errors = append(e.Errors, CalcError{Line: x.Pos.Line, Col: x.Pos.Col, Msg: x.Msg})
+	}
+	return e
+}
+
+// renderDoc renders the package with the provenance record from the
+// worker's workspace and returns it with its manifest file.
+func (w *worker) renderDoc(d *calcdoc.Doc) (html, manifest []byte, err error) {
+	if w.space == nil {
+		base, err := w.run.space.get()
+		if err != nil {
+			return nil, nil, err
+		}
+		if w.space, err = base.Fork(); err != nil {
+			return nil, nil, err
+		}
+	}
+	rec, err := d.RecordIn(w.space, w.run.opt.Engine)
+	if err != nil {
+		return nil, nil, err
+	}
+	if html, err = d.Render(calcdoc.RenderOptions{Engine: w.run.opt.Engine, Record: rec}); err != nil {
+		return nil, nil, err
+	}
+	manifest, err = calcdoc.ManifestFile(rec.Manifest)
+	return html, manifest, err
+}
+
+// clone copies an entry, so that a run never changes the cached one.
+func (e *Entry) clone() *Entry {
+	c := *e
+	if e.Signed != nil {
+		s := *e.Signed
+		c.Signed = &s
+	}
+	return &c
+}
+
+// ErrorText formats the entry's errors as file:line:col: message, naming
+// the file as given.
+func (e *Entry) ErrorText(file string) []string {
+	var out []string
+	for _, x := range e.Errors {
+		if x.Line == 0 {
+			out = append(out, fmt.Sprintf("%s: %s", file, x.Msg))
+			continue
+		}
+		out = append(out, fmt.Sprintf("%s:%d:%d: %s", file, x.Line, x.Col, x.Msg))
+	}
+	return out
+}
+
+// blobHash is the git blob hash of a file's bytes.
+func blobHash(b []byte) string { return provenance.BlobHash(b) }

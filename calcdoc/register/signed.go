@@ -1,0 +1,133 @@
+package register
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"os"
+	"path/filepath"
+	"slices"
+
+	"vouch/calcdoc"
+)
+
+// Signed is the state of the signed package kept beside a calc
+// (NAME.html beside NAME.calc.md), as vouch verify finds it.
+type Signed struct {
+	Package string `json:"package"` // file name, beside the calc
+	Key     string `json:"key"`     // hash of the package, its manifest file, the signers file and the engine
+	// Status is the stamp its valid signatures reach: DRAFT, PREPARED,
+	// CHECKED or APPROVED.
+	Status string `json:"status"`
+	// Problem is the first thing verify found wrong with the package,
+	// "" when it verifies.
+	Problem    string   `json:"problem,omitempty"`
+	Commit     string   `json:"commit,omitempty"`      // the commit it was rendered from
+	SourceHash string   `json:"source_hash,omitempty"` // the source it records
+	DataHashes []string `json:"data_hashes,omitempty"` // the data files it records
+	// Stale says why the package no longer matches the calc's source or
+	// data files; "" when it matches.
+	Stale string `json:"stale,omitempty"`
+}
+
+// signedStatus finds the signed package beside a calc, verifies it unless
+// the cache already did for the same bytes, and compares it with the
+// current source. It reports whether the entry's state changed.
+func (w *worker) signedStatus(e *Entry, path string, src []byte, old *Entry) bool {
+	was := e.Signed
+	pkg := filepath.Join(filepath.Dir(path), calcdoc.PackageName(path))
+	html, err := os.ReadFile(pkg)
+	if err != nil {
+		e.Signed = nil
+		return was != nil
+	}
+	key := w.signedKey(html, pkg)
+	switch {
+	case old != nil && old.Signed != nil && old.Signed.Key == key:
+		s := *old.Signed
+		e.Signed = &s
+	default:
+		e.Signed = w.verify(pkg, key)
+	}
+	e.Signed.Stale = staleness(e.Signed, src, e.Data)
+	return was == nil || !sameSigned(was, e.Signed)
+}
+
+// sameSigned compares two states field by field.
+func sameSigned(a, b *Signed) bool {
+	if a.Key != b.Key || a.Status != b.Status || a.Problem != b.Problem || a.Stale != b.Stale || a.SourceHash != b.SourceHash {
+		return false
+	}
+	return slices.Equal(a.DataHashes, b.DataHashes)
+}
+
+// signedKey hashes what the verification of a package depends on outside
+// git: the package, the manifest file beside it, the allowed-signers file
+// and the engine.
+func (w *worker) signedKey(html []byte, pkg string) string {
+	h := sha256.New()
+	manifest, _ := os.ReadFile(calcdoc.ManifestPath(pkg))
+	var signers []byte
+	if w.run.opt.Signers != "" {
+		signers, _ = os.ReadFile(w.run.opt.Signers)
+	}
+	for _, part := range [][]byte{[]byte(cacheFormat), []byte(w.run.opt.Engine), html, manifest, signers} {
+		sum := sha256.Sum256(part)
+		h.Write(sum[:])
+	}
+	return hex.EncodeToString(h.Sum(nil))
+}
+
+// verify runs vouch verify on the package.
+func (w *worker) verify(pkg, key string) *Signed {
+	s := &Signed{Package: filepath.Base(pkg), Key: key, Status: "DRAFT"}
+	rep, err := calcdoc.Verify(pkg, calcdoc.VerifyOptions{Engine: w.run.opt.Engine, Signers: w.run.opt.Signers})
+	if err != nil {
+		s.Problem = err.Error()
+		return s
+	}
+	if rep.Status != "" {
+		s.Status = rep.Status
+	}
+	if fails := rep.Failures(); len(fails) > 0 {
+		s.Problem = fails[0].Topic + ": " + fails[0].Text
+	}
+	if m := rep.Manifest; m != nil {
+		s.Commit, s.SourceHash = m.Commit, m.SourceHash
+		for _, d := range m.Data {
+			s.DataHashes = append(s.DataHashes, d.Hash)
+		}
+	}
+	return s
+}
+
+// staleness says why a signed package no longer matches the calc: its
+// source or a data file changed since it was rendered.
+func staleness(s *Signed, src []byte, data []DataRef) string {
+	if s.SourceHash == "" {
+		return ""
+	}
+	if s.SourceHash != blobHash(src) {
+		return "the source has changed since commit " + short(s.Commit)
+	}
+	now := map[string]int{}
+	for _, d := range data {
+		now[d.Hash]++
+	}
+	for _, h := range s.DataHashes {
+		if now[h] == 0 {
+			return "a data file has changed since commit " + short(s.Commit)
+		}
+		now[h]--
+	}
+	if len(s.DataHashes) != len(data) {
+		return "the calc reads other data files than at commit " + short(s.Commit)
+	}
+	return ""
+}
+
+func short(h string) string {
+	if len(h) > 12 {
+		return h[:12]
+	}
+	return h
+}
