@@ -119,3 +119,50 @@ func TestWetPY(t *testing.T) {
 		}
 	}
 }
+
+// TestSolveStateConsistent checks the states of StatePH and StatePS in regions 1 and 2, most of
+// which come from solveState's two evaluations and its final correction, against StatePT at
+// their own temperature: T reproduces the input to 1e-13 and the other properties agree to
+// 1e-13 (cp, cv and w, which keep their values at the Halley point, to 1e-12; h and u near zero
+// to 1e-8 J/kg, s to 1e-10 J/(kg·K), as one rounding of T moves them that far). The two points
+// named first once ended on a bisection midpoint of solveT.
+func TestSolveStateConsistent(t *testing.T) {
+	pts := [][2]float64{{86639.56000543357, 366.5908527456879}, {21751612.450519316, 279.68628606508827}}
+	for _, p := range []float64{700, 5e3, 0.1e6, 1e6, 3e6, 10e6, 16e6, 20e6, 40e6, 99e6} {
+		for T := 274.0; T < T25; T *= 1.007 {
+			pts = append(pts, [2]float64{p, T})
+		}
+	}
+	rel := func(a, b, floor float64) float64 { return math.Abs(a-b) / math.Max(math.Abs(b), floor) }
+	for _, pt := range pts {
+		want, err := StatePT(pt[0], pt[1])
+		if err != nil || want.Region == 3 || nearBoundary(pt[0], pt[1]) {
+			continue
+		}
+		for _, k := range []yKind{byH, byS} {
+			y := want.H
+			if k == byS {
+				y = want.S
+			}
+			got, err := statePY(pt[0], y, k)
+			if err != nil || got.Region != want.Region {
+				t.Errorf("%s(%g, %v): region %d, %v; want region %d", k.input(), pt[0], y, got.Region, err, want.Region)
+				continue
+			}
+			at, _ := StatePT(got.P, got.T)
+			if d := rel(got.T, pt[1], 1); d > 1e-13 {
+				t.Errorf("%s(%g, %v): T = %.17g, want %.17g", k.input(), pt[0], y, got.T, pt[1])
+			}
+			for _, c := range []struct {
+				name      string
+				a, b, fl  float64
+				tolerance float64
+			}{{"h", got.H, at.H, 1e5, 1e-13}, {"s", got.S, at.S, 1e3, 1e-13}, {"v", got.V, at.V, 0, 1e-13},
+				{"u", got.U, at.U, 1e5, 1e-13}, {"cp", got.Cp, at.Cp, 0, 1e-12}, {"cv", got.Cv, at.Cv, 0, 1e-12}, {"w", got.W, at.W, 0, 1e-12}} {
+				if d := rel(c.a, c.b, c.fl); d > c.tolerance {
+					t.Errorf("%s(%g, %v): %s = %.17g, StatePT at its T gives %.17g (%.2g)", k.input(), pt[0], y, c.name, c.a, c.b, d)
+				}
+			}
+		}
+	}
+}

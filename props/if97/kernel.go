@@ -36,6 +36,7 @@ type termSums struct {
 type gibbs struct {
 	pi, tau                  float64
 	g, gp, gt, gpp, gtt, gpt float64
+	gttt                     float64 // γτττ, with wantYYY only
 }
 
 // props turns γ and its derivatives into the properties of R7-97 Tables 3, 12 and 39 (the same

@@ -27,7 +27,7 @@ func r1Gibbs(p, T float64, want uint8) gibbs {
 	r1Sums(x, y, want, &s)
 	ix, iy := 1/x, 1/y
 	return gibbs{pi: pi, tau: tau, g: s.f, gp: -s.x * ix, gt: s.y * iy,
-		gpp: s.xx * ix * ix, gtt: s.yy * iy * iy, gpt: -s.xy * ix * iy}
+		gpp: s.xx * ix * ix, gtt: s.yy * iy * iy, gpt: -s.xy * ix * iy, gttt: s.yyy * iy * iy * iy}
 }
 
 // idealGibbs adds the ideal-gas part γ° = ln π + Σ n°_i τ^J°_i (R7-97 Eqs. 16, 33; Tables 13,
@@ -44,6 +44,9 @@ func idealGibbs(pi, tau, y float64, o, r *termSums, want uint8) gibbs {
 	d.gt = o.y*it + r.y*iy
 	d.gtt = o.yy*it*it + r.yy*iy*iy
 	d.gpt = r.xy * ip * iy
+	if want&wantYYY != 0 {
+		d.gttt = o.yyy*it*it*it + r.yyy*iy*iy*iy
+	}
 	return d
 }
 

@@ -22,76 +22,6 @@ func (k yKind) input() string {
 	return "s"
 }
 
-// ySlope returns h and cp = dh/dT, or s and cp/T = ds/dT, at (p, T) in region 1, 2 or 5.
-func ySlope(region int, p, T float64, k yKind) (y, dy float64) {
-	want := wantY | wantYY
-	if k == byS {
-		want |= wantF
-	}
-	d := gibbsAt(region, p, T, want)
-	cp := -R * d.tau * d.tau * d.gtt
-	if k == byH {
-		return R * T * d.tau * d.gt, cp
-	}
-	return R * (d.tau*d.gt - d.g), cp / T
-}
-
-// yAt returns h or s at (p, T) in region 1, 2 or 5.
-func yAt(region int, p, T float64, k yKind) float64 {
-	if k == byH {
-		return hG(region, p, T)
-	}
-	return sG(region, p, T)
-}
-
-// solveT finds T in [lo, hi] with y(p, T) = y in region 1, 2 or 5 (y rises with T), starting at
-// T. It returns out = -1 if y is below y(p, lo), +1 if above y(p, hi), else 0.
-func solveT(region int, p, y float64, k yKind, T, lo, hi float64) (float64, int) {
-	a, b := lo, hi
-	aOK, bOK := false, false
-	if !(T > lo) {
-		T = lo
-	} else if !(T < hi) {
-		T = hi
-	}
-	for it := 0; it < 100; it++ {
-		f, df := ySlope(region, p, T, k)
-		e := f - y
-		if e == 0 || (T <= lo || T >= hi) && math.Abs(e) <= 1e-12*math.Abs(y) {
-			return T, 0
-		}
-		if e < 0 {
-			if T >= hi {
-				return hi, +1
-			}
-			a, aOK = T, true
-		} else {
-			if T <= lo {
-				return lo, -1
-			}
-			b, bOK = T, true
-		}
-		next := T - e/df
-		if !(df > 0) || !(next > a && next < b) {
-			switch {
-			case e < 0 && !bOK:
-				next = b
-			case e > 0 && !aOK:
-				next = a
-			default:
-				next = (a + b) / 2
-			}
-		}
-		// Newton converges quadratically here: after a step below 1e-7 T the error left is
-		// far below 1e-13 T, so the next evaluation can be skipped.
-		if math.Abs(next-T) <= 1e-7*T && next > a && next < b && df > 0 {
-			return next, 0
-		}
-		T = next
-	}
-	return T, 0
-}
-
 // StatePH returns the state at pressure p (Pa) and specific enthalpy h (J/kg): single-phase
 // (regions 1, 2, 3, 5) or two-phase (region 4).
 func StatePH(p, h float64) (Props, error) { return statePY(p, h, byH) }
@@ -128,11 +58,14 @@ func liquidPY(p, y float64, k yKind, Tmax float64) (Props, error) {
 	} else {
 		T0 = T1PS(p, y)
 	}
-	T, out := solveT(1, p, y, k, T0, TMin, Tmax)
-	if out < 0 {
+	st, T, out := solveState(1, p, y, k, T0, TMin, Tmax)
+	switch {
+	case out < 0:
 		return Props{}, below(k.input(), y, yAt(1, p, TMin, k), "below the value at the lowest temperature of IAPWS-IF97")
+	case out > 0:
+		return gibbsState(1, p, T), nil
 	}
-	return gibbsState(1, p, T), nil
+	return st, nil
 }
 
 // vapourPY solves region 2 from Tmin (NaN: 273.15 K) to 1073.15 K, then region 5 up to
@@ -148,18 +81,18 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 	} else {
 		T0 = T2PS(p, y)
 	}
-	T, out := solveT(2, p, y, k, T0, lo, T25)
+	st, _, out := solveState(2, p, y, k, T0, lo, T25)
 	if out < 0 {
 		return Props{}, below(k.input(), y, yAt(2, p, lo, k), "below the lowest value at this pressure")
 	}
 	if out == 0 {
-		return gibbsState(2, p, T), nil
+		return st, nil
 	}
 	// Region 5.
 	if p > P5Max {
 		return Props{}, above(k.input(), y, yAt(2, p, T25, k), "above the highest pressure of region 5, IAPWS-IF97 ends at the highest temperature of region 2")
 	}
-	T, out = solveT(5, p, y, k, T25+(TMax-T25)*0.3, T25, TMax)
+	T, out := solveT(5, p, y, k, T25+(TMax-T25)*0.3, T25, TMax)
 	if out > 0 {
 		return Props{}, above(k.input(), y, yAt(5, p, TMax, k), "above the value at the highest temperature of IAPWS-IF97")
 	}
@@ -195,8 +128,8 @@ func nearSatPY(p, Ts, y float64, k yKind) (Props, error) {
 		T0 = T1PS(p, y)
 	}
 	if T0 < Ts-3 && T0 > TMin-10 {
-		if T, out := solveT(1, p, y, k, T0, TMin, Ts); out == 0 {
-			return gibbsState(1, p, T), nil
+		if st, _, out := solveState(1, p, y, k, T0, TMin, Ts); out == 0 {
+			return st, nil
 		} else if out < 0 {
 			return Props{}, below(k.input(), y, yAt(1, p, TMin, k), "below the value at the lowest temperature of IAPWS-IF97")
 		}
@@ -324,30 +257,26 @@ func superPY(p, y float64, k yKind) (Props, error) {
 }
 
 // region3PY solves region 3 at (p, y) by Newton steps in (ρ, T) on R7-97 Eq. (28), starting
-// from the backward equations of IAPWS SR3-03(2014).
+// from the backward equations of IAPWS SR3-03(2014). The steps need neither φ itself (for h)
+// nor the full state; they stop as rho3Newton does, when the steps shrink quadratically and the
+// next would be below 1e-15 (from the SR3-03 start, two steps), and the state is evaluated once
+// at the end.
 func region3PY(p, y float64, k yKind) Props {
 	var T, rho float64
+	want := wantX | wantY | wantXX | wantYY | wantXY
 	if k == byH {
 		T, rho = T3PH(p, y), 1/V3PH(p, y)
 	} else {
 		T, rho = T3PS(p, y), 1/V3PS(p, y)
+		want |= wantF
 	}
+	prev := 0.0
 	for it := 0; it < 60; it++ {
-		a := r3Helm(rho, T, wantAll)
-		f1 := a.p() - p
-		var f2, y1, y2 float64
-		if k == byH {
-			f2, y1, y2 = a.h()-y, a.dhdrho(), a.dhdT()
-		} else {
-			f2, y1, y2 = a.s()-y, a.dsdrho(), a.dsdT()
-		}
-		p1, p2 := a.dpdrho(), a.dpdT()
-		det := p1*y2 - p2*y1
-		if det == 0 {
+		a := r3Helm(rho, T, want)
+		dr, dT, ok := region3Step(&a, p, y, k)
+		if !ok {
 			break
 		}
-		dr := -(f1*y2 - p2*f2) / det
-		dT := -(p1*f2 - f1*y1) / det
 		// Damp steps that would leave the neighbourhood of the start.
 		sc := 1.0
 		if l := 0.05 * rho; math.Abs(dr) > l {
@@ -358,12 +287,33 @@ func region3PY(p, y float64, k yKind) Props {
 		}
 		rho += sc * dr
 		T += sc * dT
-		if math.Abs(dr) <= 1e-13*rho && math.Abs(dT) <= 1e-13*T {
+		r := sc * math.Max(math.Abs(dr)/rho, math.Abs(dT)/T)
+		if r <= 1e-13 || it > 0 && r <= 1e-8 && r*r*r <= 1e-15*prev*prev {
 			break
 		}
+		prev = r
 	}
 	a := r3Helm(rho, T, wantAll)
-	st := a.props()
+	var st Props
+	a.setProps(&st)
 	st.P = p
 	return st
+}
+
+// region3Step returns the Newton step (dρ, dT) for p(ρ, T) = p and h or s (ρ, T) = y from the
+// derivatives in a; ok is false for a singular system.
+func region3Step(a *helm, p, y float64, k yKind) (dr, dT float64, ok bool) {
+	f1 := a.p() - p
+	var f2, y1, y2 float64
+	if k == byH {
+		f2, y1, y2 = a.h()-y, a.dhdrho(), a.dhdT()
+	} else {
+		f2, y1, y2 = a.s()-y, a.dsdrho(), a.dsdT()
+	}
+	p1, p2 := a.dpdrho(), a.dpdT()
+	det := p1*y2 - p2*y1
+	if det == 0 {
+		return 0, 0, false
+	}
+	return -(f1*y2 - p2*f2) / det, -(p1*f2 - f1*y1) / det, true
 }
