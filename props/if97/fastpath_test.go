@@ -166,3 +166,25 @@ func TestSolveStateConsistent(t *testing.T) {
 		}
 	}
 }
+
+// TestRegion3PYConverged checks that the (ρ, T) that region3PY returns is a fixed point of a
+// full Newton step, with the allowance of TestRho3Converged.
+func TestRegion3PYConverged(t *testing.T) {
+	for _, pt := range region3Grid() {
+		p, T := pt[0], pt[1]
+		want := r3Helm(rho3(p, T), T, wantAll)
+		for _, k := range []yKind{byH, byS} {
+			y := want.h()
+			if k == byS {
+				y = want.s()
+			}
+			st := region3PY(p, y, k)
+			a := r3Helm(st.Rho, st.T, wantAll)
+			dr, dT, ok := region3Step(&a, p, y, k)
+			tol := 1e-12 * (1 + R*T/a.dpdrho())
+			if !ok || !(math.Abs(dr)/st.Rho <= tol && math.Abs(dT)/st.T <= tol) {
+				t.Errorf("region3PY(%g, %v, %s): a further Newton step moves ρ by %.3g, T by %.3g", p, y, k.input(), dr/st.Rho, dT/st.T)
+			}
+		}
+	}
+}

@@ -121,7 +121,6 @@ func solveT(region int, p, y float64, k yKind, T, lo, hi float64) (float64, int)
 	return T, 0
 }
 
-
 // solveState returns the state of region 1, 2 or 5 at p whose h or s is y, with T in [lo, hi]
 // and T0 the start from a backward equation, and T and out as solveT gives them (st is set
 // only for out = 0).

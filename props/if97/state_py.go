@@ -259,8 +259,8 @@ func superPY(p, y float64, k yKind) (Props, error) {
 // region3PY solves region 3 at (p, y) by Newton steps in (ρ, T) on R7-97 Eq. (28), starting
 // from the backward equations of IAPWS SR3-03(2014). The steps need neither φ itself (for h)
 // nor the full state; they stop as rho3Newton does, when the steps shrink quadratically and the
-// next would be below 1e-15 (from the SR3-03 start, two steps), and the state is evaluated once
-// at the end.
+// next would be below 1e-14 (from the SR3-03 start, two steps; p(ρ, T) fixes ρ only to about
+// 1e-13 in region 3 anyway), and the state is evaluated once at the end.
 func region3PY(p, y float64, k yKind) Props {
 	var T, rho float64
 	want := wantX | wantY | wantXX | wantYY | wantXY
@@ -288,7 +288,7 @@ func region3PY(p, y float64, k yKind) Props {
 		rho += sc * dr
 		T += sc * dT
 		r := sc * math.Max(math.Abs(dr)/rho, math.Abs(dT)/T)
-		if r <= 1e-13 || it > 0 && r <= 1e-8 && r*r*r <= 1e-15*prev*prev {
+		if r <= 1e-13 || it > 0 && r <= 1e-7 && r*r*r <= 1e-14*prev*prev {
 			break
 		}
 		prev = r
