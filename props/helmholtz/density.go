@@ -27,21 +27,52 @@ func (f *Fluid) pressure(tp *tauPart, T, rho float64) (p, dpdrho float64) {
 
 // vapourDensity solves for the vapour density at (T, p) with p below the
 // saturation pressure, given an upper bound rhoHi on the vapour branch
-// with p(rhoHi) > p.
+// with p(rhoHi) > p. A bound that fails that test by round-off only (a
+// saturated vapour density at a T within round-off of Tsat) is widened.
 func (f *Fluid) vapourDensity(tp *tauPart, T, p, rhoHi float64) (float64, bool) {
-	return f.densityIn(tp, T, p, 0, rhoHi, 0)
+	for _, e := range boundSteps {
+		hi := rhoHi * (1 + e)
+		ph, dh := f.pressure(tp, T, hi)
+		if !(dh > 0) {
+			break
+		}
+		if ph >= p {
+			return f.densityIn(tp, T, p, 0, hi, 0)
+		}
+	}
+	return 0, false
 }
 
 // liquidDensity solves for the liquid density at (T, p) with p above the
 // saturation pressure, given a lower bound rhoLo on the liquid branch with
-// p(rhoLo) < p. A tangent step from rhoLo gives the upper bound, since p is
-// convex there; if it is not, the bound is widened.
+// p(rhoLo) < p. A bound that fails that test by round-off only (the
+// liquid pressure is a small difference of large terms far below Tc) is
+// widened. A tangent step from the bound gives the upper bound, since p
+// is convex there; if it is not, the bound is widened.
 func (f *Fluid) liquidDensity(tp *tauPart, T, p, rhoLo float64) (float64, bool) {
-	pl, dl := f.pressure(tp, T, rhoLo)
-	if !(dl > 0) || pl >= p {
-		return 0, false
+	for _, e := range boundSteps {
+		lo := rhoLo * (1 - e)
+		pl, dl := f.pressure(tp, T, lo)
+		if !(dl > 0) {
+			break
+		}
+		if pl < p {
+			return f.liquidAbove(tp, T, p, lo, pl, dl)
+		}
 	}
-	hi := rhoLo + (p-pl)/dl
+	return 0, false
+}
+
+// boundSteps are the relative widenings liquidDensity and vapourDensity
+// try on a saturated density that bounds their solve.
+var boundSteps = [...]float64{0, 1e-12, 1e-10, 1e-8, 1e-6}
+
+// liquidAbove solves on the liquid branch above lo, where p(lo) = pl < p
+// and dp/drho = dl > 0. The tangent step is at least 1e-13 of lo: a
+// smaller one may not move the density at all.
+func (f *Fluid) liquidAbove(tp *tauPart, T, p, lo, pl, dl float64) (float64, bool) {
+	step := math.Max((p-pl)/dl, 1e-13*lo)
+	hi := lo + step
 	for i := 0; ; i++ {
 		ph, dh := f.pressure(tp, T, hi)
 		if ph > p && dh > 0 {
@@ -50,9 +81,9 @@ func (f *Fluid) liquidDensity(tp *tauPart, T, p, rhoLo float64) (float64, bool) 
 		if i == 60 {
 			return 0, false
 		}
-		hi += (p - pl) / dl
+		hi += step
 	}
-	return f.densityIn(tp, T, p, rhoLo, hi, hi)
+	return f.densityIn(tp, T, p, lo, hi, hi)
 }
 
 // superDensity solves for the density at T at or above Tc, where p rises

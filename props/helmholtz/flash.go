@@ -106,12 +106,12 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 	yf, yg := pick(f.props(&sp.liq), by), pick(f.props(&sp.vap), by)
 	switch {
 	case target < yf:
-		if pr, ok := f.tryNewtonPY(p, target, by, &sp.liq); ok {
+		if pr, ok := f.satNewtonPY(p, target, by, &sp, true); ok {
 			return pr, nil
 		}
-		return f.solveIsobar(op, p, target, by, isobar{lo: f.Tmin, hi: sp.T, yhi: yf - target, hiKnown: true})
+		return f.solveIsobar(op, p, target, by, isobar{lo: f.Tmin, hi: sp.T, yhi: yf - target, hiKnown: true, floor: sp.liq.rho})
 	case target > yg:
-		if pr, ok := f.tryNewtonPY(p, target, by, &sp.vap); ok {
+		if pr, ok := f.satNewtonPY(p, target, by, &sp, false); ok {
 			return pr, nil
 		}
 		return f.solveIsobar(op, p, target, by, isobar{lo: sp.T, hi: f.Tmax, ylo: yg - target, loKnown: true, cap: sp.vap.rho})
@@ -123,9 +123,18 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 
 // isobarNoDome solves an isobar that crosses no saturation state: at or
 // above Pc by Newton's method from the state at Tc where that converges,
-// and otherwise by the bracketed solver over the whole range of T.
+// and otherwise by the bracketed solver over the whole range of T. Below
+// the saturation pressure at Tmin the whole isobar is vapour, with a
+// density below that of the saturated vapour at Tmin.
 func (f *Fluid) isobarNoDome(op string, p, target float64, by int) (Props, error) {
-	if p >= f.Pc && f.Tc <= f.Tmax {
+	b := isobar{lo: f.Tmin, hi: f.Tmax}
+	if p < f.Pc {
+		if sp, err := f.satT(op, f.Tmin); err == nil {
+			b.cap = sp.vap.rho // p is below sp.p, or within round-off of it
+		}
+		return f.solveIsobar(op, p, target, by, b)
+	}
+	if f.Tc <= f.Tmax {
 		var tp tauPart
 		f.eos.newTauPart(f.eos.tRed/f.Tc, true, &tp)
 		if rho, ok := f.superDensity(&tp, f.Tc, p); ok {
@@ -135,17 +144,7 @@ func (f *Fluid) isobarNoDome(op string, p, target float64, by int) (Props, error
 			}
 		}
 	}
-	return f.solveIsobar(op, p, target, by, isobar{lo: f.Tmin, hi: f.Tmax})
-}
-
-// isobar is a temperature bracket on an isobar, with the values of
-// y - target at its ends where they are known (the saturated states), and
-// for the vapour side the saturated vapour density, above which no vapour
-// on this isobar lies.
-type isobar struct {
-	lo, hi, ylo, yhi float64
-	loKnown, hiKnown bool
-	cap              float64
+	return f.solveIsobar(op, p, target, by, b)
 }
 
 func byName(by int) string {
@@ -206,82 +205,3 @@ func (f *Fluid) sideFast(p, target float64, by int) (dome, bool) {
 // Pmin is the saturation pressure at Tmin, the lowest pressure at which
 // saturation states exist within the equation's range.
 func (f *Fluid) Pmin() float64 { return f.anc.Pmin }
-
-// solveIsobar solves y(T, p) = target for T in the bracket, with
-// dy/dT = cp (for h) or cp/T (for s).
-func (f *Fluid) solveIsobar(op string, p, target float64, by int, b isobar) (Props, error) {
-	var last Props
-	var err error
-	eval := func(T float64) (float64, float64) {
-		last, err = f.isobarPoint(op, p, T, b.cap)
-		if by == byH {
-			return last.H - target, last.Cp
-		}
-		return last.S - target, last.Cp / T
-	}
-	if !b.loKnown {
-		if b.ylo, _ = eval(b.lo); err != nil {
-			return Props{}, err
-		}
-	}
-	if b.ylo > 0 {
-		return Props{}, f.isobarRange(by, target, b.ylo, false)
-	}
-	if !b.hiKnown {
-		if b.yhi, _ = eval(b.hi); err != nil {
-			return Props{}, err
-		}
-	}
-	if b.yhi < 0 {
-		return Props{}, f.isobarRange(by, target, b.yhi, true)
-	}
-	guess := b.lo + (b.hi-b.lo)*(-b.ylo)/(b.yhi-b.ylo)
-	T, ok := rtsafe(eval, b.lo, b.hi, guess, 1e-14)
-	if ok && err == nil && last.T != T {
-		eval(T)
-	}
-	if !ok || err != nil {
-		return Props{}, &SolveError{Op: op, Reason: f.critWhy(T, p)}
-	}
-	return last, nil
-}
-
-// isobarRange reports a target beyond the enthalpy or entropy at the
-// temperature limits of the equation on this isobar.
-func (f *Fluid) isobarRange(by int, target, dy float64, above bool) error {
-	in, r := "h", reasonHmin
-	if by == byS {
-		in, r = "s", reasonSmin
-	}
-	if above {
-		r = reasonHmax
-		if by == byS {
-			r = reasonSmax
-		}
-	}
-	return &RangeError{Input: in, Value: target, Limit: target + dy, Above: above, Reason: r}
-}
-
-// isobarPoint is the single-phase state at (p, T). With cap > 0 the state
-// is known to be vapour with a density below cap.
-func (f *Fluid) isobarPoint(op string, p, T, cap float64) (Props, error) {
-	var tp tauPart
-	f.eos.newTauPart(f.eos.tRed/T, true, &tp)
-	rho, ok := 0.0, false
-	if cap > 0 {
-		if ph, dh := f.pressure(&tp, T, cap); ph >= p && dh > 0 {
-			rho, ok = f.vapourDensity(&tp, T, p, cap)
-		}
-	}
-	if !ok {
-		var err error
-		if rho, _, err = f.densityAt(op, &tp, T, p); err != nil {
-			return Props{}, err
-		}
-	}
-	q := f.at(&tp, T, rho)
-	pr := f.props(&q)
-	pr.P = p
-	f.setPhase(&pr, rho)
-	return pr, nil
-}
