@@ -116,7 +116,7 @@ func vG(region int, p, T float64) float64 {
 func h1(p, T float64) float64 {
 	y := r1TStar/T - 1.222
 	var s termSums
-	r1Sums(7.1-p/r1PStar, y, wantY, &s)
+	r1SumsY(7.1-p/r1PStar, y, &s)
 	return R * r1TStar * s.y / y
 }
 
@@ -126,6 +126,6 @@ func h2(p, T float64) float64 {
 	y := tau - 0.5
 	var o, r termSums
 	r2oSums(tau, wantY, &o)
-	r2rSums(p/r2PStar, y, wantY, &r)
+	r2rSumsY(p/r2PStar, y, &r)
 	return R * r2TStar * (o.y/tau + r.y/y)
 }

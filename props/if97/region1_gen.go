@@ -126,6 +126,79 @@ func r1Sums(x, y float64, want uint8, s *termSums) {
 	}
 }
 
+// r1SumsY is r1Sums with want = wantY, for h: the same expressions without the
+// want tests and without the powers and products that those sums do not use.
+func r1SumsY(x, y float64, s *termSums) {
+	x2 := x * x
+	x3 := x * x2
+	x4 := x2 * x2
+	x5 := x2 * x3
+	x8 := x4 * x4
+	x10 := x5 * x5
+	x11 := x3 * x8
+	x21 := x10 * x11
+	x23 := x2 * x21
+	x29 := x8 * x21
+	x30 := x * x29
+	x31 := x10 * x21
+	x32 := x11 * x21
+	y2 := y * y
+	y3 := y * y2
+	y4 := y2 * y2
+	y5 := y2 * y3
+	y6 := y3 * y3
+	y10 := y5 * y5
+	y8 := y4 * y4
+	y9 := y4 * y5
+	y17 := y8 * y9
+	yi := 1 / y
+	yi2 := yi * yi
+	yi3 := yi * yi2
+	yi4 := yi2 * yi2
+	yi5 := yi2 * yi3
+	yi6 := yi3 * yi3
+	yi7 := yi3 * yi4
+	yi8 := yi4 * yi4
+	yi9 := yi4 * yi5
+	yi11 := yi5 * yi6
+	yi14 := yi7 * yi7
+	yi15 := yi7 * yi8
+	yi29 := yi14 * yi15
+	yi31 := yi2 * yi29
+	yi38 := yi9 * yi29
+	yi39 := yi8 * yi31
+	yi40 := yi11 * yi29
+	yi41 := yi3 * yi38
+	t9 := x * yi9
+	t10 := x * yi7
+	t11 := x * yi
+	t13 := x * y
+	t14 := x * y3
+	t15 := x2 * yi3
+	t17 := x2 * y
+	t18 := x2 * y3
+	t19 := x2 * y17
+	t20 := x3 * yi4
+	t22 := x3 * y6
+	t23 := x4 * yi5
+	t24 := x4 * yi2
+	t25 := x4 * y10
+	t26 := x5 * yi8
+	t27 := x8 * yi11
+	t28 := x8 * yi6
+	t29 := x21 * yi29
+	t30 := x23 * yi31
+	t31 := x29 * yi38
+	t32 := x30 * yi39
+	t33 := x31 * yi40
+	t34 := x32 * yi41
+	a0 := -0.29265942426334*yi2 + 0.47316115539684*y3 + 0.00424944110961118*t10 + 0.00141552963219801*t15 + 0.000126718579380216*t20 - 1.4341729937924e-12*t25 + 1.994101807570399e-17*t29 - 7.2912378325616e-23*t33
+	a1 := 0.84548187169114*yi - 0.066465668798004*y4 + 0.018990068218419*t11 + 4.7661393906987e-05*t17 - 5.11230768720618e-09*t22 + 3.24135974880936e-06*t26 - 4.48827542684151e-19*t30 + 3.835020578990778e-24*t34
+	a2 := 3.3855169168385*y + 0.0040607314991784*y5 - 0.021841717175414*t13 - 1.32425535992538e-05*t18 + 1.1212640954e-05*t23 + 1.40077319158051e-08*t27 - 1.00075970318621e-21*t31
+	a3 := -1.91583926775744*y2 - 0.00254871721114236*t9 - 0.00015851507390979*t14 - 1.235814937059098e-14*t19 + 1.30342445791202e-06*t24 + 1.04549227383804e-09*t28 + 4.65957282962769e-22*t32
+	s.y = (a0 + a1) + (a2 + a3)
+}
+
 // t1ph returns Σ n_i x^I_i y^J_i with x = π and y = η + 1 for
 // IAPWS R7-97(2012), Revised Release on the IAPWS Industrial Formulation 1997 for the Thermodynamic Properties of Water and Steam (IAPWS-IF97; Lucerne 2007 text, R7-97(2012) edition)
 // Table 6: Coefficients and exponents of the backward equation T(p,h) for region 1, Eq. (11)

@@ -29,6 +29,8 @@ import (
 	"math/big"
 	"os"
 	"path/filepath"
+	"regexp"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -59,6 +61,17 @@ type spec struct {
 	xScale int    // exponents I are multiplied by this (x is then x^(1/xScale))
 	over   string // CSV whose rows replace rows of csv with the same i (Table 10 footnote a)
 	group  string // if set, also write func group(y float64, c *[maxI+1]float64) (see genGroup)
+	// variants are specialised copies of a sums function (see genSums).
+	variants []variant
+}
+
+// variant is a copy of a sums function that computes a fixed set of sums, without the want
+// mask and with only the powers and term products those sums use. Each sum is the same
+// expression as in the full function, so it gives the same float64.
+type variant struct {
+	suffix string   // appended to the function name
+	fields []string // termSums fields it sets
+	use    string   // what it is for, for the doc comment
 }
 
 type file struct {
@@ -69,13 +82,15 @@ type file struct {
 
 var files = []file{
 	{"region1_gen.go", "region 1 (R7-97 Tables 2, 6, 8)", []spec{
-		{name: "r1Sums", csv: "r7-97_t02_region1_gibbs.csv", mode: "sums", xDoc: "7.1 - π", yDoc: "τ - 1.222"},
+		{name: "r1Sums", csv: "r7-97_t02_region1_gibbs.csv", mode: "sums", xDoc: "7.1 - π", yDoc: "τ - 1.222",
+			variants: []variant{{"Y", []string{"y"}, "h"}}},
 		{name: "t1ph", csv: "r7-97_t06_region1_T_ph.csv", mode: "value", xDoc: "π", yDoc: "η + 1"},
 		{name: "t1ps", csv: "r7-97_t08_region1_T_ps.csv", mode: "value", xDoc: "π", yDoc: "σ + 2"},
 	}},
 	{"region2_gen.go", "region 2 (R7-97 Tables 10, 11)", []spec{
 		{name: "r2oSums", csv: "r7-97_t10_region2_ideal.csv", mode: "sums1", yDoc: "τ"},
-		{name: "r2rSums", csv: "r7-97_t11_region2_residual.csv", mode: "sums", xDoc: "π", yDoc: "τ - 0.5"},
+		{name: "r2rSums", csv: "r7-97_t11_region2_residual.csv", mode: "sums", xDoc: "π", yDoc: "τ - 0.5",
+			variants: []variant{{"Y", []string{"y"}, "h"}}},
 	}},
 	{"region2meta_gen.go", "the metastable-vapour region, Eq. (18) (R7-97 Table 10 with footnote a, Table 16)", []spec{
 		{name: "r2moSums", csv: "r7-97_t10_region2_ideal.csv", over: "r7-97_t10a_region2_ideal_metastable_n1_n2.csv", mode: "sums1", yDoc: "τ"},
@@ -127,7 +142,10 @@ func main() {
 			case "value":
 				genValue(&b, s, t)
 			default:
-				genSums(&b, s, t)
+				genSums(&b, s, t, nil)
+				for _, v := range s.variants {
+					genSums(&b, s, t, &v)
+				}
 			}
 			if s.group != "" {
 				genGroup(&b, s, t)
@@ -393,8 +411,20 @@ func accumulate(b *bytes.Buffer, lhs string, parts []string) {
 	}
 }
 
-func genSums(b *bytes.Buffer, s spec, t table) {
+func genSums(out *bytes.Buffer, s spec, t table, v *variant) {
 	uni := s.mode == "sums1"
+	if v != nil {
+		fmt.Fprintf(out, "\n// %s%s is %s with want = %s, for %s: the same expressions without the\n"+
+			"// want tests and without the powers and products that those sums do not use.\n",
+			s.name, v.suffix, s.name, wantNames(v.fields), v.use)
+		fmt.Fprintf(out, "func %s%s(x, y float64, s *termSums) {\n", s.name, v.suffix)
+		var body bytes.Buffer
+		sumsBody(&body, s, t, v)
+		out.WriteString(pruneDefs(body.String()))
+		out.WriteString("}\n")
+		return
+	}
+	b := out
 	if uni {
 		fmt.Fprintf(b, "// %s returns the weighted sums of the terms n_i y^J_i with y = %s for\n", s.name, s.yDoc)
 	} else {
@@ -410,6 +440,17 @@ func genSums(b *bytes.Buffer, s spec, t table) {
 	} else {
 		fmt.Fprintf(b, "func %s(x, y float64, want uint8, s *termSums) {\n", s.name)
 	}
+	sumsBody(b, s, t, nil)
+	b.WriteString("}\n")
+	if t.lnN != "" {
+		fmt.Fprintf(b, "\n// %sLnN is n1 of R7-97 Table 30, the coefficient of ln δ in Eq. (28).\nconst %sLnN = %s\n", s.name[:2], s.name[:2], lit(t.lnN, 1))
+	}
+}
+
+// sumsBody writes the statements of a sums function: powers, term products and the sums, all
+// of them under want tests (v == nil) or those of the variant v without tests.
+func sumsBody(b *bytes.Buffer, s spec, t table, v *variant) {
+	uni := s.mode == "sums1"
 	is, js := exps(t)
 	xn := map[int]string{0: "1"}
 	if !uni {
@@ -425,19 +466,6 @@ func genSums(b *bytes.Buffer, s spec, t table) {
 		} else {
 			tn[k] = p
 		}
-	}
-	type block struct {
-		bit, field string
-		w          func(tm term) int
-	}
-	blocks := []block{
-		{"wantF", "f", func(tm term) int { return 1 }},
-		{"wantX", "x", func(tm term) int { return tm.I }},
-		{"wantY", "y", func(tm term) int { return tm.J }},
-		{"wantXX", "xx", func(tm term) int { return tm.I * (tm.I - 1) }},
-		{"wantYY", "yy", func(tm term) int { return tm.J * (tm.J - 1) }},
-		{"wantXY", "xy", func(tm term) int { return tm.I * tm.J }},
-		{"wantYYY", "yyy", func(tm term) int { return tm.J * (tm.J - 1) * (tm.J - 2) }},
 	}
 	for _, bl := range blocks {
 		if uni && (bl.field == "x" || bl.field == "xx" || bl.field == "xy") {
@@ -455,14 +483,73 @@ func genSums(b *bytes.Buffer, s spec, t table) {
 				parts = append(parts, lit(tm.n, w)+"*"+tn[k])
 			}
 		}
-		fmt.Fprintf(b, "\tif want&%s != 0 {\n", bl.bit)
-		accumulate(b, "s."+bl.field+" =", parts)
-		b.WriteString("\t}\n")
+		if v == nil {
+			fmt.Fprintf(b, "\tif want&%s != 0 {\n", bl.bit)
+			accumulate(b, "s."+bl.field+" =", parts)
+			b.WriteString("\t}\n")
+		} else if slices.Contains(v.fields, bl.field) {
+			accumulate(b, "s."+bl.field+" =", parts)
+		}
 	}
-	b.WriteString("}\n")
-	if t.lnN != "" {
-		fmt.Fprintf(b, "\n// %sLnN is n1 of R7-97 Table 30, the coefficient of ln δ in Eq. (28).\nconst %sLnN = %s\n", s.name[:2], s.name[:2], lit(t.lnN, 1))
+}
+
+// block is one weighted sum of termSums: its want bit, field and weight.
+type block struct {
+	bit, field string
+	w          func(tm term) int
+}
+
+var blocks = []block{
+	{"wantF", "f", func(tm term) int { return 1 }},
+	{"wantX", "x", func(tm term) int { return tm.I }},
+	{"wantY", "y", func(tm term) int { return tm.J }},
+	{"wantXX", "xx", func(tm term) int { return tm.I * (tm.I - 1) }},
+	{"wantYY", "yy", func(tm term) int { return tm.J * (tm.J - 1) }},
+	{"wantXY", "xy", func(tm term) int { return tm.I * tm.J }},
+	{"wantYYY", "yyy", func(tm term) int { return tm.J * (tm.J - 1) * (tm.J - 2) }},
+}
+
+// wantNames returns the want bits of fields joined by |.
+func wantNames(fields []string) string {
+	var ns []string
+	for _, f := range fields {
+		for _, bl := range blocks {
+			if bl.field == f {
+				ns = append(ns, bl.bit)
+			}
+		}
 	}
+	return strings.Join(ns, "|")
+}
+
+// pruneDefs removes from a function body the definitions "name := ..." whose name no other
+// line uses, repeatedly, so that a variant keeps only the powers and products it needs.
+func pruneDefs(body string) string {
+	lines := strings.Split(strings.TrimSuffix(body, "\n"), "\n")
+	def := regexp.MustCompile(`^\t(\w+) := `)
+	for changed := true; changed; {
+		changed = false
+		for i, l := range lines {
+			m := def.FindStringSubmatch(l)
+			if m == nil {
+				continue
+			}
+			use := regexp.MustCompile(`\b` + m[1] + `\b`)
+			used := false
+			for j, o := range lines {
+				if j != i && use.MatchString(o) {
+					used = true
+					break
+				}
+			}
+			if !used {
+				lines = append(lines[:i], lines[i+1:]...)
+				changed = true
+				break
+			}
+		}
+	}
+	return strings.Join(lines, "\n") + "\n"
 }
 
 // joinSum joins terms with " + ", writing "a - b" for a negative term.
