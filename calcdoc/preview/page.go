@@ -5,6 +5,7 @@ import (
 	"context"
 	"crypto/sha256"
 	"io/fs"
+	"maps"
 	"net/http"
 	"os"
 	"path"
@@ -22,6 +23,8 @@ import (
 const (
 	waitTimeout = 25 * time.Second // a long poll answers at the latest after this
 	keepWatched = 10 * time.Second // a page is watched this long after it was last asked for
+	settleTime  = 5 * time.Millisecond
+	settleTries = 4
 )
 
 // page is one calc as the preview shows it, re-rendered when its source or
@@ -74,6 +77,7 @@ func (p *page) refresh() {
 	if p.html != nil && !p.inputsChanged() {
 		return
 	}
+	p.settle()
 	body, inputs := p.s.render(p.rel)
 	p.inputs = inputs
 	if p.html != nil && bytes.Equal(body, p.body) {
@@ -95,6 +99,29 @@ func (p *page) inputsChanged() bool {
 		}
 	}
 	return false
+}
+
+// settle waits until the files read stop changing, so that a save caught
+// halfway (truncated, partly written) is not shown as a broken calc.
+func (p *page) settle() {
+	prev := p.hashes()
+	for i := 0; i < settleTries; i++ {
+		time.Sleep(settleTime)
+		cur := p.hashes()
+		if maps.EqualFunc(prev, cur, bytes.Equal) {
+			return
+		}
+		prev = cur
+	}
+}
+
+// hashes reads the files the last render read.
+func (p *page) hashes() map[string][]byte {
+	out := map[string][]byte{}
+	for file := range p.inputs {
+		out[file] = hashFile(file)
+	}
+	return out
 }
 
 func hashFile(file string) []byte {

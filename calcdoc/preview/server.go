@@ -33,7 +33,7 @@ var ErrNotLoopback = errors.New("address is not on loopback")
 type Options struct {
 	Path   string        // a calc file, or a folder whose calcs are listed
 	Engine string        // the engine version the packages name
-	Poll   time.Duration // how often watched files are read; 0 means 40 ms
+	Poll   time.Duration // how often watched files are read; 0 means 25 ms
 	// Remote allows requests whose Host is not a loopback name, for a
 	// server deliberately opened to other machines.
 	Remote bool
@@ -52,7 +52,7 @@ type Server struct {
 // least one calc file.
 func New(opt Options) (*Server, error) {
 	if opt.Poll <= 0 {
-		opt.Poll = 40 * time.Millisecond
+		opt.Poll = 25 * time.Millisecond
 	}
 	abs, err := filepath.Abs(opt.Path)
 	if err != nil {
