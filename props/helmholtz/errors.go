@@ -6,7 +6,7 @@ package helmholtz
 // point). Its message holds no numbers, so that this package need not
 // format them: callers format Value and Limit in the units they show.
 type RangeError struct {
-	Input  string  // the input's symbol: "T", "p", "rho", "h", "s", "x"
+	Input  string  // the input's symbol: "T", "p", "rho", "v", "h", "s", "x"
 	Value  float64 // the value given, SI
 	Limit  float64 // the limit it crosses, SI
 	Above  bool    // whether Value is above Limit (else below)
@@ -52,6 +52,10 @@ const (
 	reasonFinite = "range of finite numbers"
 	reasonHminS  = "lowest enthalpy at this entropy within the equation's range"
 	reasonHmaxS  = "highest enthalpy at this entropy within the equation's range"
+	reasonV0     = "lowest specific volume (zero)"
+	reasonVmin   = "lowest specific volume of the equation, at its highest density"
+	reasonVminP  = "lowest specific volume at this pressure within the equation's range"
+	reasonVmaxP  = "highest specific volume at this pressure within the equation's range"
 )
 
 // Reasons used in SolveError.

@@ -59,6 +59,7 @@ func (f *Fluid) satState(sp *satPoint, x float64) Props {
 const (
 	byH = iota
 	byS
+	byV
 )
 
 // StatePH returns the state at pressure p and specific enthalpy h.
@@ -71,12 +72,12 @@ func (f *Fluid) StatePS(p, s float64) (Props, error) { return f.stateIsobar("Sta
 // the saturated liquid and vapour (estimated from the ancillaries where the
 // target is clearly off the dome, exactly otherwise) and returns a
 // two-phase state by the lever rule; single-phase states are then solved
-// along the isobar for T, where h and s rise with T.
+// along the isobar for T, where h, s and v rise with T.
 func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error) {
 	if err := f.checkP(p); err != nil {
 		return Props{}, err
 	}
-	if err := checkFinite(byName(by), target); err != nil {
+	if err := f.checkTarget(by, target); err != nil {
 		return Props{}, err
 	}
 	if p >= f.Pc || p < f.Pmin() { // no saturation state at this pressure
@@ -148,10 +149,22 @@ func (f *Fluid) isobarNoDome(op string, p, target float64, by int) (Props, error
 }
 
 func byName(by int) string {
-	if by == byH {
+	switch by {
+	case byH:
 		return "h"
+	case byS:
+		return "s"
 	}
-	return "s"
+	return "v"
+}
+
+// checkTarget rejects a target that no state has: NaN or infinite, and
+// for v one not above zero or below that of the highest valid density.
+func (f *Fluid) checkTarget(by int, target float64) error {
+	if err := checkFinite(byName(by), target); err != nil || by != byV {
+		return err
+	}
+	return f.checkV(target)
 }
 
 // checkFinite rejects NaN and infinite inputs.
@@ -163,10 +176,13 @@ func checkFinite(in string, v float64) error {
 }
 
 func pick(pr Props, by int) float64 {
-	if by == byH {
+	switch by {
+	case byH:
 		return pr.H
+	case byS:
+		return pr.S
 	}
-	return pr.S
+	return pr.V
 }
 
 // dome is the saturation state at p estimated from the ancillaries, and
@@ -178,8 +194,9 @@ type dome struct {
 }
 
 // sideFast decides from the ancillaries whether the target lies clearly on
-// the liquid or the vapour side of the dome at p (2 % of the latent
-// change beyond the estimated saturated value).
+// the liquid or the vapour side of the dome at p: 2 % of the latent
+// change beyond the estimated saturated value for h and s, 2 % of the
+// estimated saturated value for v.
 func (f *Fluid) sideFast(p, target float64, by int) (dome, bool) {
 	if f.anc.Tc == 0 || p > f.anc.estimate(fastMax*f.Tc).p || p < f.Pmin() {
 		return dome{}, false
@@ -190,11 +207,14 @@ func (f *Fluid) sideFast(p, target float64, by int) (dome, bool) {
 	f.eos.newTauPart(f.eos.tRed/T, true, &tp)
 	d := dome{Ts: T, ql: f.at(&tp, T, a.rhoL), qv: f.at(&tp, T, a.rhoV)}
 	yf, yg := pick(f.props(&d.ql), by), pick(f.props(&d.qv), by)
-	m := 0.02 * (yg - yf)
+	mf, mg := 0.02*(yg-yf), 0.02*(yg-yf)
+	if by == byV {
+		mf, mg = 0.02*yf, 0.02*yg
+	}
 	switch {
-	case target < yf-m:
+	case target < yf-mf:
 		d.side = -1
-	case target > yg+m:
+	case target > yg+mg:
 		d.side = 1
 	default:
 		return dome{}, false

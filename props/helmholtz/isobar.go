@@ -13,16 +13,20 @@ type isobar struct {
 }
 
 // solveIsobar solves y(T, p) = target for T in the bracket, with
-// dy/dT = cp (for h) or cp/T (for s).
+// dy/dT = cp (for h), cp/T (for s) or v alpha (for v).
 func (f *Fluid) solveIsobar(op string, p, target float64, by int, b isobar) (Props, error) {
 	var last Props
+	var q point
 	var err error
 	eval := func(T float64) (float64, float64) {
-		last, err = f.isobarPoint(op, p, T, &b)
-		if by == byH {
+		last, q, err = f.isobarPoint(op, p, T, &b)
+		switch by {
+		case byH:
 			return last.H - target, last.Cp
+		case byS:
+			return last.S - target, last.Cp / T
 		}
-		return last.S - target, last.Cp / T
+		return last.V - target, q.dvdT()
 	}
 	if !b.loKnown {
 		if b.ylo, _ = eval(b.lo); err != nil {
@@ -54,35 +58,37 @@ func (f *Fluid) solveIsobar(op string, p, target float64, by int, b isobar) (Pro
 // isobarRange reports a target beyond the enthalpy or entropy at the
 // temperature limits of the equation on this isobar.
 func (f *Fluid) isobarRange(by int, target, dy float64, above bool) error {
-	in, r := "h", reasonHmin
-	if by == byS {
-		in, r = "s", reasonSmin
-	}
+	r := isobarReasons[by][0]
 	if above {
-		r = reasonHmax
-		if by == byS {
-			r = reasonSmax
-		}
+		r = isobarReasons[by][1]
 	}
-	return &RangeError{Input: in, Value: target, Limit: target + dy, Above: above, Reason: r}
+	return &RangeError{Input: byName(by), Value: target, Limit: target + dy, Above: above, Reason: r}
 }
 
-// isobarPoint is the single-phase state at (p, T) within the bracket b.
-func (f *Fluid) isobarPoint(op string, p, T float64, b *isobar) (Props, error) {
+// isobarReasons are the lower and upper limits' reasons per target.
+var isobarReasons = [...][2]string{
+	byH: {reasonHmin, reasonHmax},
+	byS: {reasonSmin, reasonSmax},
+	byV: {reasonVminP, reasonVmaxP},
+}
+
+// isobarPoint is the single-phase state at (p, T) within the bracket b,
+// and the point it was built from.
+func (f *Fluid) isobarPoint(op string, p, T float64, b *isobar) (Props, point, error) {
 	var tp tauPart
 	f.eos.newTauPart(f.eos.tRed/T, true, &tp)
 	rho, ok := f.sideDensity(&tp, T, p, b)
 	if !ok {
 		var err error
 		if rho, _, err = f.densityAt(op, &tp, T, p); err != nil {
-			return Props{}, err
+			return Props{}, point{}, err
 		}
 	}
 	q := f.at(&tp, T, rho)
 	pr := f.props(&q)
 	pr.P = p
 	f.setPhase(&pr, rho)
-	return pr, nil
+	return pr, q, nil
 }
 
 // sideDensity solves for the density at (T, p) on the side of the dome

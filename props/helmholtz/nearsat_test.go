@@ -48,13 +48,13 @@ func TestNearSaturationReported(t *testing.T) {
 	}
 }
 
-// TestNearSaturationIsobars sweeps h and s across hf, hg, sf and sg by
-// relative offsets from 1e-15 to 1e-6 at several pressures for every
-// default equation. Each StatePH and StatePS call must give liquid below
-// the saturated liquid, two-phase between, vapour above, with the target
-// met to 1e-9 and T from the slope of the isobar at saturation to 1e-9;
-// StatePT at the T found must give back the target where it is off the
-// saturation line.
+// TestNearSaturationIsobars sweeps h, s and v across hf, hg, sf, sg, vf
+// and vg by relative offsets from 1e-15 to 1e-6 at several pressures for
+// every default equation. Each StatePH, StatePS and StatePV call must give
+// liquid below the saturated liquid, two-phase between, vapour above, with
+// the target met to 1e-9 and T from the slope of the isobar at saturation
+// to 1e-9; StatePT at the T found must give back the target where it is
+// off the saturation line.
 func TestNearSaturationIsobars(t *testing.T) {
 	for _, f := range allFluids {
 		if !f.IsDefault {
@@ -66,12 +66,12 @@ func TestNearSaturationIsobars(t *testing.T) {
 				t.Errorf("%s SatP(%g): %v", f.Name, p, err)
 				continue
 			}
-			liq, vap := f.props(&sp.liq), f.props(&sp.vap)
-			for _, by := range []int{byH, byS} {
-				for _, side := range []Props{liq, vap} {
+			for _, by := range []int{byH, byS, byV} {
+				for _, side := range []*point{&sp.liq, &sp.vap} {
+					y := pick(f.props(side), by)
 					for _, e := range nearSatOffsets {
 						for _, sign := range []float64{-1, 1} {
-							checkNearSat(t, f, p, by, offset(pick(side, by), sign*e, yScale(f, by)), liq, vap, sp.T)
+							checkNearSat(t, f, p, by, offset(y, sign*e, yScale(f, by)), &sp)
 						}
 					}
 				}
@@ -80,30 +80,33 @@ func TestNearSaturationIsobars(t *testing.T) {
 	}
 }
 
+// yScale is the size below which offsets of h and s are taken absolute
+// (they pass through zero at the reference state); v is positive.
 func yScale(f *Fluid, by int) float64 {
-	if by == byH {
+	switch by {
+	case byH:
 		return f.R * f.Tc
+	case byS:
+		return f.R
 	}
-	return f.R
+	return 0
 }
 
-// checkNearSat checks one StatePH or StatePS call near the dome at p,
-// given the saturated liquid and vapour at p and Tsat.
-func checkNearSat(t *testing.T, f *Fluid, p float64, by int, target float64, liq, vap Props, Ts float64) {
+// checkNearSat checks one StatePH, StatePS or StatePV call near the dome
+// at p, given the saturation state at p.
+func checkNearSat(t *testing.T, f *Fluid, p float64, by int, target float64, sp *satPoint) {
 	t.Helper()
-	op, fn := "StatePH", f.StatePH
-	if by == byS {
-		op, fn = "StatePS", f.StatePS
-	}
+	op, fn := [...]string{"StatePH", "StatePS", "StatePV"}[by], [...]func(float64, float64) (Props, error){f.StatePH, f.StatePS, f.StatePV}[by]
 	st, err := fn(p, target)
 	where := func() string { return fmt.Sprintf("%s %s(%.17g, %.17g)", f.Name, op, p, target) }
 	if err != nil {
 		t.Errorf("%s: %v", where(), err)
 		return
 	}
+	liq, vap, Ts := f.props(&sp.liq), f.props(&sp.vap), sp.T
 	yf, yg := pick(liq, by), pick(vap, by)
-	scale := yScale(f, by)
-	if math.Abs(pick(st, by)-target) > 1e-9*math.Max(math.Abs(target), scale) || st.P != p {
+	tol := 1e-9 * math.Max(math.Abs(target), yScale(f, by))
+	if math.Abs(pick(st, by)-target) > tol || st.P != p {
 		t.Errorf("%s: got p %.15g, y %.15g", where(), st.P, pick(st, by))
 	}
 	var want Phase
@@ -120,19 +123,16 @@ func checkNearSat(t *testing.T, f *Fluid, p float64, by int, target float64, liq
 		return
 	}
 	if want == TwoPhase {
-		if st.T != Ts || st.X < 0 || st.X > 1 || math.Abs(yf+st.X*(yg-yf)-target) > 1e-9*scale {
+		if st.T != Ts || st.X < 0 || st.X > 1 || math.Abs(yf+st.X*(yg-yf)-target) > tol {
 			t.Errorf("%s: two-phase T %.15g x %.15g; Tsat %.15g", where(), st.T, st.X, Ts)
 		}
 		return
 	}
-	sat := liq
+	sat, q := liq, &sp.liq
 	if want == Vapour {
-		sat = vap
+		sat, q = vap, &sp.vap
 	}
-	dydT := sat.Cp
-	if by == byS {
-		dydT /= Ts
-	}
+	dydT := [...]float64{sat.Cp, sat.Cp / Ts, q.dvdT()}[by]
 	if Tlin := Ts + (target-pick(sat, by))/dydT; math.Abs(st.T-Tlin) > 1e-9*Ts {
 		t.Errorf("%s: T %.15g, want %.15g from the slope at saturation", where(), st.T, Tlin)
 	}
@@ -142,7 +142,7 @@ func checkNearSat(t *testing.T, f *Fluid, p float64, by int, target float64, liq
 	case errors.As(err, &se) && se.Reason == whyOnSat:
 	case err != nil:
 		t.Errorf("%s: StatePT(%g, %.17g): %v", where(), p, st.T, err)
-	case back.Phase != want || math.Abs(pick(back, by)-target) > 1e-9*math.Max(math.Abs(target), scale):
+	case back.Phase != want || math.Abs(pick(back, by)-target) > tol:
 		t.Errorf("%s: StatePT at T %.15g gives y %.15g %v", where(), st.T, pick(back, by), back.Phase)
 	}
 }

@@ -20,8 +20,11 @@ func (f *Fluid) newtonPY(p, target float64, by int, T, rho float64) (point, bool
 		// Rows: p and y; columns: d/dT and d/d(ln rho).
 		pT, pl := rho*R*num, rho*R*T*den
 		F1, F2, yT, yl := q.p(R)-p, q.h(R)-target, cv+R*num, R*T*(den-num)
-		if by == byS {
+		switch by {
+		case byS:
 			F2, yT, yl = q.s(R)-target, cv/T, -R*num
+		case byV: // ln(rho v) = 0
+			F2, yT, yl = math.Log(rho*target), 0, 1
 		}
 		det := pT*yl - pl*yT
 		if det == 0 {
@@ -69,12 +72,17 @@ func (f *Fluid) stableAt(q *point, p float64, liquid bool) bool {
 func (f *Fluid) isobarStart(sat *point, target float64, by int) (T, rho float64) {
 	pr := f.props(sat)
 	dydT := pr.Cp
-	if by == byS {
+	switch by {
+	case byS:
 		dydT /= sat.T
+	case byV:
+		dydT = sat.dvdT()
 	}
 	T = sat.T + (target-pick(pr, by))/dydT
 	T = math.Min(math.Max(T, f.Tmin), f.Tmax)
 	switch {
+	case by == byV:
+		rho = 1 / target
 	case sat.rho < f.RhoC:
 		rho = sat.rho * sat.T / T // ideal-gas-like vapour
 	case f.anc.Tc != 0 && T < f.Tc:

@@ -91,6 +91,9 @@ func (q *point) dpdrho() float64 { return 1 + 2*q.r.d + q.r.dd }
 // dpdT is (dp/dT) at constant rho, divided by rho R.
 func (q *point) dpdT() float64 { return 1 + q.r.d - q.r.dt }
 
+// dvdT is (dv/dT) at constant p.
+func (q *point) dvdT() float64 { return q.dpdT() / (q.rho * q.T * q.dpdrho()) }
+
 // props fills a single-phase Props; the phase is set by the caller.
 func (f *Fluid) props(q *point) Props {
 	R := f.R
