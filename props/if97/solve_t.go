@@ -26,17 +26,48 @@ func ySlope(region int, p, T float64, k yKind) (y, dy float64) {
 // (dcp/dT - cp/T)/T, at (p, T) in region 1, 2 or 5; y and dy are those of ySlope, bit for bit.
 // With τ = T*/T, dcp/dT = R τ² (2 γττ + τ γτττ) / T.
 func yCurve(region int, p, T float64, k yKind) (y, dy, d2y float64) {
-	want := wantY | wantYY | wantYYY
-	if k == byS {
-		want |= wantF
-	}
-	d := gibbsAt(region, p, T, want)
+	d := curveGibbs(region, p, T, k)
 	cp := -R * d.tau * d.tau * d.gtt
 	dcp := R * d.tau * d.tau * (2*d.gtt + d.tau*d.gttt) / T
 	if k == byH {
 		return R * T * d.tau * d.gt, cp, dcp
 	}
 	return R * (d.tau*d.gt - d.g), cp / T, (dcp - cp/T) / T
+}
+
+// curveGibbs returns γτ, γττ and γτττ (and γ for s) of region 1, 2 or 5, as gibbsAt with
+// wantY|wantYY|wantYYY (|wantF) gives them, by the generated variants that compute only those
+// sums in regions 1 and 2.
+func curveGibbs(region int, p, T float64, k yKind) gibbs {
+	want := wantY | wantYY | wantYYY
+	if k == byS {
+		want |= wantF
+	}
+	var s termSums
+	switch region {
+	case 1:
+		pi, tau := p/r1PStar, r1TStar/T
+		y := tau - 1.222
+		if k == byH {
+			r1SumsCurveH(7.1-pi, y, &s)
+		} else {
+			r1SumsCurveS(7.1-pi, y, &s)
+		}
+		iy := 1 / y
+		return gibbs{pi: pi, tau: tau, g: s.f, gt: s.y * iy, gtt: s.yy * iy * iy, gttt: s.yyy * iy * iy * iy}
+	case 2:
+		pi, tau := p/r2PStar, r2TStar/T
+		y := tau - 0.5
+		var o termSums
+		r2oSums(tau, want, &o)
+		if k == byH {
+			r2rSumsCurveH(pi, y, &s)
+		} else {
+			r2rSumsCurveS(pi, y, &s)
+		}
+		return idealGibbs(pi, tau, y, &o, &s, want)
+	}
+	return gibbsAt(region, p, T, want)
 }
 
 // halleyT takes one step of Halley's method for y(p, T) = y from T0 (a backward equation):

@@ -83,14 +83,14 @@ type file struct {
 var files = []file{
 	{"region1_gen.go", "region 1 (R7-97 Tables 2, 6, 8)", []spec{
 		{name: "r1Sums", csv: "r7-97_t02_region1_gibbs.csv", mode: "sums", xDoc: "7.1 - π", yDoc: "τ - 1.222",
-			variants: []variant{{"Y", []string{"y"}, "h"}}},
+			variants: []variant{{"Y", []string{"y"}, "h"}, {"CurveH", []string{"y", "yy", "yyy"}, "yCurve with h"}, {"CurveS", []string{"f", "y", "yy", "yyy"}, "yCurve with s"}}},
 		{name: "t1ph", csv: "r7-97_t06_region1_T_ph.csv", mode: "value", xDoc: "π", yDoc: "η + 1"},
 		{name: "t1ps", csv: "r7-97_t08_region1_T_ps.csv", mode: "value", xDoc: "π", yDoc: "σ + 2"},
 	}},
 	{"region2_gen.go", "region 2 (R7-97 Tables 10, 11)", []spec{
 		{name: "r2oSums", csv: "r7-97_t10_region2_ideal.csv", mode: "sums1", yDoc: "τ"},
 		{name: "r2rSums", csv: "r7-97_t11_region2_residual.csv", mode: "sums", xDoc: "π", yDoc: "τ - 0.5",
-			variants: []variant{{"Y", []string{"y"}, "h"}}},
+			variants: []variant{{"Y", []string{"y"}, "h"}, {"CurveH", []string{"y", "yy", "yyy"}, "yCurve with h"}, {"CurveS", []string{"f", "y", "yy", "yyy"}, "yCurve with s"}}},
 	}},
 	{"region2meta_gen.go", "the metastable-vapour region, Eq. (18) (R7-97 Table 10 with footnote a, Table 16)", []spec{
 		{name: "r2moSums", csv: "r7-97_t10_region2_ideal.csv", over: "r7-97_t10a_region2_ideal_metastable_n1_n2.csv", mode: "sums1", yDoc: "τ"},
@@ -488,7 +488,9 @@ func sumsBody(b *bytes.Buffer, s spec, t table, v *variant) {
 			accumulate(b, "s."+bl.field+" =", parts)
 			b.WriteString("\t}\n")
 		} else if slices.Contains(v.fields, bl.field) {
+			b.WriteString("\t{\n") // a scope for the accumulators, as the want test gives
 			accumulate(b, "s."+bl.field+" =", parts)
+			b.WriteString("\t}\n")
 		}
 	}
 }
