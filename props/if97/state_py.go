@@ -287,7 +287,7 @@ func region3PY(p, y float64, k yKind) Props {
 		}
 		rho += sc * dr
 		T += sc * dT
-		r := sc * math.Max(math.Abs(dr)/rho, math.Abs(dT)/T)
+		r := sc * max(math.Abs(dr)/rho, math.Abs(dT)/T)
 		if r <= 1e-13 || it > 0 && r <= 1e-7 && r*r*r <= 1e-14*prev*prev {
 			break
 		}
