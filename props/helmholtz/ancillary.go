@@ -39,17 +39,25 @@ type ancillary struct {
 	// the equation up to fastMax*Tc, where the solvers use them to decide
 	// the phase; they widen their margins by them.
 	PErr, LErr, VErr float64
+	// pFast is the estimated saturation pressure at fastMax*Tc, set by
+	// init: above it the ancillaries do not decide the phase.
+	pFast float64
 }
 
 // ancSat is one estimated saturation point.
 type ancSat struct{ p, rhoL, rhoV float64 }
 
-// sixths returns theta^(k/6) for k = 0..48.
+// sixths returns theta^(k/6) for k = 0..48: the first six powers by
+// products, then each from the one six before it, in six short chains
+// rather than one of 48 dependent products.
 func sixths(theta float64, pw *[49]float64) {
 	s := math.Cbrt(math.Sqrt(theta))
 	pw[0] = 1
-	for k := 1; k < len(pw); k++ {
+	for k := 1; k <= 6; k++ {
 		pw[k] = pw[k-1] * s
+	}
+	for k := 7; k < len(pw); k++ {
+		pw[k] = pw[k-6] * pw[6]
 	}
 }
 
@@ -87,7 +95,9 @@ func (a *ancillary) tsatEstimate(p float64) float64 {
 		dT := (r*S - y) / g
 		dT = math.Max(math.Min(dT, 0.5*T), -0.5*(a.Tc-T))
 		T -= dT
-		if math.Abs(dT) < 1e-12*T {
+		// Convergence is quadratic: after a step below 1e-7 the error is
+		// far below that of the fit itself (about 1e-5 in T).
+		if math.Abs(dT) < 1e-7*T {
 			break
 		}
 	}

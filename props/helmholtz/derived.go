@@ -8,12 +8,13 @@ func init() {
 		for i := range f.eos.terms {
 			k := &f.eos.terms[i]
 			k.fd, k.fl = float64(k.d), float64(k.l)
-			k.t2, k.d2 = k.t*(k.t-1), k.fd*(k.fd-1)
+			k.t2, k.d2, k.l2 = k.t*(k.t-1), k.fd*(k.fd-1), k.fl*(k.fl-1)
 		}
 		a, ok := derivedTable[f.Name+"/"+f.Key]
 		if !ok {
 			continue
 		}
+		a.pFast = a.estimate(fastMax * a.Tc).p
 		f.anc = a
 		f.Tc, f.Pc, f.RhoC, f.RhoMax = a.Tc, a.Pc, a.RhoC, a.RhoMax
 	}

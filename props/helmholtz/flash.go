@@ -83,7 +83,8 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 	if p >= f.Pc || p < f.Pmin() { // no saturation state at this pressure
 		return f.isobarNoDome(op, p, target, by)
 	}
-	if d, ok := f.sideFast(p, target, by); ok {
+	d, est := f.sideFast(p, target, by)
+	if est && d.side != 0 {
 		sat := &d.qv
 		if d.side < 0 {
 			sat = &d.ql
@@ -100,7 +101,11 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 			return pr, nil
 		}
 	}
-	sp, err := f.satP(op, p)
+	var g satGuess
+	if est {
+		g = d.guess()
+	}
+	sp, err := f.satPFrom(op, p, g)
 	if err != nil {
 		return Props{}, err
 	}
@@ -186,19 +191,28 @@ func pick(pr Props, by int) float64 {
 }
 
 // dome is the saturation state at p estimated from the ancillaries, and
-// the side of it (-1 liquid, +1 vapour) on which a target lies.
+// the side of it (-1 liquid, +1 vapour, 0 too near to tell) on which a
+// target lies.
 type dome struct {
 	Ts     float64
 	ql, qv point
 	side   int
 }
 
-// sideFast decides from the ancillaries whether the target lies clearly on
-// the liquid or the vapour side of the dome at p: 2 % of the latent
-// change beyond the estimated saturated value for h and s, 2 % of the
-// estimated saturated value for v.
+// guess is the estimate as a start for the saturation solver, with the
+// residual parts already evaluated at it.
+func (d *dome) guess() satGuess {
+	return satGuess{T: d.Ts, dL: d.ql.delta, dV: d.qv.delta, rL: d.ql.r, rV: d.qv.r}
+}
+
+// sideFast estimates the dome at p from the ancillaries and decides
+// whether the target lies clearly on its liquid or vapour side: 2 % of the
+// latent change beyond the estimated saturated value for h and s, 2 % of
+// the estimated saturated value for v. It reports false where the
+// ancillaries are not used (near and above the critical point, below
+// Pmin); side 0 means the target is too near the dome to tell.
 func (f *Fluid) sideFast(p, target float64, by int) (dome, bool) {
-	if f.anc.Tc == 0 || p > f.anc.estimate(fastMax*f.Tc).p || p < f.Pmin() {
+	if f.anc.Tc == 0 || p > f.anc.pFast || p < f.Pmin() {
 		return dome{}, false
 	}
 	T := f.anc.tsatEstimate(p)
@@ -216,8 +230,6 @@ func (f *Fluid) sideFast(p, target float64, by int) (dome, bool) {
 		d.side = -1
 	case target > yg+mg:
 		d.side = 1
-	default:
-		return dome{}, false
 	}
 	return d, true
 }

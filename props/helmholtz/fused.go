@@ -7,45 +7,71 @@ import "math"
 // Gaussian factor into one exponent. It gives the same sums as
 // newTauPart followed by residual and is used where T changes at every
 // call; lt = ln tau.
+//
+// It works in three passes: the exponents of all terms, then their exps
+// in a loop that holds nothing else live across the calls, then the sums,
+// which stay in registers.
 func (e *equation) fused(tau, lt, delta float64) resid {
 	var pw [maxPow + 1]float64
 	pw[0] = 1
 	for i := 1; i <= maxPow; i++ {
 		pw[i] = pw[i-1] * delta
 	}
-	var r resid
 	terms := e.terms
-	for i := 0; i < e.nPol; i++ {
-		k := &terms[i]
-		g := k.n * pw[k.d] * math.Exp(k.t*lt)
-		r.add(g, k.t, k.t2, k.fd, k.d2)
+	np, ne := e.nPol, e.nPol+e.nExp
+	var xs [maxTerms]float64
+	x := xs[:len(terms)]
+	for i := range terms[:np] {
+		x[i] = terms[i].t * lt
 	}
-	for i := e.nPol; i < e.nPol+e.nExp; i++ {
+	for i := np; i < ne; i++ {
 		k := &terms[i]
-		dl := pw[k.l]
-		g := k.n * pw[k.d] * math.Exp(k.t*lt-dl)
-		b1 := k.fd - k.fl*dl
-		r.add(g, k.t, k.t2, b1, b1*b1-k.fd-k.fl*(k.fl-1)*dl)
+		x[i] = k.t*lt - pw[k.l]
 	}
-	for i := e.nPol + e.nExp; i < len(terms); i++ {
+	for i := ne; i < len(terms); i++ {
 		k := &terms[i]
-		d, t := float64(k.d), k.t
 		dd, dt := delta-k.eps, tau-k.gamma
-		g := k.n * pw[k.d] * math.Exp(t*lt-k.eta*dd*dd-k.beta*dt*dt)
-		a1 := t - 2*k.beta*tau*dt
-		b1 := d - 2*k.eta*delta*dd
-		r.add(g, a1, a1*a1-t-2*k.beta*tau*tau, b1, b1*b1-d-2*k.eta*delta*delta)
+		x[i] = k.t*lt - k.eta*dd*dd - k.beta*dt*dt
 	}
-	return r
-}
-
-// add accumulates one term of value g with its scaled tau factors a1, a2
-// and delta factors b1, b2.
-func (r *resid) add(g, a1, a2, b1, b2 float64) {
-	r.a += g
-	r.d += g * b1
-	r.dd += g * b2
-	r.t += g * a1
-	r.tt += g * a2
-	r.dt += g * a1 * b1
+	for i := range x {
+		x[i] = math.Exp(x[i])
+	}
+	// Six named sums rather than a resid: the compiler keeps them in
+	// registers (a struct of more than four fields stays in memory).
+	var sa, sd, sdd, st, stt, sdt float64
+	for i := range terms[:np] {
+		k := &terms[i]
+		g := k.n * pw[k.d] * x[i]
+		sa += g
+		sd += g * k.fd
+		sdd += g * k.d2
+		st += g * k.t
+		stt += g * k.t2
+		sdt += g * k.t * k.fd
+	}
+	for i := np; i < ne; i++ {
+		k := &terms[i]
+		g, dl := k.n*pw[k.d]*x[i], pw[k.l]
+		b1 := k.fd - k.fl*dl
+		sa += g
+		sd += g * b1
+		sdd += g * (b1*b1 - k.fd - k.l2*dl)
+		st += g * k.t
+		stt += g * k.t2
+		sdt += g * k.t * b1
+	}
+	for i := ne; i < len(terms); i++ {
+		k := &terms[i]
+		g, t, d := k.n*pw[k.d]*x[i], k.t, k.fd
+		bt, ed := 2*k.beta*tau, 2*k.eta*delta
+		a1 := t - bt*(tau-k.gamma)
+		b1 := d - ed*(delta-k.eps)
+		sa += g
+		sd += g * b1
+		sdd += g * (b1*b1 - d - ed*delta)
+		st += g * a1
+		stt += g * (a1*a1 - t - bt*tau)
+		sdt += g * a1 * b1
+	}
+	return resid{a: sa, d: sd, dd: sdd, t: st, tt: stt, dt: sdt}
 }

@@ -19,8 +19,9 @@ type term struct {
 	n, t                  float64
 	d, l                  int
 	eta, beta, gamma, eps float64
-	// Filled in by init (derived.go): float d and l, t(t-1), d(d-1).
-	fd, fl, t2, d2 float64
+	// Filled in by init (derived.go): float d and l, t(t-1), d(d-1),
+	// l(l-1).
+	fd, fl, t2, d2, l2 float64
 }
 
 // powTerm is an ideal-gas term n tau^t (integration constants and the
@@ -91,37 +92,63 @@ func (e *equation) newTauPart(tau float64, withIdeal bool, tp *tauPart) {
 }
 
 // residual sums the residual terms at delta, given their tau factors.
+// The sums are six named variables, which the compiler keeps in
+// registers.
 func (e *equation) residual(tp *tauPart, delta float64) resid {
 	var pw [maxPow + 1]float64
 	pw[0] = 1
 	for i := 1; i <= maxPow; i++ {
 		pw[i] = pw[i-1] * delta
 	}
-	var r resid
-	add := func(i int, b0, b1, b2 float64) { r.add(tp.A[i]*b0, tp.a1[i], tp.a2[i], b1, b2) }
+	var sa, sd, sdd, st, stt, sdt float64
 	terms := e.terms
-	for i := 0; i < e.nPol; i++ {
-		d := float64(terms[i].d)
-		add(i, pw[terms[i].d], d, d*(d-1))
+	np, ne := e.nPol, e.nPol+e.nExp
+	for i := range terms[:np] {
+		k := &terms[i]
+		g := tp.A[i] * pw[k.d]
+		a1 := tp.a1[i]
+		sa += g
+		sd += g * k.fd
+		sdd += g * k.d2
+		st += g * a1
+		stt += g * tp.a2[i]
+		sdt += g * a1 * k.fd
 	}
 	var el [maxPow + 1]float64 // exp(-delta^l), computed once per l
-	for i := e.nPol; i < e.nPol+e.nExp; i++ {
-		k := &terms[i]
-		if el[k.l] == 0 {
-			el[k.l] = math.Exp(-pw[k.l])
+	for i := np; i < ne; i++ {
+		if l := terms[i].l; el[l] == 0 {
+			el[l] = math.Exp(-pw[l])
 		}
-		d, l, dl := float64(k.d), float64(k.l), pw[k.l]
-		b1 := d - l*dl
-		add(i, pw[k.d]*el[k.l], b1, b1*b1-d-l*(l-1)*dl)
 	}
-	for i := e.nPol + e.nExp; i < len(terms); i++ {
+	var gs [maxTerms]float64 // the Gaussian factors in delta
+	for i := ne; i < len(terms); i++ {
 		k := &terms[i]
 		dd := delta - k.eps
-		d := float64(k.d)
-		b1 := d - 2*k.eta*delta*dd
-		add(i, pw[k.d]*math.Exp(-k.eta*dd*dd), b1, b1*b1-d-2*k.eta*delta*delta)
+		gs[i] = math.Exp(-k.eta * dd * dd)
 	}
-	return r
+	for i := np; i < ne; i++ {
+		k := &terms[i]
+		g, a1, dl := tp.A[i]*(pw[k.d]*el[k.l]), tp.a1[i], pw[k.l]
+		b1 := k.fd - k.fl*dl
+		sa += g
+		sd += g * b1
+		sdd += g * (b1*b1 - k.fd - k.l2*dl)
+		st += g * a1
+		stt += g * tp.a2[i]
+		sdt += g * a1 * b1
+	}
+	for i := ne; i < len(terms); i++ {
+		k := &terms[i]
+		g, a1 := tp.A[i]*(pw[k.d]*gs[i]), tp.a1[i]
+		b1 := k.fd - 2*k.eta*delta*(delta-k.eps)
+		sa += g
+		sd += g * b1
+		sdd += g * (b1*b1 - k.fd - 2*k.eta*delta*delta)
+		st += g * a1
+		stt += g * tp.a2[i]
+		sdt += g * a1 * b1
+	}
+	return resid{a: sa, d: sd, dd: sdd, t: st, tt: stt, dt: sdt}
 }
 
 // idealAt evaluates the ideal-gas part without ln delta; lt = ln tau.
@@ -144,7 +171,7 @@ func (e *equation) idealAt(tau, lt float64) idealTau {
 		x := p.theta * tau
 		em := math.Exp(-x)
 		q := 1 - em
-		v.a += p.n * math.Log1p(-em)
+		v.a += p.n * math.Log(q) // em < 1/2 in range: as exact as Log1p(-em) in the sum
 		v.t += p.n * x * em / q
 		v.tt -= p.n * x * x * em / (q * q)
 	}

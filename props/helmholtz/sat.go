@@ -104,7 +104,7 @@ func (f *Fluid) satNewton(tp *tauPart, T, rhoL, rhoV float64) (satPoint, bool) {
 		// terms: its round-off, not satTol, bounds f1, and the iteration
 		// has converged when its steps are at round-off.
 		if math.Abs(f1) <= satTol*pV && math.Abs(f2) <= satTol {
-			return f.satDone(tp, T, dL, dV), true
+			return f.satAt(tp, T, dL, dV, rL, rV), true
 		}
 		if math.Abs(xL) <= 1e-12*dL && math.Abs(xV) <= 1e-12*dV {
 			// One more step reaches round-off: convergence is quadratic.
@@ -125,6 +125,14 @@ func clampStep(x, dx float64) float64 {
 func (f *Fluid) satDone(tp *tauPart, T, dL, dV float64) satPoint {
 	liq := f.at(tp, T, dL*f.eos.rhoRed)
 	vap := f.at(tp, T, dV*f.eos.rhoRed)
+	return satPoint{T: T, p: vap.p(f.R), liq: liq, vap: vap}
+}
+
+// satAt is satDone with the residual parts at dL and dV already known.
+func (f *Fluid) satAt(tp *tauPart, T, dL, dV float64, rL, rV resid) satPoint {
+	rr := f.eos.rhoRed
+	liq := point{T: T, rho: dL * rr, tau: tp.tau, delta: dL, i: tp.ideal, r: rL}
+	vap := point{T: T, rho: dV * rr, tau: tp.tau, delta: dV, i: tp.ideal, r: rV}
 	return satPoint{T: T, p: vap.p(f.R), liq: liq, vap: vap}
 }
 
@@ -252,10 +260,16 @@ func goldenMin(f func(float64) float64, a, b float64) float64 {
 // Clausius-Clapeyron slope, starting from the ancillary inverse, with a
 // bracketing fallback on T.
 func (f *Fluid) satP(op string, p float64) (satPoint, error) {
+	return f.satPFrom(op, p, satGuess{})
+}
+
+// satPFrom is satP from a given start for Newton's method (T = 0: from the
+// ancillaries).
+func (f *Fluid) satPFrom(op string, p float64, g satGuess) (satPoint, error) {
 	if err := f.checkSatP(p); err != nil {
 		return satPoint{}, err
 	}
-	if sp, ok := f.satPNewton(p); ok {
+	if sp, ok := f.satPNewton(p, g); ok {
 		return sp, nil
 	}
 	T := f.anc.tsatEstimate(p)

@@ -2,22 +2,34 @@ package helmholtz
 
 import "math"
 
+// satGuess is a start for satPNewton: T and the reduced densities, and,
+// where T is not 0, the residual parts at them.
+type satGuess struct {
+	T, dL, dV float64
+	rL, rV    resid
+}
+
 // satPNewton solves for the saturation state at pressure p by Newton's
-// method in (T, delta', delta”) on p' = p, p” = p and g' = g”, from the
-// ancillary estimates. The result is polished at its temperature by
-// satNewton and accepted if its pressure is p to 1e-11.
-func (f *Fluid) satPNewton(p float64) (satPoint, bool) {
-	T := f.anc.tsatEstimate(p)
-	a := f.anc.estimate(T)
+// method in (T, delta', delta”) on p' = p, p” = p and g' = g”, from g or,
+// if g.T is 0, from the ancillary estimates. The result is polished at
+// its temperature by satNewton and accepted if its pressure is p to 1e-11.
+func (f *Fluid) satPNewton(p float64, g satGuess) (satPoint, bool) {
 	rr := f.eos.rhoRed
-	dL, dV := a.rhoL/rr, a.rhoV/rr
+	T, dL, dV, rL, rV := g.T, g.dL, g.dV, g.rL, g.rV
+	if T == 0 {
+		T = f.anc.tsatEstimate(p)
+		a := f.anc.estimate(T)
+		dL, dV = a.rhoL/rr, a.rhoV/rr
+	}
 	var tp tauPart
 	for it := 0; it < 30; it++ {
 		if !(T > f.Tmin*0.99 && T < f.Tc && dL > dV && dV > 0) {
 			return satPoint{}, false
 		}
-		f.eos.newTauPart(f.eos.tRed/T, false, &tp)
-		rL, rV := f.eos.residual(&tp, dL), f.eos.residual(&tp, dV)
+		if it > 0 || g.T == 0 {
+			f.eos.newTauPart(f.eos.tRed/T, false, &tp)
+			rL, rV = f.eos.residual(&tp, dL), f.eos.residual(&tp, dV)
+		}
 		RT := f.R * T
 		pL, pV := dL*rr*RT*(1+rL.d), dV*rr*RT*(1+rV.d)
 		var J [3][4]float64 // augmented rows: dF/dT, dF/d dL, dF/d dV | -F
@@ -31,7 +43,9 @@ func (f *Fluid) satPNewton(p float64) (satPoint, bool) {
 		}
 		s := math.Min(1, math.Min(0.05*T/math.Abs(x[0]), math.Min(0.5*dL/math.Abs(x[1]), 0.5*dV/math.Abs(x[2]))))
 		T, dL, dV = T+s*x[0], dL+s*x[1], dV+s*x[2]
-		if math.Abs(x[0]) <= 1e-13*T && math.Abs(x[1]) <= 1e-12*dL && math.Abs(x[2]) <= 1e-12*dV {
+		// Convergence is quadratic: after full steps this small the error
+		// is near 1e-14, and satNewton finishes at this T.
+		if s == 1 && math.Abs(x[0]) <= 1e-8*T && math.Abs(x[1]) <= 1e-7*dL && math.Abs(x[2]) <= 1e-7*dV {
 			f.eos.newTauPart(f.eos.tRed/T, true, &tp)
 			sp, ok := f.satNewton(&tp, T, dL*rr, dV*rr)
 			return sp, ok && math.Abs(sp.p/p-1) <= 1e-11
