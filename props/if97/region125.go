@@ -32,12 +32,12 @@ func r1Gibbs(p, T float64, want uint8) gibbs {
 
 // idealGibbs adds the ideal-gas part γ° = ln π + Σ n°_i τ^J°_i (R7-97 Eqs. 16, 33; Tables 13,
 // 40) to the residual sums r of Eqs. (17), (19) or (34), where r was evaluated at x = π and
-// y = τ - shift.
-func idealGibbs(pi, tau, y float64, o, r *termSums, want uint8) gibbs {
+// y = τ - shift. lnPi is ln π (lnPiFor), used with wantF only.
+func idealGibbs(pi, lnPi, tau, y float64, o, r *termSums, want uint8) gibbs {
 	ip, it, iy := 1/pi, 1/tau, 1/y
 	d := gibbs{pi: pi, tau: tau}
 	if want&wantF != 0 {
-		d.g = math.Log(pi) + o.f + r.f
+		d.g = lnPi + o.f + r.f
 	}
 	d.gp = ip + r.x*ip
 	d.gpp = (r.xx - 1) * ip * ip
@@ -54,31 +54,43 @@ func idealGibbs(pi, tau, y float64, o, r *termSums, want uint8) gibbs {
 // and 14 that want selects.
 func r2Gibbs(p, T float64, want uint8) gibbs {
 	pi, tau := p/r2PStar, r2TStar/T
+	lnPi := lnPiFor(pi, want)
 	y := tau - 0.5
 	var o, r termSums
 	r2oSums(tau, want&^(wantX|wantXX|wantXY), &o)
 	r2rSums(pi, y, want, &r)
-	return idealGibbs(pi, tau, y, &o, &r, want)
+	return idealGibbs(pi, lnPi, tau, y, &o, &r, want)
+}
+
+// lnPiFor returns ln π when want asks for γ, else 0. The callers take it before the sums, so
+// that the logarithm, which depends on p alone, runs alongside them.
+func lnPiFor(pi float64, want uint8) float64 {
+	if want&wantF != 0 {
+		return math.Log(pi)
+	}
+	return 0
 }
 
 // r2mGibbs returns γ of the metastable-vapour region, R7-97 Eq. (18): Eq. (16) with the
 // n°1, n°2 of Table 10 footnote a, plus Eq. (19) with Table 16.
 func r2mGibbs(p, T float64, want uint8) gibbs {
 	pi, tau := p/r2PStar, r2TStar/T
+	lnPi := lnPiFor(pi, want)
 	y := tau - 0.5
 	var o, r termSums
 	r2moSums(tau, want&^(wantX|wantXX|wantXY), &o)
 	r2mrSums(pi, y, want, &r)
-	return idealGibbs(pi, tau, y, &o, &r, want)
+	return idealGibbs(pi, lnPi, tau, y, &o, &r, want)
 }
 
 // r5Gibbs returns γ of region 5, R7-97 Eq. (32), with the derivatives of Tables 40 and 41.
 func r5Gibbs(p, T float64, want uint8) gibbs {
 	pi, tau := p/r5PStar, r5TStar/T
+	lnPi := lnPiFor(pi, want)
 	var o, r termSums
 	r5oSums(tau, want&^(wantX|wantXX|wantXY), &o)
 	r5rSums(pi, tau, want, &r)
-	return idealGibbs(pi, tau, tau, &o, &r, want)
+	return idealGibbs(pi, lnPi, tau, tau, &o, &r, want)
 }
 
 // gibbsAt evaluates the equation of the given region (1, 2 or 5).

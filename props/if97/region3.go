@@ -16,11 +16,15 @@ type helm struct {
 // (R7-97 Table 32).
 func r3Helm(rho, T float64, want uint8) helm {
 	delta, tau := rho/Rhoc, Tc/T
+	lnDelta := 0.0
+	if want&wantF != 0 {
+		lnDelta = math.Log(delta) // first, so that it runs alongside the sums
+	}
 	var s termSums
 	r3Sums(delta, tau, want, &s)
 	a := helm{rho: rho, T: T, d: r3LnN + s.x, t: s.y, dd: s.xx - r3LnN, tt: s.yy, dt: s.xy}
 	if want&wantF != 0 {
-		a.f = r3LnN*math.Log(delta) + s.f
+		a.f = r3LnN*lnDelta + s.f
 	}
 	return a
 }

@@ -57,6 +57,7 @@ func curveGibbs(region int, p, T float64, k yKind) gibbs {
 		return gibbs{pi: pi, tau: tau, g: s.f, gt: s.y * iy, gtt: s.yy * iy * iy, gttt: s.yyy * iy * iy * iy}
 	case 2:
 		pi, tau := p/r2PStar, r2TStar/T
+		lnPi := lnPiFor(pi, want)
 		y := tau - 0.5
 		var o termSums
 		r2oSums(tau, want, &o)
@@ -65,7 +66,7 @@ func curveGibbs(region int, p, T float64, k yKind) gibbs {
 		} else {
 			r2rSumsCurveS(pi, y, &s)
 		}
-		return idealGibbs(pi, tau, y, &o, &s, want)
+		return idealGibbs(pi, lnPi, tau, y, &o, &s, want)
 	}
 	return gibbsAt(region, p, T, want)
 }
