@@ -3,7 +3,6 @@ package register
 import (
 	"crypto/sha256"
 	"encoding/hex"
-	"encoding/json"
 	"os"
 	"path/filepath"
 
@@ -39,44 +38,6 @@ type DataRef struct {
 
 // Broken reports a calc with errors: it has no package.
 func (e *Entry) Broken() bool { return len(e.Errors) > 0 }
-
-// entryFile is the cache file of a calc.
-func entryFile(out, calc string) string {
-	sum := sha256.Sum256([]byte(calc))
-	return filepath.Join(cacheDir(out), hex.EncodeToString(sum[:10])+".json")
-}
-
-// loadEntry reads a calc's cache entry; nil when there is none or it
-// cannot be read.
-func loadEntry(out, calc string) *Entry {
-	e := readEntryFile(entryFile(out, calc))
-	if e == nil || e.Path != calc {
-		return nil
-	}
-	return e
-}
-
-// readEntryFile reads a cache file; nil when it cannot.
-func readEntryFile(file string) *Entry {
-	b, err := os.ReadFile(file)
-	if err != nil {
-		return nil
-	}
-	var e Entry
-	if json.Unmarshal(b, &e) != nil {
-		return nil
-	}
-	return &e
-}
-
-// save writes the entry to the cache atomically.
-func (e *Entry) save(out string) error {
-	b, err := json.MarshalIndent(e, "", "  ")
-	if err != nil {
-		return err
-	}
-	return writeAtomic(entryFile(out, e.Path), append(b, '\n'))
-}
 
 // cacheKey hashes what a package depends on besides git: the engine, the
 // calc's path and source, and each data file it read.

@@ -3,7 +3,6 @@ package register
 import (
 	"bytes"
 	"html/template"
-	"os"
 	"path/filepath"
 	"sort"
 	"strings"
@@ -140,26 +139,4 @@ func leadingDigits(s string) (digits, rest string) {
 		i = len(s)
 	}
 	return s[:i], s[i:]
-}
-
-// prune removes the cache entries, packages and manifest files of calcs
-// that are no longer under the folder. Only files the register wrote are
-// removed.
-func (r *run) prune() {
-	keep := map[string]bool{}
-	for _, c := range r.calcs {
-		keep[entryFile(r.opt.Out, c)] = true
-	}
-	files, _ := filepath.Glob(filepath.Join(cacheDir(r.opt.Out), "*.json"))
-	for _, f := range files {
-		if keep[f] {
-			continue
-		}
-		if e := readEntryFile(f); e != nil && e.Package != "" {
-			pkg := filepath.Join(r.opt.Out, filepath.FromSlash(e.Package))
-			os.Remove(calcdoc.ManifestPath(pkg))
-			os.Remove(pkg)
-		}
-		os.Remove(f)
-	}
 }

@@ -71,13 +71,13 @@ func Run(opt Options) (*Summary, error) {
 	}
 	r.work()
 	sum := &Summary{Entries: r.entries, Rendered: r.rendered, Cached: len(r.entries) - r.rendered}
-	if opt.Shards > 0 {
+	if err := r.cache.write(opt.Out, shardCacheFile(opt.Shard, opt.Shards), r.entries); err != nil {
+		return sum, err
+	}
+	if opt.Shards > 0 || r.firstErr != nil {
 		return sum, r.firstErr
 	}
-	if r.firstErr != nil {
-		return sum, r.firstErr
-	}
-	r.prune()
+	r.cache.prune(opt.Out, r.calcs)
 	sum.Index, err = r.writeIndex()
 	return sum, err
 }
@@ -87,6 +87,7 @@ type run struct {
 	opt      Options
 	calcs    []string // slash paths relative to Dir
 	entries  []*Entry
+	cache    *cache
 	space    *lazyWorkspace
 	mu       sync.Mutex
 	done     int
@@ -111,7 +112,8 @@ func newRun(opt Options) (*run, error) {
 	if err := os.MkdirAll(cacheDir(opt.Out), 0o755); err != nil {
 		return nil, err
 	}
-	return &run{opt: opt, calcs: calcs, entries: make([]*Entry, len(calcs)), space: &lazyWorkspace{dir: opt.Dir}}, nil
+	return &run{opt: opt, calcs: calcs, entries: make([]*Entry, len(calcs)), cache: loadCache(opt.Out),
+		space: &lazyWorkspace{dir: opt.Dir}}, nil
 }
 
 // check refuses options that cannot work.

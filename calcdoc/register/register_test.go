@@ -45,7 +45,7 @@ func fiftyCalcs(t *testing.T) *tree {
 
 func calcName(i int) string { return fmt.Sprintf("unit%d/fp-%03d.calc.md", i%2+1, i) }
 
-func registerTree(t *testing.T, dir, out string, mod func(*Options)) *Summary {
+func registerTree(t testing.TB, dir, out string, mod func(*Options)) *Summary {
 	t.Helper()
 	opt := Options{Dir: dir, Out: out, Engine: engine}
 	if mod != nil {

@@ -47,29 +47,41 @@ func (w *worker) do(calc string) outcome {
 	if err != nil {
 		return outcome{entry: &Entry{Path: calc, Errors: []CalcError{{Msg: err.Error()}}}, rendered: true}
 	}
-	old := loadEntry(opt.Out, calc)
-	e, rendered := old, false
-	if !w.fresh(old, calc, path, src) {
-		if e, err = w.render(calc, path, src); err != nil {
-			return outcome{entry: e, rendered: true, err: err}
+	old := w.cached(calc, path, src)
+	if old != nil {
+		e := old.clone()
+		w.signedStatus(e, path, src, old)
+		return outcome{entry: e}
+	}
+	e, err := w.render(calc, path, src)
+	if err == nil {
+		w.signedStatus(e, path, src, w.previous(calc))
+	}
+	return outcome{entry: e, rendered: true, err: err}
+}
+
+// cached returns the cache entry that still holds for the calc, if any.
+func (w *worker) cached(calc, path string, src []byte) *Entry {
+	for _, e := range w.run.cache.lookup(calc) {
+		if w.fresh(e, calc, path, src) {
+			return e
 		}
-		rendered = true
-	} else {
-		e = old.clone()
 	}
-	signedChanged := w.signedStatus(e, path, src, old)
-	if rendered || signedChanged {
-		err = e.save(opt.Out)
+	return nil
+}
+
+// previous returns a cached entry of the calc, fresh or not, whose
+// verification of the signed package may still hold.
+func (w *worker) previous(calc string) *Entry {
+	if list := w.run.cache.lookup(calc); len(list) > 0 {
+		return list[len(list)-1]
 	}
-	return outcome{entry: e, rendered: rendered, err: err}
+	return nil
 }
 
 // fresh reports whether a cache entry still holds: same key, and the
 // package it names still in the output folder.
 func (w *worker) fresh(old *Entry, calc, path string, src []byte) bool {
-	if old == nil {
-		return false
-	}
 	if old.Key != cacheKey(w.run.opt.Engine, calc, src, currentData(filepath.Dir(path), old.Data)) {
 		return false
 	}
@@ -80,8 +92,7 @@ func (w *worker) fresh(old *Entry, calc, path string, src []byte) bool {
 	return err == nil
 }
 
-// render evaluates a calc and writes its package and manifest file into the
-// output folder. A calc with errors gets an entry that lists them and no
+// render evaluates a calc and writes its package into the output folder. A calc with errors gets an entry that lists them and no
 // package; the error is for a package that cannot be written.
 func (w *worker) render(calc, path string, src []byte) (*Entry, error) {
 	d := calcdoc.Read(path, src)
@@ -91,17 +102,13 @@ func (w *worker) render(calc, path string, src []byte) (*Entry, error) {
 	if e.Broken() {
 		return e, nil
 	}
-	html, manifest, err := w.renderDoc(d)
+	html, err := w.renderDoc(d)
 	if err != nil {
 		e.Errors = []CalcError{{Msg: err.Error()}}
 		return e, nil
 	}
 	e.Package = packagePath(calc)
-	dest := filepath.Join(w.run.opt.Out, filepath.FromSlash(e.Package))
-	if err := writeAtomic(calcdoc.ManifestPath(dest), manifest); err != nil {
-		return e, err
-	}
-	return e, writeAtomic(dest, html)
+	return e, writeAtomic(filepath.Join(w.run.opt.Out, filepath.FromSlash(e.Package)), html)
 }
 
 // entryOf describes an evaluated calc: front matter, checks, data files and
@@ -123,26 +130,23 @@ func entryOf(calc string, d *calcdoc.Doc) *Entry {
 }
 
 // renderDoc renders the package with the provenance record from the
-// worker's workspace and returns it with its manifest file.
-func (w *worker) renderDoc(d *calcdoc.Doc) (html, manifest []byte, err error) {
+// worker's workspace. The register writes no manifest file beside it: the
+// manifest is inside the package.
+func (w *worker) renderDoc(d *calcdoc.Doc) ([]byte, error) {
 	if w.space == nil {
 		base, err := w.run.space.get()
 		if err != nil {
-			return nil, nil, err
+			return nil, err
 		}
 		if w.space, err = base.Fork(); err != nil {
-			return nil, nil, err
+			return nil, err
 		}
 	}
 	rec, err := d.RecordIn(w.space, w.run.opt.Engine)
 	if err != nil {
-		return nil, nil, err
+		return nil, err
 	}
-	if html, err = d.Render(calcdoc.RenderOptions{Engine: w.run.opt.Engine, Record: rec}); err != nil {
-		return nil, nil, err
-	}
-	manifest, err = calcdoc.ManifestFile(rec.Manifest)
-	return html, manifest, err
+	return d.Render(calcdoc.RenderOptions{Engine: w.run.opt.Engine, Record: rec})
 }
 
 // clone copies an entry, so that a run never changes the cached one.

@@ -5,7 +5,6 @@ import (
 	"encoding/hex"
 	"os"
 	"path/filepath"
-	"slices"
 
 	"vouch/calcdoc"
 )
@@ -31,14 +30,13 @@ type Signed struct {
 
 // signedStatus finds the signed package beside a calc, verifies it unless
 // the cache already did for the same bytes, and compares it with the
-// current source. It reports whether the entry's state changed.
-func (w *worker) signedStatus(e *Entry, path string, src []byte, old *Entry) bool {
-	was := e.Signed
+// current source.
+func (w *worker) signedStatus(e *Entry, path string, src []byte, old *Entry) {
 	pkg := filepath.Join(filepath.Dir(path), calcdoc.PackageName(path))
 	html, err := os.ReadFile(pkg)
 	if err != nil {
 		e.Signed = nil
-		return was != nil
+		return
 	}
 	key := w.signedKey(html, pkg)
 	switch {
@@ -49,15 +47,6 @@ func (w *worker) signedStatus(e *Entry, path string, src []byte, old *Entry) boo
 		e.Signed = w.verify(pkg, key)
 	}
 	e.Signed.Stale = staleness(e.Signed, src, e.Data)
-	return was == nil || !sameSigned(was, e.Signed)
-}
-
-// sameSigned compares two states field by field.
-func sameSigned(a, b *Signed) bool {
-	if a.Key != b.Key || a.Status != b.Status || a.Problem != b.Problem || a.Stale != b.Stale || a.SourceHash != b.SourceHash {
-		return false
-	}
-	return slices.Equal(a.DataHashes, b.DataHashes)
 }
 
 // signedKey hashes what the verification of a package depends on outside
