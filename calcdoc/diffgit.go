@@ -69,10 +69,10 @@ func readWorkTree(repo *provenance.Repo, rel, shown string) (Side, error) {
 // the calc at rev, under the name it had there if it was renamed since.
 func readNewSide(repo *provenance.Repo, rel, rev, shown string) (Side, error) {
 	work, err := readWorkTree(repo, rel, shown)
-	if rev == "" || err != nil && rev == "" {
+	if rev == "" {
 		return work, err
 	}
-	if err != nil {
+	if err != nil { // no work-tree file to follow a rename from
 		commit, err := resolve(repo, rev)
 		if err != nil {
 			return Side{}, err

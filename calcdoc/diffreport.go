@@ -97,7 +97,7 @@ func (df *Diff) Text(all bool) string {
 }
 
 func (v *diffView) header(b *strings.Builder) {
-	fmt.Fprintf(b, "%s %s\n", v.Number, v.Title)
+	fmt.Fprintln(b, strings.TrimSpace(v.Number+" "+v.Title))
 	fmt.Fprintf(b, "from: %s, %s, revision %s\n", v.From, v.FromPath, orDash(v.FromRevision))
 	fmt.Fprintf(b, "to:   %s, %s, revision %s\n", v.To, v.ToPath, orDash(v.ToRevision))
 	if v.Renamed {
