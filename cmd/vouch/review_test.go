@@ -139,6 +139,7 @@ func TestServeCommand(t *testing.T) {
 		t.Fatal(err)
 	}
 	defer busy.Close()
+	defer func(old func() (context.Context, context.CancelFunc)) { serveContext = old }(serveContext)
 	serveContext = func() (context.Context, context.CancelFunc) {
 		return context.WithTimeout(context.Background(), 200*time.Millisecond)
 	}
