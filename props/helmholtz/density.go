@@ -6,16 +6,32 @@ import "math"
 // p(T, lo) < p < p(T, hi) and p rises with rho in between, starting from
 // guess (0 for the ideal-gas value). tp must be made for T.
 func (f *Fluid) densityIn(tp *tauPart, T, p, lo, hi, guess float64) (float64, bool) {
+	if guess == 0 {
+		guess = math.Min(p/(f.R*T), 0.5*(lo+hi))
+	}
+	if !(guess > math.Min(lo, hi) && guess < math.Max(lo, hi)) {
+		guess = 0.5 * (lo + hi)
+	}
+	fdf := f.densityFdf(tp, T, p)
+	fx, dfx := fdf(guess)
+	return rtsafeFrom(fdf, lo, hi, guess, fx, dfx, 1e-14)
+}
+
+// densityFrom is densityIn from a guess x within the bracket where
+// p(T, x) - p = fx and dp/drho = dfx are already known.
+func (f *Fluid) densityFrom(tp *tauPart, T, p, lo, hi, x, fx, dfx float64) (float64, bool) {
+	return rtsafeFrom(f.densityFdf(tp, T, p), lo, hi, x, fx, dfx, 1e-14)
+}
+
+// densityFdf returns rho -> (p(T, rho) - p, dp/drho) for the tau factors
+// in tp.
+func (f *Fluid) densityFdf(tp *tauPart, T, p float64) func(float64) (float64, float64) {
 	rr := f.eos.rhoRed
 	RT := f.R * T
-	fdf := func(rho float64) (float64, float64) {
+	return func(rho float64) (float64, float64) {
 		r := f.eos.residual(tp, rho/rr)
 		return rho*RT*(1+r.d) - p, RT * (1 + 2*r.d + r.dd)
 	}
-	if guess == 0 {
-		guess = math.Min(p/RT, 0.5*(lo+hi))
-	}
-	return rtsafe(fdf, lo, hi, guess, 1e-14)
 }
 
 // pressure returns p(T, rho) for the tau factors in tp.
@@ -76,14 +92,13 @@ func (f *Fluid) liquidAbove(tp *tauPart, T, p, lo, pl, dl float64) (float64, boo
 	for i := 0; ; i++ {
 		ph, dh := f.pressure(tp, T, hi)
 		if ph > p && dh > 0 {
-			break
+			return f.densityFrom(tp, T, p, lo, hi, hi, ph-p, dh)
 		}
 		if i == 60 {
 			return 0, false
 		}
 		hi += step
 	}
-	return f.densityIn(tp, T, p, lo, hi, hi)
 }
 
 // superDensity solves for the density at T at or above Tc, where p rises

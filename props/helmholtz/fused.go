@@ -1,16 +1,14 @@
 package helmholtz
 
-import "math"
-
-// fused evaluates the residual part at one (tau, delta) with a single exp
-// per term, folding the tau factor, the exp(-delta^l) factor and the
+// fused evaluates the residual part at one (tau, delta) with at most one
+// exp per term (none for a polynomial term with t a whole number), folding the tau factor, the exp(-delta^l) factor and the
 // Gaussian factor into one exponent. It gives the same sums as
 // newTauPart followed by residual and is used where T changes at every
 // call; lt = ln tau.
 //
 // It works in three passes: the exponents of all terms, then their exps
-// in a loop that holds nothing else live across the calls, then the sums,
-// which stay in registers.
+// (fastExp) in a loop that holds nothing else live across the calls, then
+// the sums, which stay in registers.
 func (e *equation) fused(tau, lt, delta float64) resid {
 	var pw [maxPow + 1]float64
 	pw[0] = 1
@@ -21,8 +19,13 @@ func (e *equation) fused(tau, lt, delta float64) resid {
 	np, ne := e.nPol, e.nPol+e.nExp
 	var xs [maxTerms]float64
 	x := xs[:len(terms)]
+	tw := [5]float64{1, tau, tau * tau, tau * tau * tau, tau * tau * tau * tau}
 	for i := range terms[:np] {
-		x[i] = terms[i].t * lt
+		if k := &terms[i]; k.ti > 0 {
+			x[i] = tw[k.ti] // tau^t for whole t: no exp
+		} else {
+			x[i] = k.t * lt
+		}
 	}
 	for i := np; i < ne; i++ {
 		k := &terms[i]
@@ -33,8 +36,8 @@ func (e *equation) fused(tau, lt, delta float64) resid {
 		dd, dt := delta-k.eps, tau-k.gamma
 		x[i] = k.t*lt - k.eta*dd*dd - k.beta*dt*dt
 	}
-	for i := range x {
-		x[i] = math.Exp(x[i])
+	for _, i := range e.expAt {
+		x[i] = fastExp(x[i])
 	}
 	// Six named sums rather than a resid: the compiler keeps them in
 	// registers (a struct of more than four fields stays in memory).
@@ -47,7 +50,7 @@ func (e *equation) fused(tau, lt, delta float64) resid {
 		sdd += g * k.d2
 		st += g * k.t
 		stt += g * k.t2
-		sdt += g * k.t * k.fd
+		sdt += g * k.td
 	}
 	for i := np; i < ne; i++ {
 		k := &terms[i]
@@ -63,7 +66,7 @@ func (e *equation) fused(tau, lt, delta float64) resid {
 	for i := ne; i < len(terms); i++ {
 		k := &terms[i]
 		g, t, d := k.n*pw[k.d]*x[i], k.t, k.fd
-		bt, ed := 2*k.beta*tau, 2*k.eta*delta
+		bt, ed := k.beta2*tau, k.eta2*delta
 		a1 := t - bt*(tau-k.gamma)
 		b1 := d - ed*(delta-k.eps)
 		sa += g

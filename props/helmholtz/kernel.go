@@ -20,8 +20,10 @@ type term struct {
 	d, l                  int
 	eta, beta, gamma, eps float64
 	// Filled in by init (derived.go): float d and l, t(t-1), d(d-1),
-	// l(l-1).
-	fd, fl, t2, d2, l2 float64
+	// l(l-1), t d, 2 eta, 2 beta, and for a polynomial term with t a whole
+	// number from 1 to 4, that number (else 0).
+	fd, fl, t2, d2, l2, td, eta2, beta2 float64
+	ti                                  int
 }
 
 // powTerm is an ideal-gas term n tau^t (integration constants and the
@@ -39,6 +41,10 @@ type equation struct {
 	tRed, rhoRed float64
 	nPol, nExp   int
 	terms        []term
+
+	// expAt lists the terms whose tau factor fused takes from an exp (all
+	// but the polynomial terms with ti > 0); filled in by init.
+	expAt []int
 
 	logTau float64     // alpha0 += logTau ln tau
 	pow    []powTerm   // alpha0 += n tau^t
@@ -171,7 +177,7 @@ func (e *equation) idealAt(tau, lt float64) idealTau {
 		x := p.theta * tau
 		em := math.Exp(-x)
 		q := 1 - em
-		v.a += p.n * math.Log(q) // em < 1/2 in range: as exact as Log1p(-em) in the sum
+		v.a += p.n * math.Log1p(-em)
 		v.t += p.n * x * em / q
 		v.tt -= p.n * x * x * em / (q * q)
 	}

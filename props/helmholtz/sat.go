@@ -273,11 +273,15 @@ func (f *Fluid) satPFrom(op string, p float64, g satGuess) (satPoint, error) {
 		return sp, nil
 	}
 	T := f.anc.tsatEstimate(p)
+	var best satPoint // the closest in p, for where round-off stalls the steps
 	for it := 0; it < 30; it++ {
 		T = math.Min(math.Max(T, f.Tmin), f.Tc*(1-1e-12))
 		sp, err := f.satT(op, T)
 		if err != nil {
 			break
+		}
+		if best.p == 0 || math.Abs(sp.p-p) < math.Abs(best.p-p) {
+			best = sp
 		}
 		// dp/dT = (s'' - s') / (v'' - v') (Clausius-Clapeyron)
 		dpdT := (sp.vap.s(f.R) - sp.liq.s(f.R)) / (1/sp.vap.rho - 1/sp.liq.rho)
@@ -286,6 +290,9 @@ func (f *Fluid) satPFrom(op string, p float64, g satGuess) (satPoint, error) {
 			return sp, nil
 		}
 		T -= dT
+	}
+	if best.p != 0 && math.Abs(best.p-p) <= 1e-11*p {
+		return best, nil
 	}
 	return f.satPBracket(op, p)
 }

@@ -5,26 +5,41 @@ import "math"
 // rtsafe finds x between lo and hi with f(x) = 0, where fdf returns f and
 // its derivative, f(lo) < 0 < f(hi) (lo may be the larger). It takes Newton steps
 // and falls back to bisection whenever a step would leave the bracket or
-// not shrink it fast enough. It stops when the step is below tol*|x| and
-// reports whether it did so within the iteration limit.
+// not shrink it fast enough. It stops when the step is below tol*|x|, or
+// when two Newton steps in a row show quadratic convergence that puts the
+// next step below round-off (quadDone), and reports whether it did so
+// within the iteration limit.
 func rtsafe(fdf func(float64) (float64, float64), lo, hi, x0, tol float64) (float64, bool) {
 	x := x0
 	if !(x > math.Min(lo, hi) && x < math.Max(lo, hi)) {
 		x = 0.5 * (lo + hi)
 	}
+	f, df := fdf(x)
+	return rtsafeFrom(fdf, lo, hi, x, f, df, tol)
+}
+
+// rtsafeFrom is rtsafe from a point x within the bracket where f and its
+// derivative df are already known.
+func rtsafeFrom(fdf func(float64) (float64, float64), lo, hi, x, f, df, tol float64) (float64, bool) {
 	dxOld := math.Abs(hi - lo)
 	dx := dxOld
-	f, df := fdf(x)
+	prev := 0.0 // the previous step, if it was a Newton step
 	for it := 0; it < 200; it++ {
+		newton := false
 		if ((x-hi)*df-f)*((x-lo)*df-f) > 0 || math.Abs(2*f) > math.Abs(dxOld*df) {
 			dxOld, dx = dx, 0.5*(hi-lo)
 			x = lo + dx
 		} else {
 			dxOld, dx = dx, f/df
 			x -= dx
+			newton = true
 		}
-		if math.Abs(dx) <= tol*math.Abs(x) || f == 0 {
+		if math.Abs(dx) <= tol*math.Abs(x) || f == 0 || (newton && quadDone(dx, prev, x)) {
 			return x, true
+		}
+		prev = 0
+		if newton {
+			prev = dx
 		}
 		f, df = fdf(x)
 		if f < 0 {
@@ -34,6 +49,16 @@ func rtsafe(fdf func(float64) (float64, float64), lo, hi, x0, tol float64) (floa
 		}
 	}
 	return x, false
+}
+
+// quadDone reports whether a Newton step dx after the Newton step prev
+// (0 if there was none) has left x at the root to round-off: with
+// quadratic convergence the next step is about dx^3/prev^2. It asks for
+// a small, shrinking step, so that convergence is in its asymptotic
+// phase.
+func quadDone(dx, prev, x float64) bool {
+	a, b := math.Abs(dx), math.Abs(prev)
+	return prev != 0 && a <= 1e-6*math.Abs(x) && a < b && a*a*a <= 0x1p-53*math.Abs(x)*b*b
 }
 
 // brent finds x in [a, b] with f(x) = 0 given f(a) and f(b) of opposite

@@ -162,7 +162,7 @@ func (f *Fluid) densityFast(tp *tauPart, T, p float64) (float64, bool, bool) {
 	case p < a.p*(1-mp):
 		hi := a.rhoV * (1 + 1e-3 + 10*f.anc.VErr)
 		if ph, dh := f.pressure(tp, T, hi); ph > p && dh > 0 {
-			rho, ok := f.vapourDensity(tp, T, p, hi)
+			rho, ok := f.densityIn(tp, T, p, 0, hi, 0)
 			return rho, false, ok
 		}
 	case p > a.p*(1+mp):
