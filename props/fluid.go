@@ -9,9 +9,12 @@ import (
 	"vouch/units"
 )
 
+// nameFolder drops the characters a fluid name may be written with or without.
+var nameFolder = strings.NewReplacer("-", "", " ", "", "_", "")
+
 // normalName folds a fluid name for lookup: lower case, no hyphens or spaces.
 func normalName(s string) string {
-	return strings.NewReplacer("-", "", " ", "", "_", "").Replace(strings.ToLower(s))
+	return nameFolder.Replace(strings.ToLower(s))
 }
 
 // isWater reports whether a fluid name means water (IAPWS-IF97).
