@@ -29,7 +29,7 @@ var commands []command
 func init() {
 	commands = []command{
 		{"run", "[--json] FILE", "evaluate a calc and print its results and checks", cmdRun},
-		{"render", "FILE... [-o DIR]", "write the HTML package of each calc", cmdRender},
+		{"render", "FILE... [-o DIR] [--pdf]", "write the HTML package of each calc", cmdRender},
 		{"sign", "PACKAGE --role ROLE [--key KEY]", "verify, reproduce and sign a package for one role", cmdSign},
 		{"verify", "PACKAGE [--signers FILE]", "check a package's signatures and reproduce it from git", cmdVerify},
 		{"diff", "FILE [--from REV] [--to REV]", "show what changed in a calc between two revisions", cmdDiff},
