@@ -16,8 +16,8 @@
 // Every property follows from the reduced derivatives of alpha. The solvers
 // find the density from (T, p) on the right branch, the saturation state by
 // equal pressure and equal Gibbs energy on both phases, and states from
-// (p, h), (p, s), (h, s), (T, x) and (p, x), with the phase found first and
-// two-phase states from the lever rule. An input outside an equation's
+// (p, h), (p, s), (p, v), (h, s), (T, x) and (p, x), with the phase found
+// first and two-phase states from the lever rule. An input outside an equation's
 // stated range is a *RangeError; a state the solvers cannot settle (for
 // instance too near the critical point) is a *SolveError. No function
 // returns NaN or extrapolates silently.

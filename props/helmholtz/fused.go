@@ -1,10 +1,11 @@
 package helmholtz
 
 // fused evaluates the residual part at one (tau, delta) with at most one
-// exp per term (none for a polynomial term with t a whole number), folding the tau factor, the exp(-delta^l) factor and the
-// Gaussian factor into one exponent. It gives the same sums as
-// newTauPart followed by residual and is used where T changes at every
-// call; lt = ln tau.
+// exp per term (none for a polynomial term with t a whole number),
+// folding the tau factor, the exp(-delta^l) factor and the Gaussian
+// factor into one exponent. It gives the same sums as newTauPart followed
+// by residual (to round-off) and is used where T changes at every call;
+// lt = ln tau.
 //
 // It works in three passes: the exponents of all terms, then their exps
 // (fastExp) in a loop that holds nothing else live across the calls, then
