@@ -72,8 +72,10 @@ func Fluid(name string, a, b units.Quantity) (*State, error) {
 		p, err = f.StateTX(qa.V, qb.V)
 	case "T,v":
 		p, err = f.StateTRho(qa.V, 1/qb.V)
+	case "p,v":
+		p, err = f.StatePV(qa.V, qb.V)
 	default:
-		return nil, fmt.Errorf("%s is not a pair the fluid functions can solve; use one of (p, T), (p, h), (p, s), (h, s), (p, x), (T, x), (T, v), (T, rho)", call)
+		return nil, fmt.Errorf("%s is not a pair the fluid functions can solve; use one of (p, T), (p, h), (p, s), (h, s), (p, x), (T, x), (T, v), (T, rho), (p, v), (p, rho)", call)
 	}
 	if err != nil {
 		return nil, fluidError(call, f, err)

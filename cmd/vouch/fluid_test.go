@@ -31,10 +31,11 @@ func TestFluidPairsThroughRun(t *testing.T) {
 	single := []trip{
 		{"T_ph", "T"}, {"T_ps", "T"}, {"p_hs", "p"}, {"T_hs", "T"},
 		{"p_Tv", "p"}, {"p_Trho", "p"}, {"h_Trho", "h"}, {"h_sT", "h"},
+		{"T_pv", "T"}, {"T_prho", "T"},
 	}
 	twoPhase := []trip{
 		{"T_px", "T"}, {"x_ph", "x"}, {"x_ps", "x"}, {"x_hs", "x"}, {"p_hs", "p"},
-		{"x_Tv", "x"}, {"x_Trho", "x"}, {"T_sat", "T"}, {"p_sat", "p"},
+		{"x_Tv", "x"}, {"x_Trho", "x"}, {"x_pv", "x"}, {"x_prho", "x"}, {"T_sat", "T"}, {"p_sat", "p"},
 		{"h_lin", "h"}, {"s_lin", "s"}, {"v_lin", "v"},
 		{"hf", "hf_sat"}, {"hg", "hg_sat"}, {"sf", "sf_sat"}, {"sg", "sg_sat"},
 	}
@@ -172,10 +173,9 @@ func TestFluidBadInputsThroughRun(t *testing.T) {
 		`a = fluid("isopentane", 1 bar, 2 bar)`:       `fluid("isopentane", p, p) is not a pair the fluid functions can solve`,
 		`a = fluid("isopentane", 1 bar)`:              `takes 3 arguments, not 2`,
 		`a = fluid_sat("isopentane", 1 m)`:            `fluid_sat needs a pressure or a temperature, not length`,
-		// (p, v) and (p, rho) are accepted by water() but not yet by fluid()
-		// for the organic fluids; the refusal names the pairs that work.
-		`a = fluid("R-245fa", 1 bar, 1 m^3/kg)`:     `is not a pair the fluid functions can solve; use one of`,
-		`a = fluid("isopentane", 1 bar, 10 kg/m^3)`: `is not a pair the fluid functions can solve; use one of`,
+		// A specific volume beyond the vapour at the highest temperature of
+		// the equation at that pressure is out of range.
+		`a = fluid("R-245fa", 1 bar, 1 m^3/kg)`: `is above the 0.270684 m^3/kg limit`,
 	}
 	dir := t.TempDir()
 	for line, want := range cases {
