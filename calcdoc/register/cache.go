@@ -1,6 +1,8 @@
 package register
 
 import (
+	"vouch/calcdoc"
+
 	"bytes"
 	"encoding/json"
 	"fmt"
@@ -74,7 +76,7 @@ func (c *cache) write(out, name string, entries []*Entry) error {
 	if bytes.Equal(c.files[dest], b) {
 		return nil
 	}
-	return writeAtomic(dest, b)
+	return calcdoc.WriteFileAtomic(dest, b)
 }
 
 // prune is for a whole run: it removes the packages of calcs no longer

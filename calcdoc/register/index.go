@@ -49,7 +49,7 @@ func (r *run) writeIndex() (string, error) {
 		return "", err
 	}
 	dest := filepath.Join(r.opt.Out, "index.html")
-	return dest, writeAtomic(dest, out.Bytes())
+	return dest, calcdoc.WriteFileAtomic(dest, out.Bytes())
 }
 
 // view builds the index from the entries, in register order.

@@ -108,7 +108,7 @@ func (w *worker) render(calc, path string, src []byte) (*Entry, error) {
 		return e, nil
 	}
 	e.Package = packagePath(calc)
-	return e, writeAtomic(filepath.Join(w.run.opt.Out, filepath.FromSlash(e.Package)), html)
+	return e, calcdoc.WriteFileAtomic(filepath.Join(w.run.opt.Out, filepath.FromSlash(e.Package)), html)
 }
 
 // entryOf describes an evaluated calc: front matter, checks, data files and

@@ -84,28 +84,3 @@ func DefaultOut(dir string) (string, error) {
 func packagePath(calc string) string {
 	return strings.TrimSuffix(calc, calcSuffix) + ".html"
 }
-
-// writeAtomic writes data to a temporary file beside dest and renames it
-// into place.
-func writeAtomic(dest string, data []byte) error {
-	if err := os.MkdirAll(filepath.Dir(dest), 0o755); err != nil {
-		return err
-	}
-	tmp, err := os.CreateTemp(filepath.Dir(dest), ".vouch-*.tmp")
-	if err != nil {
-		return err
-	}
-	defer os.Remove(tmp.Name())
-	if _, err := tmp.Write(data); err != nil {
-		tmp.Close()
-		return err
-	}
-	if err := tmp.Chmod(0o644); err != nil {
-		tmp.Close()
-		return err
-	}
-	if err := tmp.Close(); err != nil {
-		return err
-	}
-	return os.Rename(tmp.Name(), dest)
-}

@@ -43,7 +43,7 @@ func cmdDiff(args []string, stdout, stderr io.Writer) int {
 func writeDiffReport(df *calcdoc.Diff, dest string, all bool, stdout, stderr io.Writer) int {
 	html, err := df.HTML(all)
 	if err == nil {
-		err = writeAtomic(dest, html)
+		err = calcdoc.WriteFileAtomic(dest, html)
 	}
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)

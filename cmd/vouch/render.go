@@ -3,7 +3,6 @@ package main
 import (
 	"fmt"
 	"io"
-	"os"
 	"path/filepath"
 	"strings"
 
@@ -75,29 +74,4 @@ func packagePath(path, outDir string) string {
 		return filepath.Join(filepath.Dir(path), base)
 	}
 	return filepath.Join(outDir, base)
-}
-
-// writeAtomic writes to a temporary file in the same directory and renames
-// it into place, so a reader never sees a partial package.
-func writeAtomic(dest string, data []byte) error {
-	if err := os.MkdirAll(filepath.Dir(dest), 0o755); err != nil {
-		return err
-	}
-	tmp, err := os.CreateTemp(filepath.Dir(dest), ".vouch-*.tmp")
-	if err != nil {
-		return err
-	}
-	defer os.Remove(tmp.Name())
-	if _, err := tmp.Write(data); err != nil {
-		tmp.Close()
-		return err
-	}
-	if err := tmp.Chmod(0o644); err != nil {
-		tmp.Close()
-		return err
-	}
-	if err := tmp.Close(); err != nil {
-		return err
-	}
-	return os.Rename(tmp.Name(), dest)
 }

@@ -87,8 +87,8 @@ func writePackage(dest string, html []byte) error {
 // a temporary file renamed into place: the manifest first, so that a
 // package on disk never has an older manifest beside it.
 func writePackageFiles(dest string, html, manifest []byte) error {
-	if err := writeAtomic(calcdoc.ManifestPath(dest), manifest); err != nil {
+	if err := calcdoc.WriteFileAtomic(calcdoc.ManifestPath(dest), manifest); err != nil {
 		return fmt.Errorf("manifest of %s: %w", filepath.Base(dest), err)
 	}
-	return writeAtomic(dest, html)
+	return calcdoc.WriteFileAtomic(dest, html)
 }
