@@ -174,17 +174,7 @@ func UnitText(u units.Unit) string {
 	if len(num) == 0 && len(den) == 0 {
 		return ""
 	}
-	n := strings.Join(num, "·")
-	if n == "" {
-		n = "1"
-	}
-	switch len(den) {
-	case 0:
-		return n
-	case 1:
-		return n + "/" + den[0]
-	}
-	return n + "/(" + strings.Join(den, "·") + ")"
+	return units.JoinFraction(num, den, "·")
 }
 
 // unitMathML writes a unit after a number.

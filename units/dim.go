@@ -142,8 +142,13 @@ func (d Dim) String() string {
 }
 
 // joinFraction writes numerator and denominator factors as canonical unit text.
-func joinFraction(num, den []string) string {
-	n := strings.Join(num, "*")
+func joinFraction(num, den []string) string { return JoinFraction(num, den, "*") }
+
+// JoinFraction writes unit factors as a fraction: the numerator factors
+// joined by sep, then "/" and the denominator, parenthesised when it has
+// several factors: kJ/(kg*K). An empty numerator is "1".
+func JoinFraction(num, den []string, sep string) string {
+	n := strings.Join(num, sep)
 	if n == "" {
 		n = "1"
 	}
@@ -153,7 +158,7 @@ func joinFraction(num, den []string) string {
 	case 1:
 		return n + "/" + den[0]
 	}
-	return n + "/(" + strings.Join(den, "*") + ")"
+	return n + "/(" + strings.Join(den, sep) + ")"
 }
 
 // powText writes sym^n, or sym for n == 1.
