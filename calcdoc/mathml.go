@@ -119,8 +119,14 @@ func (m *mathml) name(name string) {
 func (m *mathml) value(v any, u units.Unit) {
 	switch x := v.(type) {
 	case units.Quantity:
-		if u.Dim != x.D || u.Factor == 0 || (m.kelvin && x.D == units.DimTemperature) {
+		switch {
+		case m.kelvin && x.D == units.DimTemperature:
+			u = units.DefaultUnit(x) // products use the kelvin value
+		case u.Dim != x.D || u.Factor == 0:
 			u = units.DefaultUnit(x)
+			if x.T == units.Abs {
+				u = celsius // an absolute temperature as engineers read it
+			}
 		}
 		m.w(quantityMathML(x, u, m.digits, m.ctx))
 	case bool:
@@ -303,3 +309,5 @@ func (m *mathml) solve(v *eval.Call) {
 	m.node(v.Args[2])
 	m.w("<mo>]</mo></mrow>")
 }
+
+var celsius = units.MustParse("degC")
