@@ -60,6 +60,18 @@ func init() {
 		}})
 }
 
+func init() {
+	register(&Func{Name: "fluid_crit", Args: "\"NAME\"", MinArgs: 1, MaxArgs: 1,
+		Doc: "critical point and range of a fluid's formulation; fields T p rho Tmin Tmax pmax",
+		Call: func(a []any) (any, error) {
+			name, ok := a[0].(string)
+			if !ok {
+				return nil, errorf("fluid_crit needs the fluid's name in quotes, such as fluid_crit(\"isopentane\")")
+			}
+			return props.FluidCrit(name)
+		}})
+}
+
 func twoQuantities(fn string, a []any) (units.Quantity, units.Quantity, error) {
 	x, err := quantityArg(a, len(a)-2)
 	if err != nil {

@@ -155,3 +155,31 @@ func TestIsobarCorners(t *testing.T) {
 		t.Errorf("found %d of the 2 saturation corners", seen)
 	}
 }
+
+func TestFluidCrit(t *testing.T) {
+	w, err := FluidCrit("water")
+	if err != nil {
+		t.Fatal(err)
+	}
+	T, _ := w.Field("T")
+	p, _ := w.Field("p")
+	// IAPWS R7-97(2012) Eqs. (3) and (4): Tc = 647.096 K, pc = 22.064 MPa.
+	if T.(units.Quantity).V != 647.096 || p.(units.Quantity).V != 22.064e6 {
+		t.Errorf("water critical point %v %v", T, p)
+	}
+	c, err := FluidCrit("R-601a")
+	if err != nil {
+		t.Fatal(err)
+	}
+	Tc, _ := c.Field("T")
+	// Lemmon & Span (2006): isopentane Tc = 460.35 K (the equation's own critical point agrees to 0.01 K).
+	if v := Tc.(units.Quantity).V; math.Abs(v-460.35) > 0.01 {
+		t.Errorf("isopentane Tc = %g K", v)
+	}
+	if _, err := c.Field("zz"); err == nil {
+		t.Error("unknown field must fail")
+	}
+	if _, err := FluidCrit("isopentan"); err == nil || !strings.Contains(err.Error(), "did you mean") {
+		t.Errorf("misspelt: %v", err)
+	}
+}
