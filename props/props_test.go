@@ -172,7 +172,7 @@ func TestFluidCrit(t *testing.T) {
 		t.Fatal(err)
 	}
 	Tc, _ := c.Field("T")
-	// Lemmon & Span (2006): isopentane Tc = 460.35 K (the equation's own critical point agrees to 0.01 K).
+	// Lemmon & Span (2006), reducing temperature T_red = 460.35 K (props/helmholtz/testdata coefficient file); the equation's own critical point agrees to 0.01 K.
 	if v := Tc.(units.Quantity).V; math.Abs(v-460.35) > 0.01 {
 		t.Errorf("isopentane Tc = %g K", v)
 	}
