@@ -48,6 +48,7 @@ type Doc struct {
 	diagramBlocks []*diagramBlock
 	byName        map[string]*Item // evaluated definitions, built on first use
 	engine        *eval.Engine     // the engine after evaluation, for substitution
+	prepared      bool             // the Markdown tree is ready to render
 	// Progress, when set, is told how far a sweep has come.
 	Progress func(name string, done, total int)
 	MD       gast.Node // the Markdown tree, for rendering

@@ -84,11 +84,15 @@ var packageTemplate = template.Must(templates.Package(template.FuncMap{"trusted"
 
 // Render writes the package of an evaluated calc without errors.
 func (d *Doc) Render(opt RenderOptions) ([]byte, error) {
-	d.replaceCalcNodes()
-	demoteHeadings(d.MD)
+	if !d.prepared {
+		d.replaceCalcNodes()
+		demoteHeadings(d.MD)
+		d.md.Renderer().AddOptions(renderer.WithNodeRenderers(util.Prioritized(&bodyRenderer{d: d}, 100)))
+		d.prepared = true
+	}
 	var body bytes.Buffer
+	body.Grow(8 * len(d.body)) // MathML is several times the size of its source
 	md := d.md
-	md.Renderer().AddOptions(renderer.WithNodeRenderers(util.Prioritized(&bodyRenderer{d: d}, 100)))
 	if err := md.Renderer().Render(&body, d.body, d.MD); err != nil {
 		return nil, err
 	}
@@ -105,6 +109,7 @@ func (d *Doc) Render(opt RenderOptions) ([]byte, error) {
 	}
 	v.Body = body.String()
 	var out bytes.Buffer
+	out.Grow(body.Len() + 64<<10)
 	if err := packageTemplate.Execute(&out, v); err != nil {
 		return nil, err
 	}

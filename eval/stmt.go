@@ -53,6 +53,7 @@ type Stmt struct {
 	hasUnit bool
 	src     string              // Expr with literals replaced by placeholders
 	tree    ast.Node            // parsed src
+	syntax  Node                // tree in this package's types, for renderers
 	lits    map[string]*Literal // placeholder name → literal
 	deps    []string
 }

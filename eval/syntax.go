@@ -84,8 +84,13 @@ type Other struct {
 	Text string
 }
 
-// Syntax returns the statement's expression tree.
-func (s *Stmt) Syntax() Node { return s.convert(s.tree) }
+// Syntax returns the statement's expression tree, built on first use.
+func (s *Stmt) Syntax() Node {
+	if s.syntax == nil {
+		s.syntax = s.convert(s.tree)
+	}
+	return s.syntax
+}
 
 func (s *Stmt) convert(n ast.Node) Node {
 	b := base{n}
