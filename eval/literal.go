@@ -1,6 +1,7 @@
 package eval
 
 import (
+	"errors"
 	"strconv"
 	"strings"
 	"unicode"
@@ -152,7 +153,7 @@ func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*
 	}
 	u, err := units.Parse(expr[j:uEnd])
 	if err != nil {
-		ue := err.(*units.Error)
+		ue := unitError(err)
 		return nil, &Error{Off: off + j + ue.Off, Msg: ue.Msg}
 	}
 	q := u.Q(v, ctx)
@@ -290,4 +291,13 @@ func collectDeps(n ast.Node, lits map[string]*Literal) []string {
 	}
 	walk(n)
 	return deps
+}
+
+// unitError returns a unit parse error with its offset in the unit text.
+func unitError(err error) *units.Error {
+	var ue *units.Error
+	if errors.As(err, &ue) {
+		return ue
+	}
+	return &units.Error{Msg: err.Error()}
 }

@@ -168,7 +168,7 @@ func (s *Stmt) parseHead(rest string, off int, ctx units.Context) *Error {
 		s.UnitOff = off + i + 1 + (len(rest[i+1:i+end]) - len(strings.TrimLeft(rest[i+1:i+end], " ")))
 		u, err := units.Parse(s.Unit)
 		if err != nil {
-			ue := err.(*units.Error)
+			ue := unitError(err)
 			return &Error{Off: s.UnitOff + ue.Off, Msg: ue.Msg}
 		}
 		s.display, s.hasUnit = u, true
@@ -245,7 +245,7 @@ func ParseInline(text string, off, line int, ctx units.Context) (*Stmt, []*Error
 			s.UnitOff = off + i + 1
 			u, err := units.Parse(s.Unit)
 			if err != nil {
-				ue := err.(*units.Error)
+				ue := unitError(err)
 				return nil, []*Error{{Off: s.UnitOff + ue.Off, Msg: ue.Msg}}
 			}
 			s.display, s.hasUnit = u, true
