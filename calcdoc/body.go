@@ -350,6 +350,9 @@ func stateHTML(st eval.Record, digits int) string {
 // sweepHTML draws a sweep: a table of the shown results at every point,
 // with the checks that fail there, and the plots.
 func (d *Doc) sweepHTML(sw *Sweep) string {
+	if len(sw.Rows) == 0 || len(sw.Rows) != sw.Len() {
+		return "" // a sweep that did not run has an error, and no package is written
+	}
 	var b strings.Builder
 	b.WriteString(sprintf("<figure class=\"sweep\" id=\"L%d\"><figcaption>Sweep of %s (line %d): %d points</figcaption>", sw.Line, NameText(sw.Var), sw.Line, sw.Len()))
 	b.WriteString("<table class=\"grid\"><tr><th>" + NameText(sw.Var) + unitHeading(sw.XUnit) + "</th>")

@@ -104,7 +104,11 @@ func (d *Doc) sweepVary(sw *Sweep, s string, off int) {
 			d.errorf(lo, "write the values in brackets: vary %s over [A, B, C]", name)
 			return
 		}
-		for _, f := range splitList(list[1:len(list)-1], lo+1) {
+		values := splitList(list[1:len(list)-1], lo+1)
+		if len(values) == 0 {
+			d.errorf(lo, "vary %s over [...] needs at least one value", name)
+		}
+		for _, f := range values {
 			d.addBound(sw, f.text, f.off)
 		}
 		return

@@ -75,6 +75,7 @@ func TestSweepErrors(t *testing.T) {
 		"vary p_1 from 1 MPa to 2 MPa in x steps\nshow w": "write: vary p_1 from A to B in N steps (N a whole number of intervals), or vary p_1 over [A, B, C]",
 		"vary p_1 over [1 MPa, 2 MPa]\nshow zz":           "show zz: the calc does not define zz",
 		"vary p_1 over [1 MPa]":                           "a sweep block needs a line: show NAME, ... or plot NAME",
+		"vary p_1 over []\nshow w":                        "vary p_1 over [...] needs at least one value",
 		"show w":                                          "a sweep block needs a line: vary NAME from A to B in N steps, or vary NAME over [A, B]",
 		"vary p_1 over [2 MPa, 120 MPa]\nshow x_2":        "sweep point p_1 = 120.0 MPa: line 4: water(p, T): p = 120 MPa is above the 100 MPa limit",
 		"vary p_1 over [2 MPa, 3 MPa]\nplot w":            "plot w: show w in the same sweep first",
