@@ -49,6 +49,9 @@ type Doc struct {
 	byName        map[string]*Item // evaluated definitions, built on first use
 	engine        *eval.Engine     // the engine after evaluation, for substitution
 	prepared      bool             // the Markdown tree is ready to render
+	// SweepLimit, when set, lowers the number of points a sweep may have
+	// below MaxSweepPoints.
+	SweepLimit int
 	// Progress, when set, is told how far a sweep has come.
 	Progress func(name string, done, total int)
 	MD       gast.Node // the Markdown tree, for rendering

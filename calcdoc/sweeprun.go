@@ -147,8 +147,12 @@ func (d *Doc) sweepValues(eng *eval.Engine, sw *Sweep, input *Item) ([]units.Qua
 	if sw.steps == 0 {
 		return qs, len(qs) > 0
 	}
-	if sw.steps+1 > MaxSweepPoints {
-		d.errorf(sw.VarOff, "vary %s: %d steps are more than the %d a sweep may have", sw.Var, sw.steps, MaxSweepPoints-1)
+	limit := MaxSweepPoints
+	if d.SweepLimit > 0 {
+		limit = d.SweepLimit
+	}
+	if sw.steps+1 > limit {
+		d.errorf(sw.VarOff, "vary %s: %d steps are more than the %d a sweep may have", sw.Var, sw.steps, limit-1)
 		return nil, false
 	}
 	out := make([]units.Quantity, sw.steps+1)
