@@ -185,7 +185,9 @@ func (d *Doc) lineHTML(it *Item) string {
 	if s.Kind == eval.Check {
 		b.WriteString(verdictHTML(o.Pass))
 	}
-	if st, ok := o.Value.(eval.Record); ok {
+	if vs, ok := o.Value.(*eval.Values); ok {
+		b.WriteString("<div class=\"state\">" + d.valuesHTML(vs) + "</div>")
+	} else if st, ok := o.Value.(eval.Record); ok {
 		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits) + "</div>")
 	}
 	if t, ok := o.Value.(*eval.Table); ok {
@@ -308,6 +310,8 @@ func (d *Doc) valueHTML(o *eval.Outcome) string {
 	case string:
 		return html.EscapeString(v)
 	case *eval.Table:
+		return html.EscapeString(v.String())
+	case *eval.Values:
 		return html.EscapeString(v.String())
 	}
 	return "(state)"
@@ -461,4 +465,26 @@ func (d *Doc) sweepXHTML(sw *Sweep, i int) string {
 		return html.EscapeString(sw.Texts[i])
 	}
 	return numberIn(sw.X[i], sw.XUnit, d)
+}
+
+// valuesHTML lists the values a yaml() line read, so a checker sees them.
+func (d *Doc) valuesHTML(vs *eval.Values) string {
+	var parts []string
+	for _, k := range vs.FieldNames() {
+		x, _ := vs.Field(k)
+		var text string
+		switch v := x.(type) {
+		case units.Quantity:
+			text = QuantityText(v, units.DefaultUnit(v), d.Front.Digits, d.Front.Ctx)
+			if v.T == units.Abs {
+				text = QuantityText(v, celsius, d.Front.Digits, d.Front.Ctx)
+			}
+		case string:
+			text = "“" + html.EscapeString(v) + "”"
+		default:
+			text = html.EscapeString(sprintf("%v", v))
+		}
+		parts = append(parts, NameText(k)+"&#8239;=&#8239;"+text)
+	}
+	return strings.Join(parts, ", ")
 }

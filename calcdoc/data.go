@@ -3,9 +3,11 @@ package calcdoc
 import (
 	"errors"
 	"fmt"
+	"go.yaml.in/yaml/v3"
 	"os"
 	"path/filepath"
 	"strings"
+	"vouch/eval"
 
 	"vouch/calcdoc/provenance"
 )
@@ -94,4 +96,44 @@ func (d *Doc) readDataFromDisk(rel string) ([]byte, error) {
 		return nil, fmt.Errorf("%s leads outside the repository", rel)
 	}
 	return os.ReadFile(real)
+}
+
+// valuesReader returns the reader yaml() uses: the same path rules and
+// hashes as csv(), then the file's key: value pairs in order.
+func (d *Doc) valuesReader() func(string) ([]eval.KeyValue, error) {
+	read := d.dataReader()
+	return func(name string) ([]eval.KeyValue, error) {
+		raw, err := read(name)
+		if err != nil {
+			return nil, err
+		}
+		return keyValues(raw)
+	}
+}
+
+// keyValues decodes a YAML mapping of scalars.
+func keyValues(raw []byte) ([]eval.KeyValue, error) {
+	var root yaml.Node
+	if err := yaml.Unmarshal(raw, &root); err != nil {
+		return nil, fmt.Errorf("not valid YAML: %v", strings.TrimPrefix(err.Error(), "yaml: "))
+	}
+	if len(root.Content) == 0 || root.Content[0].Kind != yaml.MappingNode {
+		return nil, fmt.Errorf("a data file holds key: value lines")
+	}
+	m := root.Content[0]
+	var out []eval.KeyValue
+	seen := map[string]int{}
+	for i := 0; i+1 < len(m.Content); i += 2 {
+		k, v := m.Content[i], m.Content[i+1]
+		if v.Kind != yaml.ScalarNode || k.Kind != yaml.ScalarNode {
+			return nil, fmt.Errorf("line %d: %s: a value must be a number, a quantity such as 12.5 MPa, or text in quotes", k.Line, k.Value)
+		}
+		if first, dup := seen[k.Value]; dup {
+			return nil, fmt.Errorf("line %d: %s is already given on line %d", k.Line, k.Value, first)
+		}
+		seen[k.Value] = k.Line
+		quoted := v.Style&(yaml.DoubleQuotedStyle|yaml.SingleQuotedStyle) != 0
+		out = append(out, eval.KeyValue{Key: k.Value, Value: v.Value, Quoted: quoted, Line: v.Line})
+	}
+	return out, nil
 }

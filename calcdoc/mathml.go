@@ -135,6 +135,8 @@ func (m *mathml) value(v any, u units.Unit) {
 		m.text("mtext", "“"+x+"”")
 	case *eval.Table:
 		m.text("mtext", x.String())
+	case *eval.Values:
+		m.text("mtext", x.String())
 	default:
 		m.text("mtext", "(state)")
 	}

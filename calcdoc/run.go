@@ -26,7 +26,7 @@ func ReadFile(path string) (*Doc, error) {
 // errors; a line that fails does not stop the lines after it.
 func (d *Doc) Evaluate() {
 	eng := eval.NewEngine(d.Front.Ctx)
-	eng.Data = d.dataReader()
+	eng.Data, eng.YAML = d.dataReader(), d.valuesReader()
 	for _, it := range d.Items {
 		if it.Err {
 			if it.Stmt.Kind == eval.Def {

@@ -34,7 +34,8 @@ type Outcome struct {
 // Engine evaluates statements in file order and holds the defined names.
 type Engine struct {
 	Ctx    units.Context
-	Data   DataReader // reads csv() files; nil: data files are refused
+	Data   DataReader   // reads csv() files; nil: data files are refused
+	YAML   ValuesReader // reads yaml() files; nil: data files are refused
 	vals   map[string]any
 	defs   map[string]*Stmt
 	failed map[string]bool
@@ -164,7 +165,7 @@ func (s *Stmt) label() string {
 // (a sweep re-evaluates only what depends on the varied input).
 func (e *Engine) Fork(redo map[string]bool) *Engine {
 	f := NewEngine(e.Ctx)
-	f.Data = e.Data
+	f.Data, f.YAML = e.Data, e.YAML
 	for n, v := range e.vals {
 		if !redo[n] {
 			f.vals[n] = v

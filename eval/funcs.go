@@ -157,8 +157,11 @@ func (c *scope) call(v *ast.CallNode) (any, *Error) {
 	if id.Value == "solve" {
 		return c.solve(v)
 	}
-	if id.Value == "csv" {
+	switch id.Value {
+	case "csv":
 		return c.withArgs(v, c.e.readTable)
+	case "yaml":
+		return c.withArgs(v, c.e.readValues)
 	}
 	f, ok := funcs[id.Value]
 	if !ok {
@@ -217,7 +220,7 @@ func (c *scope) withArgs(v *ast.CallNode, f func([]any) (any, error)) (any, *Err
 		args[i] = x
 	}
 	if len(args) != 1 {
-		return nil, c.errAt(v, "csv(\"path\") takes 1 argument, not %d", len(args))
+		return nil, c.errAt(v, "%s(\"path\") takes 1 argument, not %d", v.Callee.String(), len(args))
 	}
 	out, err := f(args)
 	if err != nil {

@@ -289,6 +289,8 @@ func kindOf(x any) string {
 		return "true/false"
 	case string:
 		return "text"
+	case *Values:
+		return "a data file"
 	case Record:
 		return "a state"
 	case *Table:
