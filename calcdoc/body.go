@@ -191,7 +191,7 @@ func (d *Doc) lineHTML(it *Item) string {
 		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits) + "</div>")
 	}
 	if t, ok := o.Value.(*eval.Table); ok {
-		b.WriteString("<div class=\"state\">" + tableHTML(t, d.Front.Digits) + "</div>")
+		b.WriteString("<div class=\"state\">" + tableHTML(t) + "</div>")
 	}
 	if s.Desc != "" {
 		b.WriteString("<div class=\"desc\">" + html.EscapeString(s.Desc) + "</div>")
@@ -238,8 +238,8 @@ func (d *Doc) equation(it *Item) []string {
 	if s.Kind == eval.Def {
 		head = NameMathML(s.Name) + "<mo>=</mo>" + formula
 	}
-	if s.IsLiteralInput() {
-		return []string{head}
+	if s.IsLiteralInput() || (s.IsPlainNumber() && !s.HasDisplayUnit()) {
+		return []string{head} // an input: the value as written is the result
 	}
 	var rest []string
 	if len(s.Deps()) > 0 && !s.IsLoneName() {
@@ -294,6 +294,9 @@ func (d *Doc) resultMathML(o *eval.Outcome) string {
 
 // valueHTML formats an outcome's value as HTML text.
 func (d *Doc) valueHTML(o *eval.Outcome) string {
+	if isNumberInput(o) {
+		return groupDigits(o.Stmt.Expr)
+	}
 	if o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsLiteralInput() {
 		l := o.Stmt.LoneLiteral()
 		s := groupDigits(l.Num)
@@ -433,7 +436,7 @@ func phaseText(st eval.Record, phase string) string {
 }
 
 // tableHTML shows the data a csv() line read, so a checker sees it.
-func tableHTML(t *eval.Table, digits int) string {
+func tableHTML(t *eval.Table) string {
 	var b strings.Builder
 	b.WriteString("<table class=\"grid data\"><tr>")
 	for i, n := range t.Names {
@@ -443,20 +446,12 @@ func tableHTML(t *eval.Table, digits int) string {
 	for r := range t.Cols[0] {
 		b.WriteString("<tr>")
 		for c := range t.Names {
-			b.WriteString("<td class=\"num\">" + cellText(t.Cols[c][r], t.Units[c], digits) + "</td>")
+			b.WriteString("<td class=\"num\">" + html.EscapeString(groupDigits(t.Text[c][r])) + "</td>")
 		}
 		b.WriteString("</tr>")
 	}
 	b.WriteString("</table>")
 	return b.String()
-}
-
-func cellText(q units.Quantity, u units.Unit, digits int) string {
-	v, err := q.In(u, units.StandardAtmosphere)
-	if err != nil {
-		v = q.V
-	}
-	return NumberText(v, digits)
 }
 
 // sweepXHTML is the varied input at point i for the table.
@@ -487,4 +482,10 @@ func (d *Doc) valuesHTML(vs *eval.Values) string {
 		parts = append(parts, NameText(k)+"&#8239;=&#8239;"+text)
 	}
 	return strings.Join(parts, ", ")
+}
+
+// isNumberInput reports whether an outcome is a definition by one plain
+// number, shown as written.
+func isNumberInput(o *eval.Outcome) bool {
+	return o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsPlainNumber() && !o.Stmt.HasDisplayUnit()
 }

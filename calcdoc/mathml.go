@@ -107,6 +107,10 @@ func (m *mathml) name(name string) {
 				m.literal(o.Stmt.LoneLiteral()) // an input as it was written
 				return
 			}
+			if isNumberInput(o) {
+				m.w(numberMathML(o.Value.(units.Quantity).V, 15, true))
+				return
+			}
 			m.value(o.Value, o.Display)
 			return
 		}

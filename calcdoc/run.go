@@ -135,6 +135,9 @@ func (d *Doc) Failed() bool {
 // ValueText formats an outcome's value in its display unit with the calc's
 // significant figures.
 func (d *Doc) ValueText(o *eval.Outcome) string {
+	if isNumberInput(o) {
+		return o.Stmt.Expr
+	}
 	if o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsLiteralInput() {
 		l := o.Stmt.LoneLiteral()
 		if t := l.Unit.String(); t != "1" {

@@ -23,6 +23,7 @@ type Table struct {
 	Names []string
 	Units []units.Unit
 	Cols  [][]units.Quantity
+	Text  [][]string // the values as written, column by column
 }
 
 // MaxTableRows bounds a data table.
@@ -61,7 +62,7 @@ func parseTable(path string, raw []byte, ctx units.Context) (*Table, error) {
 	if err != nil {
 		return nil, errorf("%s: cannot read the header row: %v", path, err)
 	}
-	t := &Table{Path: path, Cols: make([][]units.Quantity, len(head))}
+	t := &Table{Path: path, Cols: make([][]units.Quantity, len(head)), Text: make([][]string, len(head))}
 	for i, h := range head {
 		name, u, err := parseHeader(h)
 		if err != nil {
@@ -117,6 +118,7 @@ func (t *Table) addRow(rec []string, ctx units.Context) error {
 			return errorf("column %s: %q is not a number", t.Names[i], s)
 		}
 		t.Cols[i] = append(t.Cols[i], t.Units[i].Q(v, ctx))
+		t.Text[i] = append(t.Text[i], strings.TrimSpace(s))
 	}
 	return nil
 }

@@ -284,3 +284,16 @@ func (s *Stmt) IsLoneName() bool {
 	}
 	return false
 }
+
+// IsPlainNumber reports whether the expression is one number without a
+// unit (N_t = 12000).
+func (s *Stmt) IsPlainNumber() bool {
+	switch s.tree.(type) {
+	case *ast.IntegerNode, *ast.FloatNode:
+		return true
+	}
+	return false
+}
+
+// HasDisplayUnit reports whether the line names a display unit.
+func (s *Stmt) HasDisplayUnit() bool { return s.hasUnit }
