@@ -102,7 +102,7 @@ func (m *mathml) name(name string) {
 		return
 	}
 	if m.values != nil {
-		if o, ok := m.values(name); ok {
+		if o, ok := m.values(name); ok && !isCollection(o.Value) {
 			if o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsLiteralInput() {
 				m.literal(o.Stmt.LoneLiteral()) // an input as it was written
 				return
@@ -317,3 +317,13 @@ func (m *mathml) solve(v *eval.Call) {
 }
 
 var celsius = units.MustParse("degC")
+
+// isCollection reports whether a value is a table or a set of values, which
+// substitution keeps by name: its contents are shown on its own line.
+func isCollection(v any) bool {
+	switch v.(type) {
+	case *eval.Table, *eval.Values:
+		return true
+	}
+	return false
+}
