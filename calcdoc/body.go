@@ -131,6 +131,7 @@ func demoteHeadings(doc gast.Node) {
 // drawn by goldmark's own HTML renderer, with raw HTML off.
 type bodyRenderer struct{ d *Doc }
 
+// RegisterFuncs registers the drawing of calc blocks, figures and inline values.
 func (r *bodyRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(kindCalcBlock, r.block)
 	reg.Register(kindCalcInline, r.inline)

@@ -14,6 +14,7 @@ type Error struct {
 	Msg string
 }
 
+// Error returns the message; the caller adds the position.
 func (e *Error) Error() string { return e.Msg }
 
 func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }

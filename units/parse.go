@@ -42,6 +42,7 @@ type Error struct {
 	Msg string
 }
 
+// Error returns the message.
 func (e *Error) Error() string { return e.Msg }
 
 // Parse reads a unit expression such as "kJ/(kg*K)" or "m^3/kg".

@@ -81,6 +81,7 @@ type DimError struct {
 	BUnit string // the unit asked for, for "show"
 }
 
+// Error names both dimensions and their units.
 func (e *DimError) Error() string {
 	a := fmt.Sprintf("%s (%s)", e.A.D.Name(), DefaultUnit(e.A).String())
 	switch e.Op {
