@@ -232,3 +232,20 @@ func startAgent(t *testing.T) string {
 	t.Fatal("ssh-agent did not start")
 	return ""
 }
+
+// TestVerifyOtherEngine: a package made by another engine version does not
+// verify, and the report says which engine to verify it with.
+func TestVerifyOtherEngine(t *testing.T) {
+	r := calcRepo(t)
+	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	rep, err := Verify(pkg, VerifyOptions{Engine: "test-2"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if rep.OK() {
+		t.Fatal("a package of another engine verified")
+	}
+	if s := rep.String(); !strings.Contains(s, "the package was made by vouch test and this is vouch test-2") {
+		t.Errorf("the report does not name the engines:\n%s", s)
+	}
+}

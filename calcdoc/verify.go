@@ -226,6 +226,9 @@ func (v *verifier) reproduce() bool {
 		return false
 	}
 	v.repro = r
+	if made := v.m.Engine; made != r.record.Manifest.Engine {
+		v.rep.add(Note, "engine", "the package was made by %s and this is %s; a different engine may differ in the last bits of a result, so verify with %s", made, r.record.Manifest.Engine, made)
+	}
 	f := r.doc.Front
 	v.rep.Calc = strings.TrimSpace(fmt.Sprintf("%s revision %s, %s", f.Number, f.Revision, f.Title))
 	return true
