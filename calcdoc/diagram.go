@@ -154,18 +154,19 @@ func curveSeries(name string, pts []props.CurvePoint, y func(props.CurvePoint) f
 	return s
 }
 
-// cyclePath joins the states in order and back to the first: along the
-// isobar where two states share a pressure (heat exchange), as a straight
-// line otherwise (compression, expansion, throttling).
+// cyclePath joins the states in order and back to the first: heat
+// exchange along the isobar (or, with a pressure drop, along the line on
+// which the pressure falls evenly with the enthalpy), through the dome where
+// it crosses it; compression, expansion and throttling as a straight line.
 func cyclePath(states []diagramState) ([]props.CurvePoint, error) {
 	var out []props.CurvePoint
 	for i := range states {
 		a, b := states[i], states[(i+1)%len(states)]
 		out = append(out, props.CurvePoint{T: a.T, S: a.s, H: a.h})
-		if math.Abs(a.p-b.p) > 1e-4*math.Max(a.p, b.p) || a.h == b.h {
+		if !heatExchange(a, b) {
 			continue
 		}
-		seg, err := props.Isobar(a.fluid, a.p, a.h, b.h, 40)
+		seg, err := props.HeatPath(a.fluid, a.p, b.p, a.h, b.h, 40)
 		if err != nil {
 			return nil, err
 		}
@@ -256,4 +257,21 @@ func domeStart(states []diagramState) float64 {
 		lo = math.Min(lo, s.T)
 	}
 	return lo - 30
+}
+
+// maxHeatPressureDrop is the largest relative pressure change a heat
+// exchange between two diagram states may have; a larger one is a pump,
+// a turbine or a valve.
+const maxHeatPressureDrop = 0.15
+
+// heatExchange reports whether the process from a to b is heat exchange:
+// pressure nearly kept, and enthalpy and entropy changing the same way
+// (a real expansion lowers h but raises s).
+func heatExchange(a, b diagramState) bool {
+	dp := math.Abs(a.p-b.p) / math.Max(a.p, b.p)
+	dh, ds := b.h-a.h, b.s-a.s
+	if dp <= 1e-4 {
+		return dh != 0
+	}
+	return dp <= maxHeatPressureDrop && dh*ds > 0
 }

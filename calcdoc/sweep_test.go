@@ -150,3 +150,26 @@ func BenchmarkGeothermalSweep1000(b *testing.B) {
 		}
 	}
 }
+
+// TestHeatExchangeClassification: which processes a diagram draws along a
+// heat path.
+func TestHeatExchangeClassification(t *testing.T) {
+	st := func(p, h, s float64) diagramState { return diagramState{p: p, h: h, s: s, fluid: "water"} }
+	cases := []struct {
+		name string
+		a, b diagramState
+		want bool
+	}{
+		{"boiler on the isobar", st(16e6, 700e3, 2000), st(16e6, 3400e3, 6400), true},
+		{"boiler with a 5 % pressure drop", st(16.8e6, 700e3, 2000), st(16e6, 3400e3, 6400), true},
+		{"condenser", st(8e3, 2300e3, 7200), st(8e3, 174e3, 590), true},
+		{"real turbine: h falls, s rises", st(16e6, 3400e3, 6400), st(8e3, 2300e3, 7200), false},
+		{"pump: pressure rises far", st(8e3, 174e3, 590), st(16e6, 190e3, 595), false},
+		{"throttle: same enthalpy", st(1e6, 700e3, 2000), st(0.95e6, 700e3, 2010), false},
+	}
+	for _, c := range cases {
+		if got := heatExchange(c.a, c.b); got != c.want {
+			t.Errorf("%s: heat exchange %v, want %v", c.name, got, c.want)
+		}
+	}
+}

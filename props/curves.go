@@ -118,3 +118,26 @@ func stateTS(fluid string, p, h float64) (float64, float64, error) {
 }
 
 func errUnknownFluid(fluid string) error { return fmt.Errorf("unknown fluid %q", fluid) }
+
+// HeatPath returns n states of a heat exchange from (p1, h1) to (p2, h2)
+// in which the pressure changes evenly with the enthalpy; with p1 == p2 it
+// is the isobar, saturation corners included.
+func HeatPath(fluid string, p1, p2, h1, h2 float64, n int) ([]CurvePoint, error) {
+	if p1 == p2 {
+		return Isobar(fluid, p1, h1, h2, n)
+	}
+	out := make([]CurvePoint, 0, n)
+	for i := 0; i < n; i++ {
+		f := float64(i) / float64(n-1)
+		p, h := p1+(p2-p1)*f, h1+(h2-h1)*f
+		if i == n-1 {
+			p, h = p2, h2
+		}
+		T, s, err := stateTS(fluid, p, h)
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, CurvePoint{T: T, S: s, H: h})
+	}
+	return out, nil
+}
