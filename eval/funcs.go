@@ -24,7 +24,13 @@ type Func struct {
 // funcs is the function table; property functions are added in props.go.
 var funcs = map[string]*Func{}
 
-func register(f *Func) { funcs[f.Name] = f }
+func register(f *Func) {
+	if f.Call == nil { // evaluated by the engine itself (solve, csv, yaml)
+		name := f.Name
+		f.Call = func([]any) (any, error) { return nil, errorf("%s must be called in a calc line", name) }
+	}
+	funcs[f.Name] = f
+}
 
 // Funcs returns every function sorted by name, for `vouch functions`.
 func Funcs() []*Func {
