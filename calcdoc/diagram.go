@@ -33,22 +33,15 @@ type diagramBlock struct {
 func (d *Doc) readDiagram(b *gast.FencedCodeBlock) {
 	d.checkClosed(b)
 	blk := &diagramBlock{}
-	lines := b.Lines()
-	for i := 0; i < lines.Len(); i++ {
-		seg := lines.At(i)
-		raw := strings.TrimRight(string(seg.Value(d.body)), "\r\n")
-		code, _, _ := strings.Cut(raw, "//")
-		if strings.TrimSpace(code) == "" {
-			continue
-		}
-		kind, list, ok := strings.Cut(code, ":")
+	for _, l := range d.directives(b) {
+		kind, list, ok := strings.Cut(l.text, ":")
 		kind = strings.TrimSpace(kind)
-		lead := seg.Start + len(code) - len(strings.TrimLeft(code, " \t"))
 		if !ok || (kind != "T-s" && kind != "h-s") {
-			d.errorf(lead, "write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ...")
+			d.errorf(l.off, "write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ...")
 			continue
 		}
-		dg := &Diagram{Kind: kind, Off: lead, States: splitList(list, seg.Start+len(kind)+1+(len(code)-len(strings.TrimLeft(code, " \t")))), block: len(d.diagramBlocks)}
+		lead := l.off
+		dg := &Diagram{Kind: kind, Off: lead, States: splitList(list, l.off+strings.Index(l.text, ":")+1), block: len(d.diagramBlocks)}
 		if len(dg.States) < 2 {
 			d.errorf(lead, "a diagram needs at least two states")
 			continue

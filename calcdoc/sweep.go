@@ -51,16 +51,8 @@ const MaxSweepPoints = 100000
 func (d *Doc) readSweep(b *gast.FencedCodeBlock) {
 	d.checkClosed(b)
 	sw := &Sweep{Off: b.Info.Segment.Start, Line: d.lines.pos(d.Src, b.Info.Segment.Start).Line, block: len(d.Sweeps)}
-	lines := b.Lines()
-	for i := 0; i < lines.Len(); i++ {
-		seg := lines.At(i)
-		raw := strings.TrimRight(string(seg.Value(d.body)), "\r\n")
-		code, _, _ := strings.Cut(raw, "//")
-		if strings.TrimSpace(code) == "" {
-			continue
-		}
-		lead := len(code) - len(strings.TrimLeft(code, " \t"))
-		d.sweepLine(sw, strings.TrimSpace(code), seg.Start+lead)
+	for _, l := range d.directives(b) {
+		d.sweepLine(sw, l.text, l.off)
 	}
 	if sw.Var == "" {
 		d.errorf(sw.Off, "a sweep block needs a line: vary NAME from A to B in N steps, or vary NAME over [A, B]")
@@ -188,5 +180,21 @@ func splitList(s string, off int) []field {
 		}
 	}
 	flush(len(s))
+	return out
+}
+
+// directives returns the lines of a sweep or diagram block without their
+// // comments, trimmed, with the offset of their first character; blank
+// lines are left out.
+func (d *Doc) directives(b *gast.FencedCodeBlock) []field {
+	var out []field
+	lines := b.Lines()
+	for i := 0; i < lines.Len(); i++ {
+		seg := lines.At(i)
+		code, _, _ := strings.Cut(strings.TrimRight(string(seg.Value(d.body)), "\r\n"), "//")
+		if t := strings.TrimSpace(code); t != "" {
+			out = append(out, field{t, seg.Start + len(code) - len(strings.TrimLeft(code, " \t"))})
+		}
+	}
 	return out
 }

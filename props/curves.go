@@ -1,7 +1,6 @@
 package props
 
 import (
-	"fmt"
 	"math"
 
 	"vouch/props/if97"
@@ -116,8 +115,6 @@ func stateTS(fluid string, p, h float64) (float64, float64, error) {
 	}
 	return fluidStateTS(fluid, p, h)
 }
-
-func errUnknownFluid(fluid string) error { return fmt.Errorf("unknown fluid %q", fluid) }
 
 // HeatPath returns n states of a heat exchange from (p1, h1) to (p2, h2)
 // in which the pressure changes evenly with the enthalpy; with p1 == p2 it

@@ -7,7 +7,6 @@ package props
 
 import (
 	"fmt"
-	"sort"
 
 	"vouch/units"
 )
@@ -208,13 +207,4 @@ func pair(fn string, a, b units.Quantity) (ka, kb kind, qa, qb units.Quantity, e
 		kb, b = kV, units.Quantity{V: 1 / b.V, D: units.DimSpecificVolume}
 	}
 	return ka, kb, a, b, nil
-}
-
-func sortedKeys(m map[string]bool) []string {
-	out := make([]string, 0, len(m))
-	for k := range m {
-		out = append(out, k)
-	}
-	sort.Strings(out)
-	return out
 }

@@ -140,7 +140,7 @@ func writeTable(w io.Writer, d *calcdoc.Doc) {
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "line\tname\tvalue\tdescription")
 	for _, it := range d.Shown() {
-		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\n", it.Stmt.Line, it.Stmt.Name, alignValue(d.ValueText(it.Outcome)), it.Stmt.Desc)
+		fmt.Fprintf(tw, "%d\t%s\t%s\t%s\n", it.Stmt.Line, it.Stmt.Name, d.ValueText(it.Outcome), it.Stmt.Desc)
 	}
 	tw.Flush()
 	for _, sw := range d.Sweeps {
@@ -163,8 +163,6 @@ func writeTable(w io.Writer, d *calcdoc.Doc) {
 	tw.Flush()
 	fmt.Fprintf(w, "\n%d checks, %d passed, %d failed\n", len(checks), len(checks)-failed, failed)
 }
-
-func alignValue(s string) string { return strings.TrimSpace(s) }
 
 func cmdUnits(_ []string, stdout, _ io.Writer) int {
 	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', 0)
