@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"errors"
 	stdhtml "html"
+	"net"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -223,8 +224,11 @@ func startAgent(t *testing.T) string {
 		cmd.Wait()
 		os.RemoveAll(dir)
 	})
-	for i := 0; i < 200; i++ {
-		if _, err := os.Stat(sock); err == nil {
+	// The socket file appears when the agent binds, a moment before it
+	// listens: wait until a connection is accepted, not until the file exists.
+	for i := 0; i < 500; i++ {
+		if c, err := net.Dial("unix", sock); err == nil {
+			c.Close()
 			return sock
 		}
 		time.Sleep(10 * time.Millisecond)
