@@ -1,15 +1,12 @@
 package register
 
 import (
-	"bytes"
-	"html/template"
 	"path/filepath"
 	"sort"
 	"strings"
 	"unicode"
 
 	"vouch/calcdoc"
-	"vouch/templates"
 )
 
 // maxErrors is the number of errors the index shows for a broken calc.
@@ -40,16 +37,14 @@ type rowView struct {
 	Signed, Stale, Problem                                  string
 }
 
-var indexTemplate = template.Must(templates.Register(nil))
-
 // writeIndex writes index.html for the whole register.
 func (r *run) writeIndex() (string, error) {
-	var out bytes.Buffer
-	if err := indexTemplate.Execute(&out, r.view()); err != nil {
+	page, err := calcdoc.RenderRegisterIndex(r.view())
+	if err != nil {
 		return "", err
 	}
 	dest := filepath.Join(r.opt.Out, "index.html")
-	return dest, calcdoc.WriteFileAtomic(dest, out.Bytes())
+	return dest, calcdoc.WriteFileAtomic(dest, page)
 }
 
 // view builds the index from the entries, in register order.

@@ -19,7 +19,7 @@ var allowed = map[string][]string{
 	"cmd/vouch":          {"calcdoc", "calcdoc/provenance", "calcdoc/register", "calcdoc/preview", "eval", "units", "props"},
 	"calcdoc":            {"calcdoc/provenance", "eval", "props", "units", "templates", "svgplot", "github.com/yuin/goldmark", "go.yaml.in/yaml/v3"},
 	"calcdoc/provenance": {"github.com/go-git/go-git/v5", "golang.org/x/crypto"},
-	"calcdoc/register":   {"calcdoc", "calcdoc/provenance", "templates"},
+	"calcdoc/register":   {"calcdoc", "calcdoc/provenance"},
 	"calcdoc/preview":    {"calcdoc"},
 	"eval":               {"props", "units", "github.com/expr-lang/expr"},
 	"props":              {"props/if97", "props/helmholtz", "units"},
