@@ -70,10 +70,14 @@ func run(args []string, stdout, stderr io.Writer) int {
 
 func usage(w io.Writer) {
 	fmt.Fprintln(w, "usage: vouch COMMAND [ARGS]\n\ncommands:")
+	width := 0
 	for _, c := range commands {
-		fmt.Fprintf(w, "  %-10s %-28s %s\n", c.name, c.args, c.doc)
+		width = max(width, len(c.args))
 	}
-	fmt.Fprintln(w, "  --version                               print the engine version")
+	for _, c := range commands {
+		fmt.Fprintf(w, "  %-10s %-*s  %s\n", c.name, width, c.args, c.doc)
+	}
+	fmt.Fprintf(w, "  %-10s %-*s  %s\n", "--version", width, "", "print the engine version")
 	fmt.Fprintln(w, "\nexit codes: 0 success, 1 the calc has errors, 2 bad usage, 3 a check or verification failed")
 }
 
