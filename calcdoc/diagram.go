@@ -11,17 +11,20 @@ import (
 	"vouch/units"
 )
 
-// Diagram is one line of a `diagram` block: a T-s or h-s diagram of the
-// cycle through the named states, in order, closed back to the first.
+// Diagram is one diagram of a `diagram` block: a T-s or h-s diagram of the
+// cycle through the named states, in order, closed back to the first, with
+// the open branches (bleed steam, heater drains) of the `branch` lines
+// that follow it.
 //
-//	T-s: st_1, st_2, st_3, st_4
-//	h-s: st_1, st_2, st_3, st_4
+//	T-s: st_1, st_b, st_2, st_3, st_4, st_5
+//	branch: st_b, st_d
 type Diagram struct {
-	Kind   string // "T-s" or "h-s"
-	Off    int
-	States []field
-	SVG    []byte
-	block  int
+	Kind     string // "T-s" or "h-s"
+	Off      int
+	States   []field
+	Branches [][]field
+	SVG      []byte
+	block    int
 }
 
 // diagramBlock groups the diagrams of one block.
@@ -36,17 +39,25 @@ func (d *Doc) readDiagram(b *gast.FencedCodeBlock) {
 	for _, l := range d.directives(b) {
 		kind, list, ok := strings.Cut(l.text, ":")
 		kind = strings.TrimSpace(kind)
-		if !ok || (kind != "T-s" && kind != "h-s") {
-			d.errorf(l.off, "write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ...")
+		if !ok || (kind != "T-s" && kind != "h-s" && kind != "branch") {
+			d.errorf(l.off, "write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ..., and a branch of the cycle above it as branch: st_1, st_2, ...")
 			continue
 		}
-		lead := l.off
-		dg := &Diagram{Kind: kind, Off: lead, States: splitList(list, l.off+strings.Index(l.text, ":")+1), block: len(d.diagramBlocks)}
-		if len(dg.States) < 2 {
-			d.errorf(lead, "a diagram needs at least two states")
+		states := splitList(list, l.off+strings.Index(l.text, ":")+1)
+		if len(states) < 2 {
+			d.errorf(l.off, "a %s line needs at least two states", kind)
 			continue
 		}
-		blk.diagrams = append(blk.diagrams, dg)
+		if kind == "branch" {
+			if len(blk.diagrams) == 0 {
+				d.errorf(l.off, "a branch line belongs to the T-s or h-s line above it in the same block; write that line first")
+				continue
+			}
+			last := blk.diagrams[len(blk.diagrams)-1]
+			last.Branches = append(last.Branches, states)
+			continue
+		}
+		blk.diagrams = append(blk.diagrams, &Diagram{Kind: kind, Off: l.off, States: states, block: len(d.diagramBlocks)})
 	}
 	d.diagramBlocks = append(d.diagramBlocks, blk)
 }
@@ -67,9 +78,11 @@ type diagramState struct {
 	fluid      string
 }
 
-func (d *Doc) diagramStates(dg *Diagram) ([]diagramState, bool) {
+// diagramStates looks up the states of one line of a diagram; fluid, when
+// not empty, is the fluid every state must be of.
+func (d *Doc) diagramStates(fields []field, fluid string) ([]diagramState, bool) {
 	var out []diagramState
-	for _, f := range dg.States {
+	for _, f := range fields {
 		o, ok := d.outcomeOf(f.text)
 		st, isState := (*props.State)(nil), false
 		if ok {
@@ -81,8 +94,11 @@ func (d *Doc) diagramStates(dg *Diagram) ([]diagramState, bool) {
 		}
 		q := func(n string) float64 { v, _ := st.Quantity(n); return v.V }
 		out = append(out, diagramState{name: f.text, p: q("p"), T: q("T"), s: q("s"), h: q("h"), fluid: st.Fluid})
-		if out[0].fluid != st.Fluid {
-			d.errorf(f.off, "diagram: %s is %s, but %s is %s; a diagram shows one fluid", f.text, st.Fluid, out[0].name, out[0].fluid)
+		if fluid == "" {
+			fluid = st.Fluid
+		}
+		if st.Fluid != fluid {
+			d.errorf(f.off, "diagram: %s is %s, but the cycle is %s; a diagram shows one fluid", f.text, st.Fluid, fluid)
 			return nil, false
 		}
 	}
@@ -90,11 +106,19 @@ func (d *Doc) diagramStates(dg *Diagram) ([]diagramState, bool) {
 }
 
 func (d *Doc) drawDiagram(dg *Diagram) {
-	states, ok := d.diagramStates(dg)
+	states, ok := d.diagramStates(dg.States, "")
 	if !ok {
 		return
 	}
 	fluid := states[0].fluid
+	branches := make([][]diagramState, len(dg.Branches))
+	all := states
+	for i, b := range dg.Branches {
+		if branches[i], ok = d.diagramStates(b, fluid); !ok {
+			return
+		}
+		all = append(all[:len(all):len(all)], branches[i]...)
+	}
 	p := &svgplot.Plot{Title: dg.Kind + " diagram (" + fluid + ")", XLabel: "s [kJ/(kg·K)]", YLabel: "T [°C]"}
 	if dg.Kind == "h-s" {
 		p.YLabel = "h [kJ/kg]"
@@ -105,19 +129,32 @@ func (d *Doc) drawDiagram(dg *Diagram) {
 		}
 		return c.T - 273.15
 	}
-	dome, err := props.Dome(fluid, 80, domeStart(states))
+	dome, err := props.Dome(fluid, 80, domeStart(all))
 	if err != nil {
 		d.errorf(dg.Off, "diagram: %v", err)
 		return
 	}
 	p.Series = append(p.Series, curveSeries("saturation line", dome, y, svgplot.Dome))
-	path, err := cyclePath(states)
+	path, err := processPath(states, true)
 	if err != nil {
 		d.errorf(dg.Off, "diagram: %v", err)
 		return
 	}
 	p.Series = append(p.Series, curveSeries("cycle", path, y, svgplot.Process))
-	for _, s := range states {
+	for i, b := range branches {
+		path, err := processPath(b, false)
+		if err != nil {
+			d.errorf(dg.Branches[i][0].off, "diagram: %v", err)
+			return
+		}
+		p.Series = append(p.Series, curveSeries("branch", path, y, svgplot.Branch))
+	}
+	labelled := map[string]bool{}
+	for _, s := range all {
+		if labelled[s.name] {
+			continue
+		}
+		labelled[s.name] = true
 		c := props.CurvePoint{T: s.T, S: s.s, H: s.h}
 		p.Points = append(p.Points, svgplot.Point{Label: stateLabel(s.name), X: s.s / 1000, Y: y(c), Title: s.name})
 	}
@@ -147,13 +184,18 @@ func curveSeries(name string, pts []props.CurvePoint, y func(props.CurvePoint) f
 	return s
 }
 
-// cyclePath joins the states in order and back to the first: heat
-// exchange along the isobar (or, with a pressure drop, along the line on
-// which the pressure falls evenly with the enthalpy), through the dome where
-// it crosses it; compression, expansion and throttling as a straight line.
-func cyclePath(states []diagramState) ([]props.CurvePoint, error) {
+// processPath joins the states in order, and back to the first when
+// closed: heat exchange along the isobar (or, with a pressure drop, along
+// the line on which the pressure falls evenly with the enthalpy), through
+// the dome where it crosses it; compression, expansion and throttling as a
+// straight line.
+func processPath(states []diagramState, closed bool) ([]props.CurvePoint, error) {
 	var out []props.CurvePoint
-	for i := range states {
+	n := len(states)
+	if !closed {
+		n--
+	}
+	for i := 0; i < n; i++ {
 		a, b := states[i], states[(i+1)%len(states)]
 		out = append(out, props.CurvePoint{T: a.T, S: a.s, H: a.h})
 		if !heatExchange(a, b) {
@@ -165,7 +207,11 @@ func cyclePath(states []diagramState) ([]props.CurvePoint, error) {
 		}
 		out = append(out, seg[1:len(seg)-1]...)
 	}
-	out = append(out, props.CurvePoint{T: states[0].T, S: states[0].s, H: states[0].h})
+	end := states[len(states)-1]
+	if closed {
+		end = states[0]
+	}
+	out = append(out, props.CurvePoint{T: end.T, S: end.s, H: end.h})
 	return out, nil
 }
 

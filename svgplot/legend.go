@@ -11,11 +11,14 @@ const (
 
 // drawLegend draws a legend when more than one series has a name, in the
 // corner of the plot area that covers the fewest drawn vertices and
-// markers, and returns the boxes the labels must avoid.
+// markers, and returns the boxes the labels must avoid. Series that share
+// a name and a style share one row.
 func drawLegend(w *writer, series []Series, drawn []vec, marks []mark, l *layout) []rect {
 	var named []Series
+	seen := map[legendRowKey]bool{}
 	for _, s := range series {
-		if s.Name != "" {
+		if k := (legendRowKey{s.Name, s.Style}); s.Name != "" && !seen[k] {
+			seen[k] = true
 			named = append(named, s)
 		}
 	}
@@ -84,4 +87,10 @@ func countInside(vs []vec, r rect) int {
 		}
 	}
 	return n
+}
+
+// legendRowKey identifies a row of the legend.
+type legendRowKey struct {
+	name  string
+	style Style
 }

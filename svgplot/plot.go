@@ -25,7 +25,8 @@ type Plot struct {
 	// DefaultWidth and DefaultHeight.
 	Width, Height float64
 	// Series are the lines and marker sets, drawn in layers by style:
-	// Dome first, then Line and Dashed, then Markers, then Process; within
+	// Dome first, then Line and Dashed, then Markers, then Branch, then
+	// Process; within
 	// a layer in the order given.
 	Series []Series
 	// Points are labelled markers, such as the states of a cycle, drawn
@@ -74,9 +75,12 @@ const (
 	Process
 	// Markers draws each pair as a small dot, without a line.
 	Markers
+	// Branch is a thinner dashed line in the accent colour, for the
+	// branches of a cycle path: bleed steam, heater drains.
+	Branch
 )
 
-var styleNames = [...]string{"line", "dashed", "dome", "process", "markers"}
+var styleNames = [...]string{"line", "dashed", "dome", "process", "markers", "branch"}
 
 // String returns the lowercase name of the style, which is also its CSS class.
 func (s Style) String() string {
@@ -153,7 +157,7 @@ func (p *Plot) validateRanges(add func(string, ...any)) {
 // validate checks series number i (0-based) and returns its number of pairs.
 func (s Series) validate(i int, add func(string, ...any)) int {
 	name := func() string { return fmt.Sprintf("series %d (%q)", i+1, s.Name) }
-	if s.Style < Line || s.Style > Markers {
+	if s.Style < Line || s.Style > Branch {
 		add("%s: unknown style %d", name(), int(s.Style))
 	}
 	if len(s.X) != len(s.Y) {

@@ -42,7 +42,7 @@ func randomPlot(r *rand.Rand) *Plot {
 	for range r.IntN(5) {
 		n := r.IntN(40)
 		p.Series = append(p.Series, Series{
-			Name: strconv.Itoa(r.IntN(3)), X: randomValues(r, n), Y: randomValues(r, n), Style: Style(r.IntN(5)),
+			Name: strconv.Itoa(r.IntN(3)), X: randomValues(r, n), Y: randomValues(r, n), Style: Style(r.IntN(6)),
 		})
 	}
 	xs, ys := randomValues(r, 8), randomValues(r, 8)

@@ -7,7 +7,7 @@ const markerR = 2.4
 
 // layers is the drawing order of the styles: the dome underneath, the
 // cycle path on top.
-var layers = [...]Style{Dome, Line, Dashed, Markers, Process}
+var layers = [...]Style{Dome, Line, Dashed, Markers, Branch, Process}
 
 // styleAttrs returns the presentation attributes of a style's group.
 func styleAttrs(s Style) []string {
@@ -18,6 +18,8 @@ func styleAttrs(s Style) []string {
 		return []string{"fill", "none", "stroke", colDome, "stroke-width", "2.4"}
 	case Process:
 		return []string{"fill", "none", "stroke", colAccent, "stroke-width", "2"}
+	case Branch:
+		return []string{"fill", "none", "stroke", colAccent, "stroke-width", "1.4", "stroke-dasharray", "6 3"}
 	case Markers:
 		return []string{"fill", colInk, "stroke", "none"}
 	}

@@ -189,7 +189,7 @@ func TestPointOutsideRangeIsLeftOut(t *testing.T) {
 }
 
 func TestStyleString(t *testing.T) {
-	want := []string{"line", "dashed", "dome", "process", "markers"}
+	want := []string{"line", "dashed", "dome", "process", "markers", "branch"}
 	for i, w := range want {
 		if got := Style(i).String(); got != w {
 			t.Errorf("Style(%d).String() = %q, want %q", i, got, w)
