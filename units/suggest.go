@@ -15,8 +15,9 @@ func Nearest(s string, candidates []string) string {
 	return best
 }
 
-// editDistance is the Levenshtein distance between two strings, by bytes,
-// with case-only differences counted as half a step rounded down.
+// editDistance is the Levenshtein distance between two strings, by bytes.
+// (props/helmholtz and calcdoc/provenance keep their own copies: the
+// numerics import only math, and provenance does not depend on units.)
 func editDistance(a, b string) int {
 	prev := make([]int, len(b)+1)
 	cur := make([]int, len(b)+1)
