@@ -78,6 +78,9 @@ func Fluid(name string, a, b units.Quantity) (*State, error) {
 		return nil, fmt.Errorf("%s is not a pair the fluid functions can solve; use one of (p, T), (p, h), (p, s), (h, s), (p, x), (T, x), (T, v), (T, rho), (p, v), (p, rho)", call)
 	}
 	if err != nil {
+		if noStateErr(err) {
+			return nil, noStateMessage(call, f.Equation+" for "+f.Name, ka, qa, kb, qb)
+		}
 		return nil, fluidError(call, f, err)
 	}
 	return fluidState(f, p), nil

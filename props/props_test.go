@@ -56,6 +56,11 @@ func TestWaterErrors(t *testing.T) {
 		{q(120, "MPa"), q(300, "K"), "p = 120 MPa is above the 100 MPa limit of IAPWS-IF97"},
 		{q(0, "MPa"), q(300, "K"), "p = 0 Pa must be above zero"},
 		{q(1, "bar"), units.Num(1.2), "water(p, x)"},
+		// Found by FuzzFluid: the region-2 equation met this (h, s) at 91 MPa and 741 K, in
+		// region 3 where it does not hold, and returned that point.
+		{q(2625.01125, "kJ/kg"), q(44.994, "kJ/(kg*K)"), "water(h, s): no state of IAPWS-IF97 has h = 2625.01 kJ/kg and s = 44.994 kJ/(kg*K)"},
+		// Found by FuzzFluid: region 3 at a density far above the one at 100 MPa gave p < 0.
+		{q(706.57142857142856, "K"), q(0.00023915816326530614, "m^3/kg"), "water(T, v): v = 0.000239158 m^3/kg is below the 0.00155925 m^3/kg limit of IAPWS-IF97"},
 	}
 	for _, c := range cases {
 		_, err := Water(c.a, c.b)

@@ -50,7 +50,11 @@ func Water(a, b units.Quantity) (*State, error) {
 		return nil, fmt.Errorf("water(%s, %s) is not a pair the formulation can solve; use one of %s", ka, kb, joinFields(Pairs))
 	}
 	if err != nil {
-		return nil, rangeMessage(fmt.Sprintf("water(%s, %s)", ka, kb), IF97, err)
+		call := fmt.Sprintf("water(%s, %s)", ka, kb)
+		if noStateErr(err) {
+			return nil, noStateMessage(call, IF97, ka, qa, kb, qb)
+		}
+		return nil, rangeMessage(call, IF97, err)
 	}
 	return waterState(p), nil
 }
@@ -111,6 +115,20 @@ func positive(fn string, ka kind, qa units.Quantity, kb kind, qb units.Quantity)
 type rangeError interface {
 	error
 	Detail() (input string, value, limit float64, above bool, reason string)
+}
+
+// noStateErr reports whether err says that no state has the given pair
+// (both numerics packages have such an error).
+func noStateErr(err error) bool {
+	var ns interface{ NoState() bool }
+	return errors.As(err, &ns) && ns.NoState()
+}
+
+// noStateMessage says that no state of a formulation has the two given
+// properties, with their values.
+func noStateMessage(call, formulation string, ka kind, qa units.Quantity, kb kind, qb units.Quantity) error {
+	return fmt.Errorf("%s: no state of %s has %s = %s and %s = %s", call, formulation,
+		ka, showValue(string(ka), qa.V), kb, showValue(string(kb), qb.V))
 }
 
 // rangeMessage turns a numerics range error into a message with values.

@@ -32,6 +32,10 @@ type SolveError struct {
 // Error reads, e.g., "SatT: no solution: too close to the critical point".
 func (e *SolveError) Error() string { return e.Op + ": no solution: " + e.Reason }
 
+// NoState reports that no state of the equation has the inputs (rather
+// than that the solver failed to find one).
+func (e *SolveError) NoState() bool { return e.Reason == whyNoState }
+
 // Reasons used in RangeError.
 const (
 	reasonTmin   = "lowest temperature of the equation"

@@ -72,10 +72,43 @@ func StateHS(h, s float64) (Props, error) {
 			if region == 1 && p < psatEq(math.Min(T, Tc))*(1-1e-9) {
 				return Props{}, below("p", p, psatEq(T), "the state (h, s) would be a liquid below its saturation pressure")
 			}
-			return gibbsState(region, p, T), nil
+			if inRegion(region, p, T) {
+				return gibbsState(region, p, T), nil
+			}
+			// The equation of one region met (h, s) outside that region, where it does not
+			// hold: solve again with the equation of the region the point lies in.
+			if r := regionPT(p, T); r == 3 {
+				if st, ok := region3HS(h, s, p, T); ok {
+					return finish(st), nil
+				}
+			} else if p2, T2, ok := gibbsHS(r, h, s, p, T); ok && checkPT(p2, T2) == nil && inRegion(r, p2, T2) {
+				return gibbsState(r, p2, T2), nil
+			}
 		}
 	}
-	return Props{}, above("p", p, PMax, "no state of IAPWS-IF97 has this (h, s)")
+	if p > PMax {
+		return Props{}, above("p", p, PMax, "no state of IAPWS-IF97 has this (h, s)")
+	}
+	return Props{}, &NoStateError{Pair: "(h, s)"}
+}
+
+// inRegion reports whether a valid (p, T) lies in region 1, 2 or 5 of R7-97 Figure 1, or on
+// its boundary to within rounding (1e-9 relative in p).
+func inRegion(region int, p, T float64) bool {
+	const tol = 1e-9
+	switch region {
+	case 1:
+		return T <= T13 && p >= psatEq(T)*(1-tol)
+	case 2:
+		switch {
+		case T <= T13:
+			return p <= psatEq(T)*(1+tol)
+		case T <= TB23Max:
+			return p <= PB23(T)*(1+tol) && T <= T25
+		}
+		return T <= T25
+	}
+	return T >= T25
 }
 
 // startHS places (h, s) in region 1, 2 or 3 and returns a start (p, T).

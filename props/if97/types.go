@@ -123,6 +123,19 @@ func (e *RangeError) Error() string {
 	return msg
 }
 
+// NoStateError reports a pair of properties that no state of IAPWS-IF97 has, although each lies
+// within the formulation's range on its own (for example an entropy far above any the
+// formulation reaches at that enthalpy). Pair names the inputs, as "(h, s)".
+type NoStateError struct {
+	Pair string
+}
+
+// Error returns "if97: no state of IAPWS-IF97 has this (h, s)".
+func (e *NoStateError) Error() string { return "if97: no state of IAPWS-IF97 has this " + e.Pair }
+
+// NoState reports that the error says no state has the inputs.
+func (e *NoStateError) NoState() bool { return true }
+
 // below and above build RangeErrors.
 func below(input string, value, limit float64, reason string) error {
 	return &RangeError{Input: input, Value: value, Limit: limit, Reason: reason}
