@@ -153,9 +153,61 @@ func TestRandomStates(t *testing.T) {
 		checkState(t, call, st, pr.a, pr.b, va, vb)
 		ok[name+" "+pr.a+","+pr.b]++
 	}
+	total := 0
 	for _, name := range fuzzFluids {
 		for _, pr := range fuzzPairs {
-			t.Logf("%-10s (%s, %s): %d states", name, pr.a, pr.b, ok[name+" "+pr.a+","+pr.b])
+			c := ok[name+" "+pr.a+","+pr.b]
+			total += c
+			t.Logf("%-10s (%s, %s): %d states", name, pr.a, pr.b, c)
 		}
 	}
+	if total < n*3/10 {
+		t.Errorf("only %d of %d calls gave a state to check; the generator has drifted", total, n)
+	}
+}
+
+// TestRandomSaturation: the saturation line at random pressures and
+// temperatures is an error or finite, with the given property given back
+// (1e-9 relative), liquid below vapour in h, s and v up to the critical
+// point, and hfg = hg - hf, sfg = sg - sf.
+func TestRandomSaturation(t *testing.T) {
+	r := rand.New(rand.NewPCG(3, 5))
+	got := map[string]int{}
+	for range 8000 {
+		name := fuzzFluids[r.IntN(len(fuzzFluids))]
+		kind, unit := "p", "Pa"
+		if r.IntN(2) == 0 {
+			kind, unit = "T", "K"
+		}
+		v := fuzzSpan(kind, r.Float64())
+		sat, err := FluidSat(name, q(v, unit))
+		if err != nil {
+			continue
+		}
+		call := fmt.Sprintf("fluid_sat(%q, %s = %.17g)", name, kind, v)
+		f := map[string]float64{}
+		for _, n := range satFields {
+			qv, ok := sat.Quantity(n)
+			if !ok || math.IsNaN(qv.V) || math.IsInf(qv.V, 0) {
+				t.Fatalf("%s: %s = %v", call, n, qv.V)
+			}
+			f[n] = qv.V
+		}
+		if math.Abs(f[kind]-v) > 1e-9*v {
+			t.Fatalf("%s: %s = %.17g back", call, kind, f[kind])
+		}
+		if !(f["hf"] <= f["hg"] && f["sf"] <= f["sg"] && f["vf"] <= f["vg"] && f["p"] > 0) {
+			t.Fatalf("%s: liquid and vapour out of order: %v", call, f)
+		}
+		if math.Abs(f["hfg"]-(f["hg"]-f["hf"])) > 1e-9*math.Abs(f["hg"]) || math.Abs(f["sfg"]-(f["sg"]-f["sf"])) > 1e-9*math.Abs(f["sg"]) {
+			t.Fatalf("%s: hfg or sfg is not the difference: %v", call, f)
+		}
+		got[name]++
+	}
+	for _, name := range fuzzFluids {
+		if got[name] < 300 {
+			t.Errorf("%s: only %d saturation points checked; the generator has drifted", name, got[name])
+		}
+	}
+	t.Logf("saturation points checked: %v", got)
 }
