@@ -8,6 +8,7 @@ import (
 	"math"
 	"strconv"
 	"strings"
+	"unicode"
 
 	"vouch/units"
 )
@@ -98,6 +99,9 @@ func parseHeader(h string) (string, units.Unit, error) {
 	if name == "" {
 		return "", units.Unit{}, errorf("a column needs a name, such as T_cw [degC]")
 	}
+	if strings.IndexFunc(name, unicode.IsControl) >= 0 {
+		return "", units.Unit{}, errorf("column name %q holds a control character", name)
+	}
 	if !ok {
 		return name, units.Unit{Factor: 1}, nil
 	}
@@ -117,7 +121,11 @@ func (t *Table) addRow(rec []string, ctx units.Context) error {
 		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
 			return errorf("column %s: %q is not a number", t.Names[i], s)
 		}
-		t.Cols[i] = append(t.Cols[i], t.Units[i].Q(v, ctx))
+		q := t.Units[i].Q(v, ctx)
+		if math.IsInf(q.V, 0) {
+			return errorf("column %s: %s in its unit is beyond the range of numbers", t.Names[i], strings.TrimSpace(s))
+		}
+		t.Cols[i] = append(t.Cols[i], q)
 		t.Text[i] = append(t.Text[i], strings.TrimSpace(s))
 	}
 	return nil
@@ -193,10 +201,27 @@ func interpolate(t *Table, xn string, xs, ys []units.Quantity, x units.Quantity,
 	for i < len(xs)-1 && (xs[i].V-x.V)*sign < 0 {
 		i++
 	}
-	f := (x.V - xs[i-1].V) / (xs[i].V - xs[i-1].V)
 	y := ys[i-1]
-	y.V += f * (ys[i].V - ys[i-1].V)
+	y.V = lerp(ys[i-1].V, ys[i].V, fraction(xs[i-1].V, xs[i].V, x.V))
 	return y, nil
+}
+
+// fraction is (x - a)/(b - a), computed in halves when b - a would
+// overflow (values near the largest float64).
+func fraction(a, b, x float64) float64 {
+	if d := b - a; !math.IsInf(d, 0) {
+		return (x - a) / d
+	}
+	return (x/2 - a/2) / (b/2 - a/2)
+}
+
+// lerp is a + f(b - a) for f in [0, 1], or (1 - f)a + fb when b - a would
+// overflow; either stays between a and b.
+func lerp(a, b, f float64) float64 {
+	if d := b - a; !math.IsInf(d, 0) {
+		return a + f*d
+	}
+	return (1-f)*a + f*b
 }
 
 // String describes a table for listings.
