@@ -59,6 +59,7 @@ func TestDataFileErrors(t *testing.T) {
 		"a: twelve\n":  `"twelve" is not a number with an optional unit (write text in quotes)`,
 		"- 1\n- 2\n":   "a data file holds key: value lines",
 		"a: [\n":       "not valid YAML",
+		"a: 1e308 d\n": "d.yaml:1: a: 1e308 d is beyond the range of numbers in SI units",
 	}
 	for body, want := range cases {
 		dir := writeTree(t, map[string]string{"d.yaml": body, "c.calc.md": "```calc\nd = yaml(\"d.yaml\")\n```\n"})

@@ -1,6 +1,7 @@
 package eval
 
 import (
+	"math"
 	"sort"
 	"strconv"
 	"strings"
@@ -93,7 +94,11 @@ func valueOf(kv KeyValue, ctx units.Context) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	return u.Q(x, ctx), nil
+	q := u.Q(x, ctx)
+	if math.IsInf(q.V, 0) {
+		return nil, errorf("%s is beyond the range of numbers in SI units", strings.TrimSpace(kv.Value))
+	}
+	return q, nil
 }
 
 // String describes the file for listings.
