@@ -37,6 +37,9 @@ var errorCases = []struct {
 	{"list not supported", "a = [1, 2]", "1:5: a list is not supported in a calc expression"},
 	{"disabled builtin", "a = now()", "1:5: unknown function now"},
 	{"field of a number", "a = 1 m\nb = a.h", "2:7: a quantity of length (m) has no fields; .h needs a state"},
+	{"number too large", "a = 2 * 1e400", "1:9: the number 1e400 is beyond the range of numbers (about ±1.8e308)"},
+	{"literal too large", "a = 1e400 m", "1:5: the number 1e400 is beyond the range of numbers (about ±1.8e308)"},
+	{"literal too large in SI", "a = 1e308 MPa", "1:5: 1e308 MPa is beyond the range of numbers in SI units"},
 }
 
 func TestErrorMessages(t *testing.T) {

@@ -80,6 +80,7 @@ func TestSweepErrors(t *testing.T) {
 		"vary p_1 over [2 MPa, 120 MPa]\nshow x_2":        "sweep point p_1 = 120.0 MPa: line 4: water(p, T): p = 120 MPa is above the 100 MPa limit",
 		"vary p_1 over [2 MPa, 3 MPa]\nplot w":            "plot w: show w in the same sweep first",
 		"vary p_1 over [2 MPa]\nfrobnicate w":             "unknown sweep line \"frobnicate\"; a sweep has vary, show and plot lines",
+		"vary p_1 over [2 MPa]\nshow w [MPa]":             "show w [MPa]: cannot show specific enthalpy (kJ/kg) in MPa, which is pressure",
 	}
 	for body, want := range cases {
 		d := Read(filepath.Join(t.TempDir(), "s.calc.md"), []byte(sweepCalc+"```sweep\n"+body+"\n```\n"))

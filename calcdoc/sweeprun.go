@@ -193,6 +193,12 @@ func (d *Doc) sweepPoint(eng *eval.Engine, sw *Sweep, redo map[string]bool, item
 			d.errorf(c.Off, "show %s: %s is not a number or quantity", c.Name, c.Name)
 			return false
 		}
+		if c.HasUnit {
+			if _, err := q.In(c.Unit, d.Front.Ctx); err != nil {
+				d.errorf(c.Off, "show %s [%s]: %v", c.Name, c.Unit, err)
+				return false
+			}
+		}
 		row[i] = q
 	}
 	sw.Rows = append(sw.Rows, row)

@@ -2,6 +2,7 @@ package eval
 
 import (
 	"errors"
+	"math"
 	"strconv"
 	"strings"
 	"unicode"
@@ -63,7 +64,33 @@ func (s *Stmt) exprError(err error) *Error {
 	if strings.HasPrefix(msg, "compilation failed: ") {
 		msg = sprintf("expression has more than %d parts", MaxNodes)
 	}
-	return &Error{Off: s.offOfRune(fe.From), Msg: msg}
+	off := s.offOfRune(fe.From)
+	if strings.Contains(msg, "value out of range") {
+		start, end := numberAround(s.src, off-s.ExprOff)
+		off = s.ExprOff + start
+		msg = sprintf("the number %s is beyond the range of numbers (about ±1.8e308)", s.src[start:end])
+	}
+	return &Error{Off: off, Msg: msg}
+}
+
+// numberAround returns the bounds of the decimal number in src that holds
+// byte i (or ends just before it).
+func numberAround(src string, i int) (start, end int) {
+	i = min(max(i, 0), len(src))
+	in := func(k int) bool {
+		c := src[k]
+		return isDigit(c) || c == '.' || c == 'e' || c == 'E' ||
+			(c == '+' || c == '-') && k > 0 && (src[k-1] == 'e' || src[k-1] == 'E')
+	}
+	start = i
+	for start > 0 && in(start-1) {
+		start--
+	}
+	end = i
+	for end < len(src) && in(end) {
+		end++
+	}
+	return start, end
 }
 
 // offOfRune converts a rune index into the rewritten expression to a file
@@ -148,7 +175,10 @@ func rewriteLiterals(expr string, off int, ctx units.Context) (string, map[strin
 
 func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*Literal, *Error) {
 	v, err := strconv.ParseFloat(expr[i:numEnd], 64)
-	if err != nil {
+	if errors.Is(err, strconv.ErrRange) && math.IsInf(v, 0) {
+		return nil, &Error{Off: off + i, Msg: sprintf("the number %s is beyond the range of numbers (about ±1.8e308)", expr[i:numEnd])}
+	}
+	if err != nil && !errors.Is(err, strconv.ErrRange) {
 		return nil, &Error{Off: off + i, Msg: sprintf("cannot read the number %s", expr[i:numEnd])}
 	}
 	u, err := units.Parse(expr[j:uEnd])
@@ -157,6 +187,9 @@ func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*
 		return nil, &Error{Off: off + j + ue.Off, Msg: ue.Msg}
 	}
 	q := u.Q(v, ctx)
+	if math.IsInf(q.V, 0) {
+		return nil, &Error{Off: off + i, Msg: sprintf("%s is beyond the range of numbers in SI units", expr[i:uEnd])}
+	}
 	return &Literal{Text: expr[i:uEnd], Num: expr[i:numEnd], Unit: u, Q: q, Off: off + i}, nil
 }
 

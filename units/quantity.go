@@ -64,13 +64,20 @@ func (q Quantity) In(u Unit, ctx Context) (float64, error) {
 	if q.D != u.Dim {
 		return 0, &DimError{Op: "show", A: q, B: u.Dim, BUnit: u.String()}
 	}
+	var v float64
 	switch {
 	case u.Kind == Gauge:
-		return (q.V - ctx.Atmosphere) / u.Factor, nil
+		v = (q.V - ctx.Atmosphere) / u.Factor
 	case u.Kind == AbsTemp && q.T == Rel:
 		return 0, fmt.Errorf("a temperature difference cannot be shown in %s; use K or delta_%s", u, u)
+	default:
+		v = (q.V - u.Offset) / u.Factor
 	}
-	return (q.V - u.Offset) / u.Factor, nil
+	if math.IsInf(v, 0) && !math.IsInf(q.V, 0) {
+		du := DefaultUnit(q)
+		return 0, fmt.Errorf("%g %s is beyond the range of numbers in %s; choose a larger unit", (q.V-du.Offset)/du.Factor, du, u)
+	}
+	return v, nil
 }
 
 // DimError is a dimension mismatch between two operands.

@@ -211,3 +211,16 @@ func FuzzParse(f *testing.F) {
 		}
 	})
 }
+
+// TestInOverflow: a value that does not fit in the unit asked for is an
+// error, never an infinite number to print.
+func TestInOverflow(t *testing.T) {
+	p := Quantity{V: 1e306, D: DimPressure}
+	_, err := p.In(MustParse("uPa"), StandardAtmosphere)
+	if err == nil || err.Error() != "1e+297 GPa is beyond the range of numbers in uPa; choose a larger unit" {
+		t.Errorf("1e306 Pa in uPa: %v", err)
+	}
+	if v, err := p.In(MustParse("GPa"), StandardAtmosphere); err != nil || v != 1e297 {
+		t.Errorf("1e306 Pa in GPa = %g, %v", v, err)
+	}
+}

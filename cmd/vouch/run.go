@@ -54,7 +54,10 @@ func cmdRun(args []string, stdout, stderr io.Writer) int {
 		return exitErrors
 	}
 	if *asJSON {
-		writeJSON(stdout, d)
+		if err := writeJSON(stdout, d); err != nil {
+			fmt.Fprintf(stderr, "vouch: %v\n", err)
+			return exitErrors
+		}
 	} else if len(d.Errors) == 0 {
 		writeTable(stdout, d)
 	}
@@ -98,7 +101,9 @@ type jsonRun struct {
 	Errors  []jsonError  `json:"errors"`
 }
 
-func writeJSON(w io.Writer, d *calcdoc.Doc) {
+// writeJSON prints the results, checks and errors of a calc as JSON; it
+// writes nothing when they cannot be encoded.
+func writeJSON(w io.Writer, d *calcdoc.Doc) error {
 	out := jsonRun{File: d.Path, Results: []jsonResult{}, Checks: []jsonCheck{}, Errors: []jsonError{}}
 	for _, it := range d.Results() {
 		q := it.Outcome.Value.(units.Quantity)
@@ -114,9 +119,12 @@ func writeJSON(w io.Writer, d *calcdoc.Doc) {
 	for _, e := range d.Errors {
 		out.Errors = append(out.Errors, jsonError{Line: e.Pos.Line, Col: e.Pos.Col, Message: e.Msg})
 	}
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	_ = enc.Encode(out)
+	b, err := json.MarshalIndent(out, "", "  ")
+	if err != nil {
+		return fmt.Errorf("cannot write the results as JSON: %v", err)
+	}
+	_, err = w.Write(append(b, '\n'))
+	return err
 }
 
 // unitText is a unit's text, "" for a pure number.
