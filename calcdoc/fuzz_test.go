@@ -1,9 +1,12 @@
 package calcdoc
 
 import (
+	"math"
 	"os"
 	"path/filepath"
 	"testing"
+
+	"vouch/units"
 )
 
 // FuzzRead feeds arbitrary documents to the reader and the evaluator: they
@@ -30,5 +33,25 @@ func FuzzRead(f *testing.F) {
 			}
 		}
 		_ = d.Errors.Format("f.calc.md", src)
+		for _, it := range d.Items {
+			if it.Outcome == nil {
+				continue
+			}
+			if q, ok := it.Outcome.Value.(units.Quantity); ok && (math.IsNaN(q.V) || math.IsInf(q.V, 0)) {
+				t.Fatalf("line %d: %s is not finite", it.Stmt.Line, it.Stmt.Name)
+			}
+			if len(d.Errors) == 0 {
+				_ = d.ValueText(it.Outcome)
+			}
+		}
+		for _, sw := range d.Sweeps {
+			for _, row := range sw.Rows {
+				for _, q := range row {
+					if math.IsNaN(q.V) || math.IsInf(q.V, 0) {
+						t.Fatalf("sweep of %s: a value is not finite", sw.Var)
+					}
+				}
+			}
+		}
 	})
 }
