@@ -165,7 +165,9 @@ func generated(n int) []string {
 
 func FuzzParseLine(f *testing.F) {
 	for _, s := range []string{"p_1 = 12.5 MPa // main steam", "h [kJ/kg] = 3 MJ/kg", "check a >= 2 m", "x = -5 degC + 3 K",
-		"y = max(1, 2) ^ 2", `z = fluid("water", 1 bar, 0)`, "w = (((1)))", "a = b ? c : d"} {
+		"y = max(1, 2) ^ 2", `z = fluid("water", 1 bar, 0)`, "w = (((1)))", "a = b ? c : d",
+		"e = solve(e^2 == 2 m^2, 0 m, 2 m)", `s = water(2 MPa, 600 K).h`, `q = fluid_sat("R-245fa", 300 K).hfg`,
+		"r = sqrt(c * d) + ln(2) - exp(-1) * sin(pi)"} {
 		f.Add(s)
 	}
 	f.Fuzz(func(t *testing.T, line string) {
