@@ -136,6 +136,7 @@ func (r *bodyRenderer) RegisterFuncs(reg renderer.NodeRendererFuncRegisterer) {
 	reg.Register(kindCalcBlock, r.block)
 	reg.Register(kindCalcInline, r.inline)
 	reg.Register(kindFigure, r.figure)
+	reg.Register(gast.KindImage, r.image)
 }
 
 func (r *bodyRenderer) figure(w util.BufWriter, _ []byte, n gast.Node, entering bool) (gast.WalkStatus, error) {

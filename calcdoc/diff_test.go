@@ -194,6 +194,9 @@ func TestDiffReportDeterministic(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
+		if !bytes.Contains(html, []byte(ContentPolicyTag)) {
+			t.Error("the report lacks the content policy")
+		}
 		for _, bad := range []string{"<script", "http://", "https://"} {
 			if bytes.Contains(html, []byte(bad)) {
 				t.Errorf("the report holds %q", bad)

@@ -46,6 +46,7 @@ type Doc struct {
 	ReadData func(rel string) ([]byte, error)
 
 	diagramBlocks []*diagramBlock
+	images        []*image // the images of the prose, embedded when rendered
 	byName        map[string]*Item // evaluated definitions, built on first use
 	engine        *eval.Engine     // the engine after evaluation, for substitution
 	prepared      bool             // the Markdown tree is ready to render
@@ -153,6 +154,8 @@ func (d *Doc) collect() {
 			}
 		case *gast.CodeSpan:
 			spans = append(spans, v)
+		case *gast.Image:
+			d.readImage(v)
 		}
 		return gast.WalkContinue, nil
 	})

@@ -72,6 +72,13 @@ type checkView struct {
 	Line int
 }
 
+// ContentPolicyTag is the Content-Security-Policy of every page vouch
+// writes (package, diff report, register): the browser may fetch nothing
+// and run no script; styles are inline and images are data URIs. The
+// templates carry it verbatim (a test holds them to it); the live preview
+// takes it out, as its page runs a script.
+const ContentPolicyTag = `<meta http-equiv="Content-Security-Policy" content="default-src 'none'; img-src data:; style-src 'unsafe-inline'">`
+
 // trusted is the one door for markup into the package template. It is
 // given only HTML that this package builds: goldmark's output (raw HTML
 // off, so every text from the calc file is escaped), the MathML and value

@@ -42,6 +42,7 @@ func (d *Doc) Evaluate() {
 		}
 		it.Outcome = out
 	}
+	d.loadImages()
 	if len(d.Errors) == 0 {
 		d.runSweeps(eng)
 		d.drawDiagrams()

@@ -71,7 +71,8 @@ func inject(page []byte, rel string, version int) []byte {
 	name, _ := json.Marshal(rel) // escapes <, > and &, so it cannot close the script
 	script := fmt.Sprintf(reloadScript, name, version)
 	top := fmt.Sprintf(banner, template.HTMLEscapeString(rel))
-	out := bytes.Replace(page, []byte("<body>"), []byte("<body>\n"+top), 1)
+	out := bytes.Replace(page, []byte(calcdoc.ContentPolicyTag+"\n"), nil, 1) // the preview runs a script
+	out = bytes.Replace(out, []byte("<body>"), []byte("<body>\n"+top), 1)
 	meta := fmt.Sprintf(previewHead, version)
 	if i := bytes.Index(out, []byte("</head>")); i >= 0 {
 		out = append(out[:i:i], append([]byte(meta), out[i:]...)...)

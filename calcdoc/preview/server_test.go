@@ -78,6 +78,8 @@ func TestServeFileModeServesOneCalc(t *testing.T) {
 	}
 	if code, body := get(t, srv.Handler(), "/", "127.0.0.1"); code != 200 || !strings.Contains(body, "3.357") {
 		t.Errorf("/ gave %d", code)
+	} else if strings.Contains(body, "Content-Security-Policy") {
+		t.Error("the preview keeps the package's content policy, which would stop its reload script")
 	}
 	if code, _ := get(t, srv.Handler(), "/calc/broken.calc.md", "127.0.0.1"); code != 404 {
 		t.Errorf("another calc gave %d, want 404", code)

@@ -85,7 +85,7 @@ func TestRegisterFiftyCalcs(t *testing.T) {
 		t.Errorf("FP-002 has no package beside it, but the register found one")
 	}
 	index := readFile(t, sum.Index)
-	for _, want := range []string{"FP-000", "FP-049", `href="unit1/fp-000.html"`, "BROKEN", "STALE", ">PREPARED<", "<b>3</b> broken", "Caution."} {
+	for _, want := range []string{"FP-000", "FP-049", `href="unit1/fp-000.html"`, "BROKEN", "STALE", ">PREPARED<", "<b>3</b> broken", "Caution.", calcdoc.ContentPolicyTag} {
 		if !bytes.Contains(index, []byte(want)) {
 			t.Errorf("index.html lacks %q", want)
 		}
