@@ -46,7 +46,7 @@ type Doc struct {
 	ReadData func(rel string) ([]byte, error)
 
 	diagramBlocks []*diagramBlock
-	images        []*image // the images of the prose, embedded when rendered
+	images        []*image         // the images of the prose, embedded when rendered
 	byName        map[string]*Item // evaluated definitions, built on first use
 	engine        *eval.Engine     // the engine after evaluation, for substitution
 	prepared      bool             // the Markdown tree is ready to render
