@@ -39,8 +39,9 @@ func golden(t *testing.T, name string, got []byte) {
 	}
 }
 
-// copyOutsideRepo copies a calc and its data folder into a temporary folder
-// outside any repository, so packages do not depend on the commit.
+// copyOutsideRepo copies a calc and its data and figure folders into a
+// temporary folder outside any repository, so packages do not depend on the
+// commit.
 func copyOutsideRepo(t *testing.T, calc string) string {
 	t.Helper()
 	dir := t.TempDir()
@@ -52,8 +53,10 @@ func copyOutsideRepo(t *testing.T, calc string) string {
 	if err := os.WriteFile(dst, src, 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if data := filepath.Join(filepath.Dir(calc), "data"); dirExists(data) {
-		copyDir(t, data, filepath.Join(dir, "data"))
+	for _, sub := range []string{"data", "fig"} {
+		if from := filepath.Join(filepath.Dir(calc), sub); dirExists(from) {
+			copyDir(t, from, filepath.Join(dir, sub))
+		}
 	}
 	return dst
 }
