@@ -27,7 +27,16 @@ type Diff struct {
 	Values   []ValueChange // every value defined at both sides, in the new file's order
 	Lines    []LineChange  // calc lines added, removed or rewritten
 	Checks   []CheckChange // checks found at both sides
+	Files    []FileChange  // data files and images added, removed or changed
 	Prose    []Hunk
+}
+
+// FileChange is a data file or image that one revision read and the other
+// did not, or read with other contents.
+type FileChange struct {
+	Path             string
+	Kind             string // "added", "removed" or "changed"
+	OldHash, NewHash string // git blob hashes, "" on the side without the file
 }
 
 // FieldChange is a front-matter field that changed.
@@ -74,13 +83,40 @@ func Compare(old, new *Doc) *Diff {
 	df.Front = frontChanges(old.Front, new.Front)
 	df.compareDefs(old, new)
 	df.compareChecks(old, new)
+	df.Files = fileChanges(old.DataFiles, new.DataFiles)
 	df.Prose = proseHunks(old.prose(), new.prose())
 	return df
 }
 
+// fileChanges compares the data files and images two revisions read, by
+// path: the new revision's in its order, then those only the old one read.
+func fileChanges(old, new []DataFile) []FileChange {
+	was := map[string]string{}
+	for _, f := range old {
+		was[f.Path] = f.Hash
+	}
+	var out []FileChange
+	seen := map[string]bool{}
+	for _, f := range new {
+		seen[f.Path] = true
+		switch h, ok := was[f.Path]; {
+		case !ok:
+			out = append(out, FileChange{Path: f.Path, Kind: "added", NewHash: f.Hash})
+		case h != f.Hash:
+			out = append(out, FileChange{Path: f.Path, Kind: "changed", OldHash: h, NewHash: f.Hash})
+		}
+	}
+	for _, f := range old {
+		if !seen[f.Path] {
+			out = append(out, FileChange{Path: f.Path, Kind: "removed", OldHash: f.Hash})
+		}
+	}
+	return out
+}
+
 // Unchanged reports a diff that found nothing changed.
 func (df *Diff) Unchanged() bool {
-	if len(df.Front)+len(df.Lines)+len(df.Prose) > 0 {
+	if len(df.Front)+len(df.Lines)+len(df.Files)+len(df.Prose) > 0 {
 		return false
 	}
 	for _, v := range df.Values {

@@ -297,3 +297,44 @@ func apply(a, b []string, ops []editOp) string {
 	}
 	return out.String()
 }
+
+// TestDiffDataFiles: a data file whose contents changed, an image added and
+// a data file no longer read are listed, with their blob hashes, in the
+// terminal text and the HTML report.
+func TestDiffDataFiles(t *testing.T) {
+	r := newGitRepo(t)
+	r.write("c/cw.csv", "T [degC],p [kPa]\n10,1.2\n30,4.2\n")
+	r.write("c/old.yaml", "a: 1 m\n")
+	r.write("c/x.calc.md", "```calc\ncw = csv(\"cw.csv\")\np = interp(cw, \"T\", 20 degC, \"p\")\nd = yaml(\"old.yaml\")\n```\n")
+	r.commit("first")
+	r.git("tag", "v1")
+	r.write("c/cw.csv", "T [degC],p [kPa]\n10,1.2\n30,4.3\n")
+	r.write("c/fig.png", string(tinyPNG))
+	r.write("c/x.calc.md", "![sketch](fig.png)\n\n```calc\ncw = csv(\"cw.csv\")\np = interp(cw, \"T\", 20 degC, \"p\")\n```\n")
+	r.commit("second")
+	df, err := DiffRevisions(r.path("c/x.calc.md"), DiffOptions{From: "v1", To: "HEAD"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var got []string
+	for _, f := range df.Files {
+		got = append(got, f.Kind+" "+f.Path)
+		if (f.Kind != "added") != (f.OldHash != "") || (f.Kind != "removed") != (f.NewHash != "") {
+			t.Errorf("%s %s: hashes %q -> %q", f.Kind, f.Path, f.OldHash, f.NewHash)
+		}
+	}
+	if want := "changed c/cw.csv,added c/fig.png,removed c/old.yaml"; strings.Join(got, ",") != want {
+		t.Errorf("files %v, want %s", got, want)
+	}
+	text := df.Text(false)
+	if !strings.Contains(text, "data files and images changed (3)") || !strings.Contains(text, "added    c/fig.png") {
+		t.Errorf("the text lacks the files:\n%s", text)
+	}
+	html, err := df.HTML(false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(html), "Data files and images changed (3)") || !strings.Contains(string(html), "<code>c/fig.png</code>") {
+		t.Error("the report lacks the files")
+	}
+}

@@ -25,6 +25,7 @@ type diffView struct {
 	Checks                    []CheckChange
 	ChecksTotal               int
 	Added, Removed, Rewritten []LineChange
+	Files                     []FileChange
 	Prose                     []Hunk
 	Errors                    string
 	Caution                   string
@@ -38,7 +39,7 @@ func (df *Diff) view(all bool) *diffView {
 		Title: f.Title, Number: f.Number, From: df.From.Label, To: df.To.Label,
 		FromRevision: df.From.Doc.Front.Revision, ToRevision: f.Revision,
 		FromPath: df.From.Path, ToPath: df.To.Path, Renamed: df.Renamed(),
-		All: all, Unchanged: df.Unchanged(), Front: df.Front, Prose: df.Prose,
+		All: all, Unchanged: df.Unchanged(), Front: df.Front, Files: df.Files, Prose: df.Prose,
 		Errors: df.ErrorText(), Caution: Caution,
 	}
 	for _, vc := range df.Values {
@@ -85,16 +86,33 @@ func (df *Diff) Text(all bool) string {
 	var b strings.Builder
 	v.header(&b)
 	if v.Unchanged {
-		b.WriteString("\nno changes: inputs, results, checks, calc lines and prose are the same\n")
+		b.WriteString("\nno changes: inputs, results, checks, calc lines, data files and prose are the same\n")
 	}
 	v.frontText(&b)
 	v.valuesText(&b, "inputs", v.Inputs, v.InputsTotal)
 	v.valuesText(&b, "results", v.Results, v.ResultsTotal)
 	v.checksText(&b)
 	v.linesText(&b)
+	v.filesText(&b)
 	v.proseText(&b)
 	return b.String()
 }
+
+// filesText lists the data files and images that changed.
+func (v *diffView) filesText(b *strings.Builder) {
+	if len(v.Files) == 0 {
+		return
+	}
+	fmt.Fprintf(b, "\ndata files and images changed (%d)\n", len(v.Files))
+	tw := tabwriter.NewWriter(b, 0, 0, 2, ' ', 0)
+	for _, f := range v.Files {
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t->\t%s\n", f.Kind, f.Path, blobText(f.OldHash), blobText(f.NewHash))
+	}
+	tw.Flush()
+}
+
+// blobText is the first 12 digits of a blob hash, or "-".
+func blobText(h string) string { return orDash(shortHash(h)) }
 
 func (v *diffView) header(b *strings.Builder) {
 	fmt.Fprintln(b, strings.TrimSpace(v.Number+" "+v.Title))
@@ -237,6 +255,7 @@ var diffTemplate = template.Must(templates.Diff(template.FuncMap{
 	"verdicts": checkVerdicts,
 	"op":       func(b byte) string { return string(b) },
 	"dict":     dict,
+	"short":    blobText,
 }))
 
 // dict builds a map from key and value pairs, for calling a sub-template
