@@ -4,6 +4,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"vouch/units"
@@ -51,6 +52,40 @@ func FuzzRead(f *testing.F) {
 						t.Fatalf("sweep of %s: a value is not finite", sw.Var)
 					}
 				}
+			}
+		}
+	})
+}
+
+// FuzzRender renders every fuzzed document that evaluates without errors:
+// no panic, no script, the content policy in place, and no number in the
+// MathML that is not finite.
+func FuzzRender(f *testing.F) {
+	f.Add([]byte("---\ntitle: x\n---\n```calc\na = 1 m\nb [mm] = a^2 / (2 m) + sqrt(a * 3 m)\ncheck b > 0 m\n```\n`=b [m]`\n"))
+	f.Add([]byte("```calc\nst = water(1 MPa, 500 K)\nh_1 [kJ/kg] = st.h\neta_th = abs(-0.4) * max(1, 2)\nx = solve(x * 2 == 3, 0, 5)\n```\n"))
+	f.Add([]byte("# T\n\n| a | b |\n|---|---|\n| 1 | 2 |\n\n```calc\nDelta_T = 30 degC - 20 degC\nrho_1 = 1000 kg/m^3\nq = rho_1 * 4.18 kJ/(kg*K) * Delta_T\n```\n"))
+	dir := f.TempDir()
+	f.Fuzz(func(t *testing.T, src []byte) {
+		d := Read(filepath.Join(dir, "f.calc.md"), src)
+		d.SweepLimit = 20
+		d.Evaluate()
+		if len(d.Errors) > 0 {
+			return
+		}
+		out, err := d.Render(RenderOptions{Engine: "test"})
+		if err != nil {
+			t.Fatalf("render: %v", err)
+		}
+		s := string(out)
+		if !strings.Contains(s, ContentPolicyTag) || !strings.HasSuffix(strings.TrimSpace(s), "</html>") {
+			t.Fatal("the package is cut short or lacks its content policy")
+		}
+		if strings.Contains(strings.ToLower(s), "<script") {
+			t.Fatal("the package holds a script")
+		}
+		for _, bad := range []string{"<mn>NaN", "<mn>+Inf", "<mn>-Inf", "<mn>Inf"} {
+			if strings.Contains(s, bad) {
+				t.Fatalf("the package shows %s", bad)
 			}
 		}
 	})
