@@ -81,6 +81,9 @@ func Fluid(name string, a, b units.Quantity) (*State, error) {
 		if noStateErr(err) {
 			return nil, noStateMessage(call, f.Equation+" for "+f.Name, ka, qa, kb, qb)
 		}
+		if onSatErr(err) {
+			return nil, onSatMessage(call, fmt.Sprintf("fluid(%q, ", f.Name), qa, qb)
+		}
 		return nil, fluidError(call, f, err)
 	}
 	return fluidState(f, p), nil

@@ -188,3 +188,24 @@ func TestFluidCrit(t *testing.T) {
 		t.Errorf("misspelt: %v", err)
 	}
 }
+
+// TestOnSaturationLine: water(p, T) and fluid(NAME, p, T) with p the
+// saturation pressure at T say that p and T do not fix the state. (The
+// pressures in the messages are this program's own saturation pressures at
+// 450 K; they are checked against published values elsewhere.)
+func TestOnSaturationLine(t *testing.T) {
+	for _, c := range []struct{ fluid, want string }{
+		{"water", "water(p, T): p = 0.932041 MPa and T = 450 K (176.85 °C) lie on the saturation line, where they do not fix the state; give the quality instead: water(p, 0) for saturated liquid, water(p, 1) for saturated vapour"},
+		{"isopentane", `fluid("isopentane", p, T): p = 2.87975 MPa and T = 450 K (176.85 °C) lie on the saturation line, where they do not fix the state; give the quality instead: fluid("isopentane", p, 0) for saturated liquid, fluid("isopentane", p, 1) for saturated vapour`},
+	} {
+		sat, err := FluidSat(c.fluid, q(450, "K"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		p, _ := sat.Quantity("p")
+		_, err = Fluid(c.fluid, p, q(450, "K"))
+		if err == nil || err.Error() != c.want {
+			t.Errorf("%s on the line:\n got %v\nwant %s", c.fluid, err, c.want)
+		}
+	}
+}

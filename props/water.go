@@ -54,6 +54,9 @@ func Water(a, b units.Quantity) (*State, error) {
 		if noStateErr(err) {
 			return nil, noStateMessage(call, IF97, ka, qa, kb, qb)
 		}
+		if onSatErr(err) {
+			return nil, onSatMessage(call, "water(", qa, qb)
+		}
 		return nil, rangeMessage(call, IF97, err)
 	}
 	return waterState(p), nil
@@ -122,6 +125,21 @@ type rangeError interface {
 func noStateErr(err error) bool {
 	var ns interface{ NoState() bool }
 	return errors.As(err, &ns) && ns.NoState()
+}
+
+// onSatErr reports whether err says that (p, T) lies on the saturation
+// line (both numerics packages have such an error).
+func onSatErr(err error) bool {
+	var os interface{ OnSaturation() bool }
+	return errors.As(err, &os) && os.OnSaturation()
+}
+
+// onSatMessage says that (p, T) lies on the saturation line and how to
+// name the state instead; prefix is the call up to its first input, as
+// `water(` or `fluid("R-245fa", `.
+func onSatMessage(call, prefix string, p, T units.Quantity) error {
+	return fmt.Errorf("%s: p = %s and T = %s lie on the saturation line, where they do not fix the state; give the quality instead: %sp, 0) for saturated liquid, %sp, 1) for saturated vapour",
+		call, showValue("p", p.V), showValue("T", T.V), prefix, prefix)
 }
 
 // noStateMessage says that no state of a formulation has the two given

@@ -36,6 +36,10 @@ func (e *SolveError) Error() string { return e.Op + ": no solution: " + e.Reason
 // than that the solver failed to find one).
 func (e *SolveError) NoState() bool { return e.Reason == whyNoState }
 
+// OnSaturation reports that (p, T) lies on the saturation line, where they
+// do not fix the state.
+func (e *SolveError) OnSaturation() bool { return e.Reason == whyOnSat }
+
 // Reasons used in RangeError.
 const (
 	reasonTmin   = "lowest temperature of the equation"

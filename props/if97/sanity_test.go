@@ -169,3 +169,26 @@ func TestImportsOnlyMath(t *testing.T) {
 		}
 	}
 }
+
+// TestStatePTOnSaturation: on the saturation line (p, T) do not fix the state; StatePT says so
+// rather than pick liquid or vapour by the last bit of p. Just off the line it gives the phase
+// of that side, in regions 1/2 and in region 3.
+func TestStatePTOnSaturation(t *testing.T) {
+	for _, T := range []float64{273.16, 300, 450, 623.15, 623.2, 640, 647} {
+		ps := psatEq(T)
+		if _, err := StatePT(ps, T); !errors.As(err, new(*SaturationError)) {
+			t.Errorf("T=%g K on the line: %v", T, err)
+		}
+		if Ts := tsatEq(ps); Ts != T {
+			if _, err := StatePT(ps, Ts); !errors.As(err, new(*SaturationError)) {
+				t.Errorf("T=%g K: ps then Ts(ps) = %.17g: %v", T, Ts, err)
+			}
+		}
+		if st, err := StatePT(ps*(1+1e-9), T); err != nil || st.Phase != Liquid {
+			t.Errorf("T=%g K just above ps: %v %v", T, st.Phase, err)
+		}
+		if st, err := StatePT(ps*(1-1e-9), T); err != nil || st.Phase != Vapour {
+			t.Errorf("T=%g K just below ps: %v %v", T, st.Phase, err)
+		}
+	}
+}

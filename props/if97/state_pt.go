@@ -1,5 +1,7 @@
 package if97
 
+import "math"
+
 // This file finds the IF97 region of a (p, T) state (IAPWS R7-97(2012) Section 2, Figure 1)
 // and evaluates single-phase states and single properties from (p, T).
 
@@ -83,6 +85,21 @@ func aboveSat(p, T float64) bool {
 	return p >= psLo[k] && p >= psatEq(T)
 }
 
+// onSatLine reports whether p lies within 1e-12 of ps(T) (R7-97 Eq. 30), for T < Tc. Below
+// 623.15 K the grid bounds of aboveSat decide without Eq. (30) for all but a narrow band.
+func onSatLine(p, T float64) bool {
+	if T <= T13 {
+		k := uint((T - TMin) * (1 / psStep))
+		if k >= psN {
+			k = psN - 1
+		}
+		if p > psHi[k]*(1+1e-12) || p < psLo[k]*(1-1e-12) {
+			return false
+		}
+	}
+	return math.Abs(p-psatEq(T)) <= 1e-12*p
+}
+
 // phaseOf classifies a single-phase state; ps is used only for T < Tc.
 func phaseOf(p, T float64) Phase {
 	switch {
@@ -129,6 +146,9 @@ func setPhase(st *Props) {
 func StatePT(p, T float64) (Props, error) {
 	if err := checkPT(p, T); err != nil {
 		return Props{}, err
+	}
+	if T < Tc && onSatLine(p, T) {
+		return Props{}, &SaturationError{}
 	}
 	var st Props
 	statePT(&st, regionPT(p, T), p, T)

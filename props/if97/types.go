@@ -136,6 +136,18 @@ func (e *NoStateError) Error() string { return "if97: no state of IAPWS-IF97 has
 // NoState reports that the error says no state has the inputs.
 func (e *NoStateError) NoState() bool { return true }
 
+// SaturationError reports a (p, T) on the saturation line, to within rounding (1e-12 in p):
+// there p and T do not fix the state, which may be liquid, vapour or any mixture of the two.
+type SaturationError struct{}
+
+// Error returns the reason and the remedy.
+func (e *SaturationError) Error() string {
+	return "if97: (p, T) lies on the saturation line; give the quality instead"
+}
+
+// OnSaturation reports that the error says (p, T) lies on the saturation line.
+func (e *SaturationError) OnSaturation() bool { return true }
+
 // below and above build RangeErrors.
 func below(input string, value, limit float64, reason string) error {
 	return &RangeError{Input: input, Value: value, Limit: limit, Reason: reason}
