@@ -209,3 +209,35 @@ func TestOnSaturationLine(t *testing.T) {
 		}
 	}
 }
+
+// TestQualityOfSinglePhase: a compressed liquid reads x = 0 and a
+// superheated vapour x = 1 (so that an exhaust check such as x >= 0.88
+// passes for dry steam), but a supercritical fluid has no quality.
+func TestQualityOfSinglePhase(t *testing.T) {
+	for _, c := range []struct {
+		p, T float64 // MPa, degC
+		x    float64 // -1: not defined
+	}{{0.1, 20, 0}, {0.1, 200, 1}, {30, 400, -1}, {30, 700, -1}, {10, 700, 1}} {
+		st, err := Water(q(c.p, "MPa"), q(c.T, "degC"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		v, err := st.Field("x")
+		if c.x < 0 {
+			if err == nil || !strings.Contains(err.Error(), "x is not defined here: a supercritical fluid") {
+				t.Errorf("%g MPa, %g degC: x = %v, %v", c.p, c.T, v, err)
+			}
+			continue
+		}
+		if err != nil || v.(units.Quantity).V != c.x {
+			t.Errorf("%g MPa, %g degC: x = %v, %v; want %g", c.p, c.T, v, err, c.x)
+		}
+	}
+	st, err := Fluid("isopentane", q(5, "MPa"), q(500, "K")) // above pc 3.378 MPa and Tc 460.35 K
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := st.Field("x"); err == nil {
+		t.Error("supercritical isopentane has a quality")
+	}
+}

@@ -115,6 +115,12 @@ func (n numState) state(fluid, formulation, reference string) *State {
 			"u": q(n.U, units.DimSpecificEnergy), "v": q(n.V, units.DimSpecificVolume),
 			"rho": q(n.Rho, units.DimDensity), "x": units.Num(n.X),
 		}, missing: map[string]string{}}
+	if n.Phase == "supercritical" {
+		// A quality of 1 would pass a check such as x >= 0.88 for a fluid that may be as dense
+		// as a liquid.
+		delete(s.values, "x")
+		s.missing["x"] = "a supercritical fluid (above both the critical temperature and the critical pressure) has no vapour quality"
+	}
 	if n.TwoPhase && n.X > 0 && n.X < 1 {
 		for _, f := range []string{"cp", "cv", "w", "mu", "k"} {
 			s.missing[f] = "the state is a two-phase mixture"

@@ -141,8 +141,8 @@ func setPhase(st *Props) {
 }
 
 // StatePT returns the single-phase state at pressure p (Pa) and temperature T (K); the region
-// (1, 2, 3 or 5) is found from (p, T) as in R7-97 Figure 1. On the saturation line it returns
-// the saturated liquid.
+// (1, 2, 3 or 5) is found from (p, T) as in R7-97 Figure 1. On the saturation line (to 1e-12
+// in p) p and T do not fix the state, and it returns a *SaturationError.
 func StatePT(p, T float64) (Props, error) {
 	if err := checkPT(p, T); err != nil {
 		return Props{}, err
