@@ -3,6 +3,7 @@ package calcdoc
 import (
 	"bytes"
 	"errors"
+	"path/filepath"
 	"strings"
 	"testing"
 )
@@ -337,4 +338,72 @@ func TestDiffDataFiles(t *testing.T) {
 	if !strings.Contains(string(html), "Data files and images changed (3)") || !strings.Contains(string(html), "<code>c/fig.png</code>") {
 		t.Error("the report lacks the files")
 	}
+}
+
+// FuzzDiffLines: the edit script of any two texts keeps and removes every
+// line of the old text in order, keeps and adds every line of the new one
+// in order, and never keeps two different lines.
+func FuzzDiffLines(f *testing.F) {
+	f.Add("a\nb\nc\n", "a\nx\nc\nd\n")
+	f.Add("", "one\n")
+	f.Add("same\nsame\nsame\n", "same\n")
+	f.Fuzz(func(t *testing.T, x, y string) {
+		a, b := strings.Split(x, "\n"), strings.Split(y, "\n")
+		if len(a)+len(b) > 4000 {
+			return
+		}
+		ops := diffLines(a, b)
+		ia, ib := 0, 0
+		for _, op := range ops {
+			switch op.Op {
+			case ' ':
+				if op.A != ia || op.B != ib || a[op.A] != b[op.B] {
+					t.Fatalf("keep %d/%d at %d/%d: %q vs %q", op.A, op.B, ia, ib, a[op.A], b[op.B])
+				}
+				ia++
+				ib++
+			case '-':
+				if op.A != ia {
+					t.Fatalf("remove %d at %d", op.A, ia)
+				}
+				ia++
+			case '+':
+				if op.B != ib {
+					t.Fatalf("add %d at %d", op.B, ib)
+				}
+				ib++
+			default:
+				t.Fatalf("op %q", op.Op)
+			}
+		}
+		if ia != len(a) || ib != len(b) {
+			t.Fatalf("the script covers %d of %d old and %d of %d new lines", ia, len(a), ib, len(b))
+		}
+	})
+}
+
+// FuzzCompare compares two fuzzed calcs as vouch diff does and formats the
+// result for the terminal and as HTML: no panic, and the report is whole.
+func FuzzCompare(f *testing.F) {
+	f.Add([]byte("```calc\na = 1 m\nb = a * 2\ncheck b > 1 m\n```\nText.\n"), []byte("```calc\na = 2 m\nb = a * 2\nc = b + a\ncheck b > 5 m\n```\nNew text.\n"))
+	f.Add([]byte("---\ntitle: A\nrevision: A\n---\n# T\n"), []byte("---\ntitle: B\nrevision: B\n---\n# T\n```calc\nx = water(1 bar, 300 K).h\n```\n"))
+	dir := f.TempDir()
+	f.Fuzz(func(t *testing.T, x, y []byte) {
+		a := Read(filepath.Join(dir, "a.calc.md"), x)
+		a.SweepLimit = 20
+		a.Evaluate()
+		b := Read(filepath.Join(dir, "b.calc.md"), y)
+		b.SweepLimit = 20
+		b.Evaluate()
+		df := Compare(a, b)
+		df.From.Label, df.To.Label = "v1", "v2"
+		_ = df.Text(true)
+		html, err := df.HTML(false)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.HasSuffix(bytes.TrimSpace(html), []byte("</html>")) {
+			t.Fatal("the report is cut short")
+		}
+	})
 }
