@@ -188,3 +188,49 @@ func TestRegion3PYConverged(t *testing.T) {
 		}
 	}
 }
+
+// TestVapourBounds checks the cell bounds of h'' and s'' that let subPY skip Eq. (31): at 40,000
+// log-spaced pressures and at both ends of every cell the saturated vapour lies below the bound
+// of its cell, and a vapour state sent through the shortcut is bit for bit the one found with
+// Ts(p) as the lower bound.
+func TestVapourBounds(t *testing.T) {
+	check := func(p float64) {
+		Ts := tsatEq(p)
+		if h := hG(2, p, Ts); !(h < vapHi(p, byH)) {
+			t.Errorf("p=%g: h''=%g above the bound %g", p, h, vapHi(p, byH))
+		}
+		if s := sG(2, p, Ts); !(s < vapHi(p, byS)) {
+			t.Errorf("p=%g: s''=%g above the bound %g", p, s, vapHi(p, byS))
+		}
+	}
+	r := math.Pow(PSat623/PSatMin, 1.0/40000)
+	for p := PSatMin; p <= PSat623; p *= r {
+		check(p)
+	}
+	for c := 0; c < vapCells; c++ {
+		lo := math.Float64frombits(uint64(c+vapBase) << vapShift)
+		hi := math.Nextafter(math.Float64frombits(uint64(c+vapBase+1)<<vapShift), 0)
+		for _, p := range []float64{lo, hi} {
+			if p >= PSatMin && p <= PSat623 {
+				check(p)
+			}
+		}
+	}
+	if vapHi(PSatMin*0.99, byS) != math.Inf(1) || vapHi(PSat623*1.1, byH) != math.Inf(1) {
+		t.Error("a pressure outside the cells has a bound")
+	}
+	n := 0
+	for p := 1e3; p < PSat623; p *= 1.37 {
+		Ts := tsatEq(p)
+		for _, k := range []yKind{byH, byS} {
+			y := vapHi(p, k) * 1.0001
+			a, errA := subPY(p, y, k)
+			b, errB := vapourPY(p, y, k, Ts)
+			if errA != nil || errB != nil || a != b {
+				t.Errorf("p=%g y=%g: %+v %v vs %+v %v", p, y, a, errA, b, errB)
+			}
+			n++
+		}
+	}
+	t.Logf("%d cells; %d shortcut states compared", vapCells, n)
+}

@@ -100,9 +100,13 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 }
 
 // subPY handles PSatMin <= p <= ps(623.15 K): liquid, two-phase or vapour, decided by the
-// saturated-liquid and saturated-vapour values at Ts(p). Bounds of those values (satBands)
-// decide without them unless y lies near one of them.
+// saturated-liquid and saturated-vapour values at Ts(p). A y above every saturated-vapour value
+// of its pressure cell (vapHi) is vapour without Ts(p); otherwise bounds of those values
+// (satBands) decide without them unless y lies near one of them.
 func subPY(p, y float64, k yKind) (Props, error) {
+	if y > vapHi(p, k) {
+		return vapourPY(p, y, k, TMin)
+	}
 	Ts := tsatEq(p)
 	b := satBandAt(Ts, k)
 	switch {
@@ -195,6 +199,47 @@ func satBandAt(Ts float64, k yKind) *satBand {
 		return &satBandsH[c]
 	}
 	return &satBandsS[c]
+}
+
+// Upper bounds of the saturated-vapour h'' and s'' by pressure cell, for subPY. A cell is the
+// set of pressures whose float64 bits agree above the 48th: one sixteenth of an octave. The
+// bound is the largest of 17 points across the cell (Eq. 31 for Ts, region 2 at (p, Ts)),
+// widened by 100 J/kg and 0.5 J/(kg·K): far more than h'' or s'' varies between two of those
+// points and than rounding. TestVapourBounds holds them against a finer sampling.
+const vapShift = 48
+
+var (
+	vapBase            = int(math.Float64bits(PSatMin) >> vapShift)
+	vapHiH, vapHiS     = vapBounds()
+	vapCells       int = len(vapHiH)
+)
+
+func vapBounds() (bh, bs []float64) {
+	last := int(math.Float64bits(PSat623) >> vapShift)
+	for c := vapBase; c <= last; c++ {
+		lo := math.Max(math.Float64frombits(uint64(c)<<vapShift), PSatMin)
+		hi := math.Min(math.Float64frombits(uint64(c+1)<<vapShift), PSat623)
+		mh, ms := math.Inf(-1), math.Inf(-1)
+		for i := 0; i <= 16; i++ {
+			p := lo + (hi-lo)*float64(i)/16
+			Ts := tsatEq(p)
+			mh, ms = math.Max(mh, hG(2, p, Ts)), math.Max(ms, sG(2, p, Ts))
+		}
+		bh, bs = append(bh, mh+100), append(bs, ms+0.5)
+	}
+	return bh, bs
+}
+
+// vapHi returns the bound of h'' or s'' for the cell of p, PSatMin <= p <= ps(623.15 K).
+func vapHi(p float64, k yKind) float64 {
+	c := int(math.Float64bits(p)>>vapShift) - vapBase
+	if c < 0 || c >= vapCells {
+		return math.Inf(1)
+	}
+	if k == byH {
+		return vapHiH[c]
+	}
+	return vapHiS[c]
 }
 
 // mixY returns the two-phase state whose h or s is y.
