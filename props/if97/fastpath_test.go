@@ -189,7 +189,7 @@ func TestRegion3PYConverged(t *testing.T) {
 	}
 }
 
-// TestVapourBounds checks the cell bounds of h'' and s'' that let subPY skip Eq. (31): at 40,000
+// TestVapourBounds checks the cell bounds of h” and s” that let subPY skip Eq. (31): at 40,000
 // log-spaced pressures and at both ends of every cell the saturated vapour lies below the bound
 // of its cell, and a vapour state sent through the shortcut is bit for bit the one found with
 // Ts(p) as the lower bound.

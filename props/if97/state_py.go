@@ -201,10 +201,10 @@ func satBandAt(Ts float64, k yKind) *satBand {
 	return &satBandsS[c]
 }
 
-// Upper bounds of the saturated-vapour h'' and s'' by pressure cell, for subPY. A cell is the
+// Upper bounds of the saturated-vapour h” and s” by pressure cell, for subPY. A cell is the
 // set of pressures whose float64 bits agree above the 48th: one sixteenth of an octave. The
 // bound is the largest of 17 points across the cell (Eq. 31 for Ts, region 2 at (p, Ts)),
-// widened by 100 J/kg and 0.5 J/(kg·K): far more than h'' or s'' varies between two of those
+// widened by 100 J/kg and 0.5 J/(kg·K): far more than h” or s” varies between two of those
 // points and than rounding. TestVapourBounds holds them against a finer sampling.
 const vapShift = 48
 
@@ -230,7 +230,7 @@ func vapBounds() (bh, bs []float64) {
 	return bh, bs
 }
 
-// vapHi returns the bound of h'' or s'' for the cell of p, PSatMin <= p <= ps(623.15 K).
+// vapHi returns the bound of h” or s” for the cell of p, PSatMin <= p <= ps(623.15 K).
 func vapHi(p float64, k yKind) float64 {
 	c := int(math.Float64bits(p)>>vapShift) - vapBase
 	if c < 0 || c >= vapCells {
