@@ -33,7 +33,7 @@ func init() {
 func init() {
 	register(&Func{Name: "fluid", Args: "\"NAME\", A, B", MinArgs: 3, MaxArgs: 3,
 		Doc:   "state of a working fluid (organic fluids by their Helmholtz equations; \"water\" by IAPWS-IF97) from two of p, T, h, s, v or rho, x",
-		Range: "each equation's own range; `vouch functions --fluids` lists them",
+		Range: "each equation's own range; the end of `vouch functions` lists them",
 		Call: func(a []any) (any, error) {
 			name, ok := a[0].(string)
 			if !ok {

@@ -9,7 +9,11 @@ import (
 	"vouch/props"
 )
 
-func cmdFunctions(_ []string, stdout, _ io.Writer) int {
+func cmdFunctions(args []string, stdout, stderr io.Writer) int {
+	if len(args) > 0 {
+		fmt.Fprintln(stderr, "usage: vouch functions (it takes no arguments)")
+		return exitUsage
+	}
 	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "function\targuments\twhat it gives\tvalidity")
 	for _, f := range eval.Funcs() {

@@ -118,6 +118,7 @@ func TestExitCodes(t *testing.T) {
 		{[]string{"run"}, exitUsage}, {[]string{"frobnicate"}, exitUsage}, {[]string{"run", "--nope", ok}, exitUsage},
 		{[]string{"run", filepath.Join(dir, "missing.calc.md")}, exitErrors}, {[]string{"--version"}, exitOK},
 		{[]string{"units"}, exitOK}, {[]string{"functions"}, exitOK}, {[]string{"help"}, exitOK},
+		{[]string{"units", "--si"}, exitUsage}, {[]string{"functions", "--fluids"}, exitUsage},
 	}
 	for _, c := range cases {
 		var out, errs bytes.Buffer

@@ -172,7 +172,11 @@ func writeTable(w io.Writer, d *calcdoc.Doc) {
 	fmt.Fprintf(w, "\n%d checks, %d passed, %d failed\n", len(checks), len(checks)-failed, failed)
 }
 
-func cmdUnits(_ []string, stdout, _ io.Writer) int {
+func cmdUnits(args []string, stdout, stderr io.Writer) int {
+	if len(args) > 0 {
+		fmt.Fprintln(stderr, "usage: vouch units (it takes no arguments)")
+		return exitUsage
+	}
 	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "symbol\tSI value\tSI unit\tname\tnote")
 	for _, a := range units.Table() {
