@@ -40,6 +40,8 @@ var errorCases = []struct {
 	{"number too large", "a = 2 * 1e400", "1:9: the number 1e400 is beyond the range of numbers (about ±1.8e308)"},
 	{"literal too large", "a = 1e400 m", "1:5: the number 1e400 is beyond the range of numbers (about ±1.8e308)"},
 	{"literal too large in SI", "a = 1e308 MPa", "1:5: 1e308 MPa is beyond the range of numbers in SI units"},
+	{"power of a base unit", "a = 2 m^12\nb = a * 1 m", "2:7: the result would hold m^13; the power of a base unit is at most 12"},
+	{"power of a base unit in a power", "a = (3 m^2)^7", "1:12: the result would hold m^14; the power of a base unit is at most 12"},
 }
 
 func TestErrorMessages(t *testing.T) {

@@ -170,12 +170,12 @@ func (c *scope) arith(v *ast.BinaryNode, a, b units.Quantity) (any, *Error) {
 	case "-":
 		q, err = units.Sub(a, b)
 	case "*":
-		q = units.Mul(a, b)
+		q, err = units.Mul(a, b)
 	case "/":
 		if b.V == 0 {
 			return nil, c.errAt(v, "division by zero: %s is 0", v.Right.String())
 		}
-		q = units.Div(a, b)
+		q, err = units.Div(a, b)
 	case "^", "**":
 		q, err = units.Pow(a, b)
 	case "<", "<=", ">", ">=", "==", "!=":

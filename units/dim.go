@@ -10,6 +10,8 @@
 // The package imports nothing of this project.
 package units
 
+import "fmt"
+
 import "strings"
 
 // Base dimension indices into a Dim.
@@ -89,28 +91,65 @@ var dimNames = map[Dim]string{
 	{2, 1, -3, -1, 0, 0, 0}: "voltage",
 }
 
-// Mul returns the dimension of a product.
-func (d Dim) Mul(e Dim) Dim {
+// MaxPower is the largest power of one base unit that a dimension may hold,
+// the same as a unit's written power, so that every dimension's text parses
+// back; a product, quotient or power beyond it is an error, never a wrapped
+// exponent.
+const MaxPower = 12
+
+
+// Mul returns the dimension of a product, or an error beyond MaxPower.
+func (d Dim) Mul(e Dim) (Dim, error) {
+	var w [7]int
 	for i := range d {
-		d[i] += e[i]
+		w[i] = int(d[i]) + int(e[i])
 	}
-	return d
+	return fromWide(w)
 }
 
-// Div returns the dimension of a quotient.
-func (d Dim) Div(e Dim) Dim {
+// Div returns the dimension of a quotient, or an error beyond MaxPower.
+func (d Dim) Div(e Dim) (Dim, error) {
+	var w [7]int
 	for i := range d {
-		d[i] -= e[i]
+		w[i] = int(d[i]) - int(e[i])
 	}
-	return d
+	return fromWide(w)
 }
 
-// Pow returns the dimension raised to an integer power.
-func (d Dim) Pow(n int) Dim {
-	for i := range d {
-		d[i] *= int8(n)
+// Pow returns the dimension raised to an integer power, or an error beyond
+// MaxPower.
+func (d Dim) Pow(n int) (Dim, error) {
+	if n > MaxPower || n < -MaxPower {
+		if d.IsNone() {
+			return d, nil
+		}
+		for i, e := range d {
+			if e != 0 {
+				return Dim{}, powerError(i, int(e)*n)
+			}
+		}
 	}
-	return d
+	var w [7]int
+	for i := range d {
+		w[i] = int(d[i]) * n
+	}
+	return fromWide(w)
+}
+
+// powerError says which base unit a result would hold beyond MaxPower.
+func powerError(i, e int) error {
+	return fmt.Errorf("the result would hold %s^%d; the power of a base unit is at most %d", baseSymbols[i], e, MaxPower)
+}
+
+func fromWide(w [7]int) (Dim, error) {
+	var d Dim
+	for i, e := range w {
+		if e > MaxPower || e < -MaxPower {
+			return Dim{}, powerError(i, e)
+		}
+		d[i] = int8(e)
+	}
+	return d, nil
 }
 
 // IsNone reports whether d is dimensionless.

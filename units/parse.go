@@ -1,6 +1,7 @@
 package units
 
 import (
+	"math"
 	"strings"
 	"unicode"
 	"unicode/utf8"
@@ -78,6 +79,14 @@ func finish(u Unit, text string) (Unit, error) {
 		return u, nil
 	}
 	for _, f := range u.factors {
+		if f.n > 12 || f.n < -12 {
+			return Unit{}, &Error{0, sprintf("unit power %d of %s is out of range (at most 12)", f.n, f.sym)}
+		}
+	}
+	if math.IsInf(u.Factor, 0) || u.Factor == 0 {
+		return Unit{}, &Error{0, "unit " + text + " is beyond the range of numbers"}
+	}
+	for _, f := range u.factors {
 		if a, _ := lookupAtom(f.sym); a.Kind == Gauge {
 			return Unit{}, &Error{0, "gauge unit " + f.sym + " cannot be part of the compound unit " + text + "; convert to an absolute pressure unit"}
 		}
@@ -117,9 +126,13 @@ func (p *parser) unit() (Unit, error) {
 			return u, err
 		}
 		if op == '/' {
-			v = v.pow(-1)
+			if v, err = v.pow(-1); err != nil {
+				return u, p.errf("%v", err)
+			}
 		}
-		u = u.mul(v)
+		if u, err = u.mul(v); err != nil {
+			return u, p.errf("%v", err)
+		}
 	}
 }
 
@@ -146,7 +159,9 @@ func (p *parser) term() (Unit, error) {
 		if err != nil {
 			return u, err
 		}
-		u = u.pow(n)
+		if u, err = u.pow(n); err != nil {
+			return u, p.errf("%v", err)
+		}
 	}
 	return u, nil
 }
@@ -227,13 +242,17 @@ func (p *parser) symbol() (Unit, error) {
 	return Unit{Factor: a.Factor, Dim: a.Dim, factors: []pow1{{sym, 1}}}, nil
 }
 
-func (u Unit) mul(v Unit) Unit {
-	out := Unit{Factor: u.Factor * v.Factor, Dim: u.Dim.Mul(v.Dim)}
+func (u Unit) mul(v Unit) (Unit, error) {
+	d, err := u.Dim.Mul(v.Dim)
+	if err != nil {
+		return Unit{}, err
+	}
+	out := Unit{Factor: u.Factor * v.Factor, Dim: d}
 	out.factors = append(append([]pow1(nil), u.factors...), nil...)
 	for _, f := range v.factors {
 		out.factors = addFactor(out.factors, f)
 	}
-	return out
+	return out, nil
 }
 
 func addFactor(fs []pow1, f pow1) []pow1 {
@@ -249,12 +268,16 @@ func addFactor(fs []pow1, f pow1) []pow1 {
 	return append(fs, f)
 }
 
-func (u Unit) pow(n int) Unit {
-	out := Unit{Factor: ipow(u.Factor, n), Dim: u.Dim.Pow(n)}
+func (u Unit) pow(n int) (Unit, error) {
+	d, err := u.Dim.Pow(n)
+	if err != nil {
+		return Unit{}, err
+	}
+	out := Unit{Factor: ipow(u.Factor, n), Dim: d}
 	for _, f := range u.factors {
 		out.factors = append(out.factors, pow1{f.sym, f.n * n})
 	}
-	return out
+	return out, nil
 }
 
 // ipow raises x to an integer power exactly as repeated multiplication.

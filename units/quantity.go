@@ -149,14 +149,24 @@ func Sub(a, b Quantity) (Quantity, error) {
 	return r, nil
 }
 
-// Mul returns a × b; temperatures enter with their kelvin value.
-func Mul(a, b Quantity) Quantity {
-	return scaled(Quantity{V: a.V * b.V, D: a.D.Mul(b.D)}, a, b)
+// Mul returns a × b; temperatures enter with their kelvin value. A result
+// holding a base unit beyond MaxPower is an error.
+func Mul(a, b Quantity) (Quantity, error) {
+	d, err := a.D.Mul(b.D)
+	if err != nil {
+		return Quantity{}, err
+	}
+	return scaled(Quantity{V: a.V * b.V, D: d}, a, b), nil
 }
 
-// Div returns a ÷ b; the caller checks for a zero divisor.
-func Div(a, b Quantity) Quantity {
-	return scaled(Quantity{V: a.V / b.V, D: a.D.Div(b.D)}, a, b)
+// Div returns a ÷ b; the caller checks for a zero divisor. A result holding
+// a base unit beyond MaxPower is an error.
+func Div(a, b Quantity) (Quantity, error) {
+	d, err := a.D.Div(b.D)
+	if err != nil {
+		return Quantity{}, err
+	}
+	return scaled(Quantity{V: a.V / b.V, D: d}, a, b), nil
 }
 
 // scaled sets the temperature kind of a product or quotient: a difference
@@ -205,7 +215,11 @@ func Pow(a, b Quantity) (Quantity, error) {
 	if n != b.V || math.Abs(n) > 12 {
 		return Quantity{}, fmt.Errorf("%s (%s) can only be raised to a whole power between -12 and 12, not %g", a.D.Name(), DefaultUnit(a), b.V)
 	}
-	r := Quantity{V: math.Pow(a.V, n), D: a.D.Pow(int(n))}
+	d, err := a.D.Pow(int(n))
+	if err != nil {
+		return Quantity{}, err
+	}
+	r := Quantity{V: math.Pow(a.V, n), D: d}
 	if r.D == DimTemperature {
 		r.T = Scale
 	}
