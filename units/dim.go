@@ -97,7 +97,6 @@ var dimNames = map[Dim]string{
 // exponent.
 const MaxPower = 12
 
-
 // Mul returns the dimension of a product, or an error beyond MaxPower.
 func (d Dim) Mul(e Dim) (Dim, error) {
 	var w [7]int
