@@ -30,6 +30,7 @@ type Unit struct {
 	Kind    Kind   // Linear, AbsTemp (lone degC/degF) or Gauge (lone barg, ...)
 	Kelvin  bool   // a lone kelvin-scale temperature unit (K, degR)
 	factors []pow1 // symbols and powers, in order of first appearance
+	wide    [7]int // the dimension while parsing, before the range check of finish
 }
 
 type pow1 struct {
@@ -73,6 +74,11 @@ func MustParse(text string) Unit {
 // finish applies the offset rules to a lone unit and rejects a gauge unit
 // inside a compound.
 func finish(u Unit, text string) (Unit, error) {
+	d, err := fromWide(u.wide)
+	if err != nil {
+		return Unit{}, &Error{0, "unit " + text + ": " + strings.Replace(err.Error(), "the result would hold", "it would hold", 1)}
+	}
+	u.Dim, u.wide = d, [7]int{}
 	if len(u.factors) == 1 && u.factors[0].n == 1 {
 		a, _ := lookupAtom(u.factors[0].sym)
 		u.Kind, u.Offset, u.Kelvin = a.Kind, a.Offset, a.KelvinLk
@@ -126,13 +132,9 @@ func (p *parser) unit() (Unit, error) {
 			return u, err
 		}
 		if op == '/' {
-			if v, err = v.pow(-1); err != nil {
-				return u, p.errf("%v", err)
-			}
+			v = v.pow(-1)
 		}
-		if u, err = u.mul(v); err != nil {
-			return u, p.errf("%v", err)
-		}
+		u = u.mul(v)
 	}
 }
 
@@ -159,9 +161,7 @@ func (p *parser) term() (Unit, error) {
 		if err != nil {
 			return u, err
 		}
-		if u, err = u.pow(n); err != nil {
-			return u, p.errf("%v", err)
-		}
+		u = u.pow(n)
 	}
 	return u, nil
 }
@@ -239,20 +239,26 @@ func (p *parser) symbol() (Unit, error) {
 		}
 		return Unit{}, &Error{Off: start, Msg: msg}
 	}
-	return Unit{Factor: a.Factor, Dim: a.Dim, factors: []pow1{{sym, 1}}}, nil
+	u := Unit{Factor: a.Factor, factors: []pow1{{sym, 1}}}
+	for i, e := range a.Dim {
+		u.wide[i] = int(e)
+	}
+	return u, nil
 }
 
-func (u Unit) mul(v Unit) (Unit, error) {
-	d, err := u.Dim.Mul(v.Dim)
-	if err != nil {
-		return Unit{}, err
+// mul and pow combine units while parsing, in wide integers: only the
+// finished unit's powers are checked (finish), so the order in which a unit
+// is written, and so its canonical text, cannot matter.
+func (u Unit) mul(v Unit) Unit {
+	out := Unit{Factor: u.Factor * v.Factor}
+	for i := range out.wide {
+		out.wide[i] = u.wide[i] + v.wide[i]
 	}
-	out := Unit{Factor: u.Factor * v.Factor, Dim: d}
 	out.factors = append(append([]pow1(nil), u.factors...), nil...)
 	for _, f := range v.factors {
 		out.factors = addFactor(out.factors, f)
 	}
-	return out, nil
+	return out
 }
 
 func addFactor(fs []pow1, f pow1) []pow1 {
@@ -268,16 +274,15 @@ func addFactor(fs []pow1, f pow1) []pow1 {
 	return append(fs, f)
 }
 
-func (u Unit) pow(n int) (Unit, error) {
-	d, err := u.Dim.Pow(n)
-	if err != nil {
-		return Unit{}, err
+func (u Unit) pow(n int) Unit {
+	out := Unit{Factor: ipow(u.Factor, n)}
+	for i := range out.wide {
+		out.wide[i] = u.wide[i] * n
 	}
-	out := Unit{Factor: ipow(u.Factor, n), Dim: d}
 	for _, f := range u.factors {
 		out.factors = append(out.factors, pow1{f.sym, f.n * n})
 	}
-	return out, nil
+	return out
 }
 
 // ipow raises x to an integer power exactly as repeated multiplication.
