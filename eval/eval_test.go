@@ -196,11 +196,12 @@ func TestSolveKnownRoots(t *testing.T) {
 		line string
 		want float64
 	}{
-		{"a = solve(a^2 == 2, 0, 2)", math.Sqrt2},                   // exact root √2
-		{"b = solve(b^3 - 2*b - 5 == 0, 2, 3)", 2.0945514815423265}, // Wallis's cubic, root to 17 figures (common numerical-analysis test, value from memory, recomputed here by Newton)
-		{"c [m] = solve(c * 3 == 7 m, 0 m, 10 m)", 7.0 / 3},         // exact
-		{"d = solve(cos(d) == d, 0, 1)", 0.7390851332151607},        // Dottie number (from memory; fixed point of cos)
-		{"f = solve(exp(f) == 10, 0, 5)", math.Log(10)},             // exact ln 10
+		{"a = solve(a^2 == 2, 0, 2)", math.Sqrt2},                     // exact root √2
+		{"b = solve(b^3 - 2*b - 5 == 0, 2, 3)", 2.0945514815423265},   // Wallis's cubic, root to 17 figures (common numerical-analysis test, value from memory, recomputed here by Newton)
+		{"c [m] = solve(c * 3 == 7 m, 0 m, 10 m)", 7.0 / 3},           // exact
+		{"d = solve(cos(d) == d, 0, 1)", 0.7390851332151607},          // Dottie number (from memory; fixed point of cos)
+		{"g = solve(1e6*(g - 1)/(1 + 1e6*abs(g - 1)) == 0, 0, 2)", 1}, // steep but continuous: a root, not a jump (exact)
+		{"f = solve(exp(f) == 10, 0, 5)", math.Log(10)},               // exact ln 10
 	}
 	for i, c := range cases {
 		s, errs := ParseLine(c.line, 0, i+1, e.Ctx)
@@ -230,6 +231,9 @@ func TestSolveErrors(t *testing.T) {
 		"u = 1 + solve(u == 2, 0, 3)":     "solve must be the whole expression of a definition: NAME = solve(LEFT == RIGHT, LO, HI)",
 		"q [kJ/kg] = solve(q == 2, 0, 3)": "the bounds of solve are a number, but q is shown in kJ/kg, which is specific enthalpy",
 		"r = solve(r == 2, 3, 0)":         "solve needs LO below HI",
+		// A sign change at a pole or a step is not a root (it was returned as one).
+		"p = solve(1/(p - 1.31) == 0, 0, 2)":       "the equation changes sign between the bounds but has no root there: left − right jumps across 1.310, where it is still -2.252e15; look for a step or a pole in the equation, or choose bounds around a root",
+		"s = solve((s > 1.5 ? 1 : -1) == 0, 0, 2)": "the equation changes sign between the bounds but has no root there: left − right jumps across 1.500, where it is still 1.000; look for a step or a pole in the equation, or choose bounds around a root",
 	}
 	for line, want := range cases {
 		e := NewEngine(units.StandardAtmosphere)

@@ -20,6 +20,10 @@ type Solution struct {
 const (
 	solveRelTol   = 1e-10
 	maxSolveEvals = 100
+	// rootResidual is the largest residual at a root, relative to the larger residual at the
+	// bounds. With the bracket narrowed to 1e-10 of its width, a root of any equation that is
+	// not steeper there than 1e4 times its mean slope over the bounds leaves far less.
+	rootResidual = 1e-6
 )
 
 // solve evaluates NAME = solve(LEFT == RIGHT, LO, HI) by Brent's method:
@@ -113,6 +117,7 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 		return nil, c.errAt(v, "the equation does not change sign between the bounds: left − right is %s at %s and %s at %s; choose bounds around the root",
 			quantityText(ra), quantityText(lo), quantityText(rb), quantityText(hi))
 	}
+	scale := math.Max(math.Abs(fa), math.Abs(fb)) // the residual's size at the bounds
 	tol := solveRelTol * (b - a)
 	n := 2
 	cc, fc := a, fa
@@ -150,8 +155,57 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 	if n >= maxSolveEvals {
 		return nil, c.errAt(v, "solve did not converge in %d evaluations", maxSolveEvals)
 	}
+	// A sign change narrowed to a point whose residual is still large may be a jump or a pole of
+	// the equation rather than a root. Bisecting the last bracket down to adjacent numbers tells
+	// them apart: the residual of a continuous equation falls with the bracket, that of a step
+	// or a pole does not.
+	if math.Abs(fb) > rootResidual*scale {
+		var ok bool
+		if b, rb, ok, err = settle(f, b, cc, fb, fc, rootResidual*scale); err != nil {
+			return nil, err
+		}
+		if !ok {
+			x := units.Quantity{V: b, D: lo.D, T: lo.T}
+			return nil, c.errAt(v, "the equation changes sign between the bounds but has no root there: left − right jumps across %s, where it is still %s; look for a step or a pole in the equation, or choose bounds around a root",
+				quantityText(x), quantityText(rb))
+		}
+	}
 	c.solution = &Solution{Lo: lo, Hi: hi, Residual: rb, Iterations: n}
 	return units.Quantity{V: b, D: lo.D, T: lo.T}, nil
+}
+
+// settle bisects a bracket [x0, x1] whose residuals f0 and f1 differ in sign until its ends are
+// adjacent numbers, and returns the end with the smaller residual, and whether that residual is
+// within limit.
+func settle(f residualFunc, x0, x1, f0, f1, limit float64) (float64, units.Quantity, bool, *Error) {
+	for i := 0; i < 1100; i++ { // enough halvings to reach adjacent float64 numbers
+		m := x0 + (x1-x0)/2
+		if m == x0 || m == x1 {
+			break
+		}
+		fm, _, err := f(m)
+		if err != nil {
+			break // the equation has no value there (a division by zero at a pole): not a root
+		}
+		if fm == 0 {
+			x0, f0 = m, 0
+			break
+		}
+		if (fm > 0) == (f0 > 0) {
+			x0, f0 = m, fm
+		} else {
+			x1, f1 = m, fm
+		}
+	}
+	x := x0
+	if math.Abs(f1) < math.Abs(f0) {
+		x = x1
+	}
+	fx, rx, err := f(x)
+	if err != nil {
+		return 0, units.Quantity{}, false, err
+	}
+	return x, rx, math.Abs(fx) <= limit, nil
 }
 
 // brentStep chooses interpolation or bisection; it returns the step and the
