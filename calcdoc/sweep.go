@@ -110,7 +110,11 @@ func (d *Doc) sweepVary(sw *Sweep, s string, off int) {
 	b, n, ok3 := strings.Cut(after, " in ")
 	n = strings.TrimSuffix(strings.TrimSpace(n), " steps")
 	steps, err := strconv.Atoi(strings.TrimSuffix(n, " step"))
-	if !ok1 || !ok2 || !ok3 || err != nil || steps < 1 {
+	if ok1 && ok2 && ok3 && err == nil && steps < 1 {
+		d.errorf(restOff, "vary %s: %d steps; a sweep from A to B needs at least 1 step (N steps give N+1 points)", name, steps)
+		return
+	}
+	if !ok1 || !ok2 || !ok3 || err != nil {
 		d.errorf(restOff, "write: vary %s from A to B in N steps (N a whole number of intervals), or vary %s over [A, B, C]", name, name)
 		return
 	}

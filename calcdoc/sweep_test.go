@@ -81,6 +81,7 @@ func TestSweepErrors(t *testing.T) {
 		"vary p_1 over [2 MPa, 3 MPa]\nplot w":            "plot w: show w in the same sweep first",
 		"vary p_1 over [2 MPa]\nfrobnicate w":             "unknown sweep line \"frobnicate\"; a sweep has vary, show and plot lines",
 		"vary p_1 over [2 MPa]\nshow w [MPa]":             "show w [MPa]: cannot show specific enthalpy (kJ/kg) in MPa, which is pressure",
+		"vary p_1 from 1 MPa to 2 MPa in 0 steps\nshow w": "vary p_1: 0 steps; a sweep from A to B needs at least 1 step (N steps give N+1 points)",
 	}
 	for body, want := range cases {
 		d := Read(filepath.Join(t.TempDir(), "s.calc.md"), []byte(sweepCalc+"```sweep\n"+body+"\n```\n"))
