@@ -25,7 +25,7 @@ func TestFastExp(t *testing.T) {
 	if worst > 2 {
 		t.Errorf("fastExp: %g ulp from math.Exp at x = %g", worst, at)
 	}
-	for _, x := range []float64{0, -0.0, 1, -1, 708, -708, 709, -709, 709.7, 710, -745, -746, math.Inf(1), math.Inf(-1), 1e-300, -1e-300} {
+	for _, x := range []float64{0, math.Copysign(0, -1), 1, -1, 708, -708, 709, -709, 709.7, 710, -745, -746, math.Inf(1), math.Inf(-1), 1e-300, -1e-300} {
 		got, want := fastExp(x), math.Exp(x)
 		if want == 0 || math.IsInf(want, 0) || x == 0 {
 			if got != want {

@@ -111,7 +111,8 @@ func brentStep(a, b, c, fa, fb, fc, xm, tol1, d, e float64) (float64, float64) {
 	if a == c {
 		p, q = 2*xm*s, 1-s
 	} else {
-		q, r := fa/fc, fb/fc
+		var r float64
+		q, r = fa/fc, fb/fc
 		p = s * (2*xm*q*(q-r) - (b-a)*(r-1))
 		q = (q - 1) * (r - 1) * (s - 1)
 	}
