@@ -161,9 +161,11 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 	// or a pole does not.
 	if math.Abs(fb) > rootResidual*scale {
 		var ok bool
-		if b, rb, ok, err = settle(f, b, cc, fb, fc, rootResidual*scale); err != nil {
+		var extra int
+		if b, rb, ok, extra, err = settle(f, b, cc, fb, fc, rootResidual*scale); err != nil {
 			return nil, err
 		}
+		n += extra
 		if !ok {
 			x := units.Quantity{V: b, D: lo.D, T: lo.T}
 			return nil, c.errAt(v, "the equation changes sign between the bounds but has no root there: left − right jumps across %s, where it is still %s; look for a step or a pole in the equation, or choose bounds around a root",
@@ -175,15 +177,17 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 }
 
 // settle bisects a bracket [x0, x1] whose residuals f0 and f1 differ in sign until its ends are
-// adjacent numbers, and returns the end with the smaller residual, and whether that residual is
-// within limit.
-func settle(f residualFunc, x0, x1, f0, f1, limit float64) (float64, units.Quantity, bool, *Error) {
+// adjacent numbers, and returns the end with the smaller residual, whether that residual is
+// within limit, and the number of evaluations it made.
+func settle(f residualFunc, x0, x1, f0, f1, limit float64) (float64, units.Quantity, bool, int, *Error) {
+	n := 1
 	for i := 0; i < 1100; i++ { // enough halvings to reach adjacent float64 numbers
 		m := x0 + (x1-x0)/2
 		if m == x0 || m == x1 {
 			break
 		}
 		fm, _, err := f(m)
+		n++
 		if err != nil {
 			break // the equation has no value there (a division by zero at a pole): not a root
 		}
@@ -203,9 +207,9 @@ func settle(f residualFunc, x0, x1, f0, f1, limit float64) (float64, units.Quant
 	}
 	fx, rx, err := f(x)
 	if err != nil {
-		return 0, units.Quantity{}, false, err
+		return 0, units.Quantity{}, false, n, err
 	}
-	return x, rx, math.Abs(fx) <= limit, nil
+	return x, rx, math.Abs(fx) <= limit, n, nil
 }
 
 // brentStep chooses interpolation or bisection; it returns the step and the
