@@ -195,12 +195,18 @@ func TestRegion3PYConverged(t *testing.T) {
 // Ts(p) as the lower bound.
 func TestVapourBounds(t *testing.T) {
 	check := func(p float64) {
-		Ts := tsatEq(p)
-		if h := hG(2, p, Ts); !(h < vapHi(p, byH)) {
-			t.Errorf("p=%g: h''=%g above the bound %g", p, h, vapHi(p, byH))
+		Ts, c := tsatEq(p), vapCell(p)
+		if c < 0 {
+			t.Fatalf("p=%g has no cell", p)
 		}
-		if s := sG(2, p, Ts); !(s < vapHi(p, byS)) {
-			t.Errorf("p=%g: s''=%g above the bound %g", p, s, vapHi(p, byS))
+		if h := hG(2, p, Ts); !(h < vapHi(c, byH)) {
+			t.Errorf("p=%g: h''=%g above the bound %g", p, h, vapHi(c, byH))
+		}
+		if s := sG(2, p, Ts); !(s < vapHi(c, byS)) {
+			t.Errorf("p=%g: s''=%g above the bound %g", p, s, vapHi(c, byS))
+		}
+		if !(vapTsLo[c] <= Ts) {
+			t.Errorf("p=%g: the cell's lowest Ts %g is above Ts %g", p, vapTsLo[c], Ts)
 		}
 	}
 	r := math.Pow(PSat623/PSatMin, 1.0/40000)
@@ -216,14 +222,14 @@ func TestVapourBounds(t *testing.T) {
 			}
 		}
 	}
-	if vapHi(PSatMin*0.99, byS) != math.Inf(1) || vapHi(PSat623*1.1, byH) != math.Inf(1) {
-		t.Error("a pressure outside the cells has a bound")
+	if vapCell(PSatMin*0.99) != -1 || vapCell(PSat623*1.01) != -1 || vapCell(PSatMin) != 0 {
+		t.Error("the cells do not span PSatMin..ps(623.15 K)")
 	}
 	n := 0
 	for p := 1e3; p < PSat623; p *= 1.37 {
 		Ts := tsatEq(p)
 		for _, k := range []yKind{byH, byS} {
-			y := vapHi(p, k) * 1.0001
+			y := vapHi(vapCell(p), k) * 1.0001
 			a, errA := subPY(p, y, k)
 			b, errB := vapourPY(p, y, k, Ts)
 			if errA != nil || errB != nil || a != b {

@@ -104,8 +104,8 @@ func vapourPY(p, y float64, k yKind, Tmin float64) (Props, error) {
 // of its pressure cell (vapHi) is vapour without Ts(p); otherwise bounds of those values
 // (satBands) decide without them unless y lies near one of them.
 func subPY(p, y float64, k yKind) (Props, error) {
-	if y > vapHi(p, k) {
-		return vapourPY(p, y, k, TMin)
+	if c := vapCell(p); c >= 0 && y > vapHi(c, k) {
+		return vapourPY(p, y, k, vapTsLo[c])
 	}
 	Ts := tsatEq(p)
 	b := satBandAt(Ts, k)
@@ -209,12 +209,15 @@ func satBandAt(Ts float64, k yKind) *satBand {
 const vapShift = 48
 
 var (
-	vapBase            = int(math.Float64bits(PSatMin) >> vapShift)
-	vapHiH, vapHiS     = vapBounds()
-	vapCells       int = len(vapHiH)
+	vapBase                 = int(math.Float64bits(PSatMin) >> vapShift)
+	vapHiH, vapHiS, vapTsLo = vapBounds()
+	vapCells                = len(vapHiH)
 )
 
-func vapBounds() (bh, bs []float64) {
+// vapBounds computes, for each cell, the bounds of h” and s” and the saturation temperature at
+// the cell's lowest pressure: a lower bound of Ts(p) in the cell (Ts rises with p), which keeps
+// the region-2 search of vapourPY off the liquid side.
+func vapBounds() (bh, bs, tlo []float64) {
 	last := int(math.Float64bits(PSat623) >> vapShift)
 	for c := vapBase; c <= last; c++ {
 		lo := math.Max(math.Float64frombits(uint64(c)<<vapShift), PSatMin)
@@ -225,17 +228,22 @@ func vapBounds() (bh, bs []float64) {
 			Ts := tsatEq(p)
 			mh, ms = math.Max(mh, hG(2, p, Ts)), math.Max(ms, sG(2, p, Ts))
 		}
-		bh, bs = append(bh, mh+100), append(bs, ms+0.5)
+		bh, bs, tlo = append(bh, mh+100), append(bs, ms+0.5), append(tlo, tsatEq(lo))
 	}
-	return bh, bs
+	return bh, bs, tlo
 }
 
-// vapHi returns the bound of h” or s” for the cell of p, PSatMin <= p <= ps(623.15 K).
-func vapHi(p float64, k yKind) float64 {
+// vapCell returns the cell of p, or -1 outside PSatMin..ps(623.15 K).
+func vapCell(p float64) int {
 	c := int(math.Float64bits(p)>>vapShift) - vapBase
-	if c < 0 || c >= vapCells {
-		return math.Inf(1)
+	if c < 0 || c >= vapCells || !(p >= PSatMin && p <= PSat623) {
+		return -1
 	}
+	return c
+}
+
+// vapHi returns the bound of h” or s” of cell c.
+func vapHi(c int, k yKind) float64 {
 	if k == byH {
 		return vapHiH[c]
 	}
