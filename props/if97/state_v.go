@@ -153,13 +153,11 @@ func region3TV(T, v float64) (Props, error) {
 	}
 	// Above the density at 100 MPa Eq. (28) leaves its range (and soon gives a negative
 	// pressure), so the density is tested, not the pressure it gives.
-	if rhoMax := rho3(PMax, T); rho > rhoMax*(1+1e-12) {
-		return Props{}, below("v", v, 1/rhoMax, "below the value at the highest pressure of IAPWS-IF97")
-	}
+	rhoMax := rho3(PMax, T)
 	a := r3Helm(rho, T, wantAll)
 	st := a.props()
-	if !(st.P > 0 && st.P <= PMax*(1+1e-9)) {
-		return Props{}, below("v", v, 1/rho3(PMax, T), "below the value at the highest pressure of IAPWS-IF97")
+	if rho > rhoMax*(1+1e-12) || !(st.P > 0 && st.P <= PMax*(1+1e-9)) {
+		return Props{}, below("v", v, 1/rhoMax, "below the value at the highest pressure of IAPWS-IF97")
 	}
 	return finish(st), nil
 }
