@@ -105,3 +105,22 @@ func TestErrorFormatCaret(t *testing.T) {
 		t.Errorf("got\n%s\nwant\n%s", got, want)
 	}
 }
+
+// TestInlineRecord: an inline value of a state asks for one of its fields
+// (it showed "(state)").
+func TestInlineRecord(t *testing.T) {
+	src := "---\ntitle: t\n---\n```calc\nst = water(1 bar, 400 K)\nsat = water_sat(1 bar)\n```\nState `=st`, saturation `=sat`, enthalpy `=st.h [kJ/kg]`.\n"
+	d := Read("t.calc.md", []byte(src))
+	d.Evaluate()
+	want := []string{
+		"8:9: an inline value shows a number, a quantity, a truth value or a text, and st has fields; show one of them, such as `=st.h`",
+		"8:27: an inline value shows a number, a quantity, a truth value or a text, and sat has fields; show one of them, such as `=sat.p`",
+	}
+	var got []string
+	for _, e := range d.Errors {
+		got = append(got, sprintf("%d:%d: %s", e.Pos.Line, e.Pos.Col, e.Msg))
+	}
+	if strings.Join(got, "\n") != strings.Join(want, "\n") {
+		t.Errorf("got\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+}

@@ -3,6 +3,8 @@ package calcdoc
 import (
 	"fmt"
 	"os"
+	"slices"
+	"strings"
 
 	"vouch/eval"
 	"vouch/units"
@@ -38,6 +40,20 @@ func (d *Doc) Evaluate() {
 		if err != nil {
 			it.Err = true
 			d.errorf(err.Off, "%s", err.Msg)
+			continue
+		}
+		if rec, isRecord := out.Value.(eval.Record); it.Inline && isRecord {
+			it.Err = true
+			name, fields := strings.TrimSpace(it.Stmt.Expr), rec.FieldNames()
+			msg := "an inline value shows a number, a quantity, a truth value or a text, and " + name + " has fields; show one of them"
+			if len(fields) > 0 {
+				field := fields[0]
+				if slices.Contains(fields, "h") {
+					field = "h"
+				}
+				msg += ", such as `=" + name + "." + field + "`"
+			}
+			d.errorf(it.Stmt.ExprOff, "%s", msg)
 			continue
 		}
 		it.Outcome = out
