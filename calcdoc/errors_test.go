@@ -72,6 +72,7 @@ func TestDocumentErrors(t *testing.T) {
 		{"unclosed fence", "# x\n\n```calc\na = 1\n", "3:1: calc block is not closed: add a closing fence line"},
 		{"not UTF-8", "---\ntitle: x\n---\n```calc\na = 1 \xff m\n```\n", "5:7: file is not valid UTF-8 text"},
 		{"summary undefined", "---\nsummary: [W_nett]\n---\n```calc\nW_net = 1 W\n```\n", "2:1: summary names W_nett, which the calc does not define; did you mean W_net?"},
+		{"summary of a state", "---\nsummary: [st]\n---\n```calc\nst = water(1 bar, 400 K)\n```\n", "2:1: summary names st, which has fields (a state, a saturation point or a data file); name a value defined from one of them, such as h_1 = st.h"},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {

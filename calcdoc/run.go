@@ -68,19 +68,25 @@ func (d *Doc) Evaluate() {
 	d.Errors.Sort()
 }
 
-// checkSummary reports summary names that the calc does not define.
+// checkSummary reports summary names that the calc does not define, and
+// names of states, which the summary cannot show as one value.
 func (d *Doc) checkSummary(eng *eval.Engine) {
+	off := 0
+	if l := d.Front.SummaryLine; l > 0 && l <= len(d.lines.starts) {
+		off = d.lines.starts[l-1]
+	}
 	for _, name := range d.Front.Summary {
-		if _, ok := eng.Value(name); ok || d.defines(name) {
+		v, ok := eng.Value(name)
+		if _, isRecord := v.(eval.Record); ok && isRecord {
+			d.errorf(off, "summary names %s, which has fields (a state, a saturation point or a data file); name a value defined from one of them, such as h_1 = %s.h", name, name)
+			continue
+		}
+		if ok || d.defines(name) {
 			continue // defined, or defined on a line whose own error is reported
 		}
 		msg := "summary names " + name + ", which the calc does not define"
 		if near := units.Nearest(name, eng.Names()); near != "" {
 			msg += "; did you mean " + near + "?"
-		}
-		off := 0
-		if l := d.Front.SummaryLine; l > 0 && l <= len(d.lines.starts) {
-			off = d.lines.starts[l-1]
 		}
 		d.errorf(off, "%s", msg)
 	}
