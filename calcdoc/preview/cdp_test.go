@@ -20,6 +20,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"strings"
+	"syscall"
 	"testing"
 	"time"
 )
@@ -46,24 +47,29 @@ func needBrowser(t testing.TB) string {
 // browser is a headless Chromium with one page open, driven over the
 // remote-debugging protocol.
 type browser struct {
-	cmd  *exec.Cmd
-	conn net.Conn
-	rd   *bufio.Reader
-	id   int
+	cmd     *exec.Cmd
+	profile string
+	conn    net.Conn
+	rd      *bufio.Reader
+	id      int
 }
 
 // openBrowser starts the browser on pageURL and connects to the page.
 func openBrowser(t testing.TB, exe, pageURL string) *browser {
 	t.Helper()
-	profile := t.TempDir()
+	profile, err := os.MkdirTemp("", "vouch-browser-")
+	if err != nil {
+		t.Fatal(err)
+	}
 	args := []string{"--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
 		"--disable-background-networking", "--disable-component-update", "--disable-sync",
 		"--user-data-dir=" + profile, "--remote-debugging-port=0", pageURL}
 	cmd := exec.Command(exe, args...)
+	cmd.SysProcAttr = &syscall.SysProcAttr{Setpgid: true} // its helpers too, so close can end them all
 	if err := cmd.Start(); err != nil {
 		t.Fatal(err)
 	}
-	b := &browser{cmd: cmd}
+	b := &browser{cmd: cmd, profile: profile}
 	t.Cleanup(b.close)
 	port := debugPort(t, profile)
 	ws := pageSocket(t, port, pageURL)
@@ -108,12 +114,19 @@ func pageSocket(t testing.TB, port, pageURL string) string {
 	return ""
 }
 
+// close ends the browser and its helper processes and removes its profile.
+// A helper may still be writing to the profile for a moment after it is
+// killed, so the removal retries; a profile that cannot be removed stays in
+// the system's temporary folder rather than failing the test.
 func (b *browser) close() {
 	if b.conn != nil {
 		b.conn.Close()
 	}
-	b.cmd.Process.Kill()
+	syscall.Kill(-b.cmd.Process.Pid, syscall.SIGKILL)
 	b.cmd.Wait()
+	for i := 0; i < 40 && os.RemoveAll(b.profile) != nil; i++ {
+		time.Sleep(50 * time.Millisecond)
+	}
 }
 
 // dial opens the WebSocket (RFC 6455 handshake).

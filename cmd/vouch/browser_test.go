@@ -11,6 +11,7 @@ import (
 	"strings"
 	"sync"
 	"testing"
+	"time"
 )
 
 // needBrowser returns the headless browser, skipping outside CI when none
@@ -89,7 +90,7 @@ func serveAndDump(t *testing.T, browser string, html []byte) (string, []string) 
 	}))
 	defer srv.Close()
 	host := strings.TrimPrefix(srv.URL, "http://")
-	args := append(browserArgs(t.TempDir()), "--host-resolver-rules=MAP * "+host, "--dump-dom", srv.URL+"/package.html")
+	args := append(browserArgs(browserProfile(t)), "--host-resolver-rules=MAP * "+host, "--dump-dom", srv.URL+"/package.html")
 	out, err := exec.Command(browser, args...).Output()
 	if err != nil {
 		t.Fatalf("browser: %v", err)
@@ -110,7 +111,7 @@ var pageObject = regexp.MustCompile(`/Type\s*/Page[^s]`)
 // printPages prints the package to PDF and counts its pages.
 func printPages(t *testing.T, browser, htmlPath string) int {
 	pdf := filepath.Join(t.TempDir(), "p.pdf")
-	args := append(browserArgs(t.TempDir()), "--no-pdf-header-footer", "--print-to-pdf="+pdf, "file://"+htmlPath)
+	args := append(browserArgs(browserProfile(t)), "--no-pdf-header-footer", "--print-to-pdf="+pdf, "file://"+htmlPath)
 	if out, err := exec.Command(browser, args...).CombinedOutput(); err != nil {
 		t.Fatalf("print: %v\n%s", err, out)
 	}
@@ -154,4 +155,22 @@ func TestDeterministicAcrossEnvironments(t *testing.T) {
 			t.Errorf("the package differs under %v", env)
 		}
 	}
+}
+
+// browserProfile makes a profile folder for one browser run and removes it
+// when the test ends. Chromium's helper processes may still be writing to it
+// for a moment after the browser exits, so the removal retries, and a folder
+// that cannot be removed stays in the system's temporary folder rather than
+// failing the test.
+func browserProfile(t *testing.T) string {
+	dir, err := os.MkdirTemp("", "vouch-browser-")
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Cleanup(func() {
+		for i := 0; i < 40 && os.RemoveAll(dir) != nil; i++ {
+			time.Sleep(50 * time.Millisecond)
+		}
+	})
+	return dir
 }
