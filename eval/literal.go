@@ -68,9 +68,14 @@ func (s *Stmt) exprError(err error) *Error {
 	if strings.Contains(msg, "value out of range") {
 		start, end := numberAround(s.src, off-s.ExprOff)
 		off = s.ExprOff + start
-		msg = sprintf("the number %s is beyond the range of numbers (about ±1.8e308)", s.src[start:end])
+		msg = numberTooLarge(s.src[start:end])
 	}
 	return &Error{Off: off, Msg: msg}
+}
+
+// numberTooLarge says that a written number does not fit in a float64.
+func numberTooLarge(num string) string {
+	return sprintf("the number %s is beyond the range of numbers (about ±1.8e308)", num)
 }
 
 // numberAround returns the bounds of the decimal number in src that holds
@@ -176,7 +181,7 @@ func rewriteLiterals(expr string, off int, ctx units.Context) (string, map[strin
 func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*Literal, *Error) {
 	v, err := strconv.ParseFloat(expr[i:numEnd], 64)
 	if errors.Is(err, strconv.ErrRange) && math.IsInf(v, 0) {
-		return nil, &Error{Off: off + i, Msg: sprintf("the number %s is beyond the range of numbers (about ±1.8e308)", expr[i:numEnd])}
+		return nil, &Error{Off: off + i, Msg: numberTooLarge(expr[i:numEnd])}
 	}
 	if err != nil && !errors.Is(err, strconv.ErrRange) {
 		return nil, &Error{Off: off + i, Msg: sprintf("cannot read the number %s", expr[i:numEnd])}

@@ -75,24 +75,23 @@ func psBounds() (lo, hi [psN]float64) {
 // aboveSat reports p >= ps(T) for TMin <= T <= T13, by R7-97 Eq. (30); the grid bounds decide
 // all but the points within a grid step of the saturation line.
 func aboveSat(p, T float64) bool {
-	k := uint((T - TMin) * (1 / psStep))
-	if k >= psN {
-		k = psN - 1
-	}
+	k := psCell(T)
 	if p >= psHi[k] {
 		return true
 	}
 	return p >= psLo[k] && p >= psatEq(T)
 }
 
+// psCell returns the cell of the ps(T) grid that holds T, TMin <= T <= T13.
+func psCell(T float64) uint {
+	return min(uint((T-TMin)*(1/psStep)), psN-1)
+}
+
 // onSatLine reports whether p lies within 1e-12 of ps(T) (R7-97 Eq. 30), for T < Tc. Below
 // 623.15 K the grid bounds of aboveSat decide without Eq. (30) for all but a narrow band.
 func onSatLine(p, T float64) bool {
 	if T <= T13 {
-		k := uint((T - TMin) * (1 / psStep))
-		if k >= psN {
-			k = psN - 1
-		}
+		k := psCell(T)
 		if p > psHi[k]*(1+1e-12) || p < psLo[k]*(1-1e-12) {
 			return false
 		}
