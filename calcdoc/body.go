@@ -8,8 +8,8 @@ import (
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
 
-	"vouch/eval"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // kindCalcBlock and kindCalcInline are the Markdown node kinds that stand

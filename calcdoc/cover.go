@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // Roles are the signing roles, in the order a package is signed.

@@ -7,9 +7,9 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
-	"vouch/eval"
+	"github.com/vouchcalc/vouch/eval"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // DataFile is a data file a calc read, with its git blob hash.

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // writeTree writes files under a fresh folder outside any repository.

@@ -6,9 +6,9 @@ import (
 
 	gast "github.com/yuin/goldmark/ast"
 
-	"vouch/props"
-	"vouch/svgplot"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/props"
+	"github.com/vouchcalc/vouch/svgplot"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Diagram is one diagram of a `diagram` block: a T-s or h-s diagram of the

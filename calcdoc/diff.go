@@ -5,8 +5,8 @@ import (
 	"strconv"
 	"strings"
 
-	"vouch/eval"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Side is one of the two revisions a diff compares.

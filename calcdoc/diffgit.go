@@ -6,7 +6,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // renameSimilarity is the share of lines an earlier file must have in

@@ -9,7 +9,7 @@ import (
 	"strings"
 	"text/tabwriter"
 
-	"vouch/templates"
+	"github.com/vouchcalc/vouch/templates"
 )
 
 // diffView is what the terminal and the HTML report show of a diff.

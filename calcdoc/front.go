@@ -9,7 +9,7 @@ import (
 
 	"go.yaml.in/yaml/v3"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Front is the calc file's front matter.

@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // FuzzRead feeds arbitrary documents to the reader and the evaluator: they

@@ -4,8 +4,8 @@ import (
 	"html"
 	"strings"
 
-	"vouch/eval"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // mathml builds MathML from expression trees. Every text it writes is

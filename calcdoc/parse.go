@@ -15,7 +15,7 @@ import (
 	"github.com/yuin/goldmark/parser"
 	"github.com/yuin/goldmark/text"
 
-	"vouch/eval"
+	"github.com/vouchcalc/vouch/eval"
 )
 
 // MaxFileBytes is the largest calc file read.

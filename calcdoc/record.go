@@ -7,10 +7,10 @@ import (
 	"strings"
 	"time"
 
-	"vouch/calcdoc/provenance"
-	"vouch/eval"
-	"vouch/props"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/props"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Record is the provenance of a package: its manifest and what the cover

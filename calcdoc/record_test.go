@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 func TestRecordOutsideRepository(t *testing.T) {

@@ -4,7 +4,7 @@ import (
 	"bytes"
 	"html/template"
 
-	"vouch/templates"
+	"github.com/vouchcalc/vouch/templates"
 )
 
 var registerTemplate = template.Must(templates.Register(nil))

@@ -8,10 +8,10 @@ import (
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
 
-	"vouch/calcdoc/provenance"
-	"vouch/eval"
-	"vouch/props"
-	"vouch/templates"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/props"
+	"github.com/vouchcalc/vouch/templates"
 )
 
 // Caution is the notice on every cover (PRODUCT.md §3).

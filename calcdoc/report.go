@@ -6,7 +6,7 @@ import (
 	"strconv"
 	"strings"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // Verdict grades one finding of a verification.

@@ -8,7 +8,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // manifestStart opens the element that holds the manifest in a package. The

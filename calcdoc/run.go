@@ -6,8 +6,8 @@ import (
 	"slices"
 	"strings"
 
-	"vouch/eval"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/units"
 )
 
 func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }

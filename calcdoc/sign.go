@@ -9,7 +9,7 @@ import (
 	"sort"
 	"strings"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // ErrNotVerified is returned by Sign when the package does not verify and

@@ -12,7 +12,7 @@ import (
 	"testing"
 	"time"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // TestSignAndVerify signs as preparer, checker and approver with Ed25519

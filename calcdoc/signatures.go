@@ -5,7 +5,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // checkSignatures reports each role's signature: whether it verifies over

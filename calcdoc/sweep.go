@@ -6,8 +6,8 @@ import (
 
 	gast "github.com/yuin/goldmark/ast"
 
-	"vouch/eval"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Sweep is a `sweep` block: one input varied over a range, with chosen

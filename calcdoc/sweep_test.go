@@ -7,7 +7,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 const sweepCalc = "```calc\n" +

@@ -1,8 +1,8 @@
 package calcdoc
 
 import (
-	"vouch/eval"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // runSweeps evaluates every sweep after the main pass.

@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // signedRepo is a repository with fp.html signed by preparer and checker,

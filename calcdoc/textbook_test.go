@@ -5,8 +5,8 @@ import (
 	"path/filepath"
 	"testing"
 
-	"vouch/calcdoc"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // textbookCase is one printed answer of a published worked example: the calc

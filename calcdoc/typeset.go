@@ -5,7 +5,7 @@ import (
 	"strconv"
 	"strings"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // greek maps letter names to Greek letters (lower and upper case).

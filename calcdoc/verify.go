@@ -9,7 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // UsageError is a verify or sign that cannot start: a file that cannot be

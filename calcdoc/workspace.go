@@ -5,7 +5,7 @@ import (
 	"os"
 	"path/filepath"
 
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // Workspace is the git repository that holds many calcs, opened once for

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"unicode"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // DataReader reads a data file named in a calc. The document supplies it:

@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 func TestInterp(t *testing.T) {

@@ -5,7 +5,7 @@ import (
 	"fmt"
 	"sort"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Error is an evaluation or parse error at a byte offset of the calc file.

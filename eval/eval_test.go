@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // run evaluates calc lines in order and returns the engine, failing on any

@@ -6,7 +6,7 @@ import (
 
 	"github.com/expr-lang/expr/ast"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Func is a function a calc can call.

@@ -6,7 +6,7 @@ import (
 
 	"github.com/expr-lang/expr/ast"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Record is a value with named fields, such as a water state; calcs read

@@ -14,7 +14,7 @@ import (
 	"github.com/expr-lang/expr/file"
 	"github.com/expr-lang/expr/parser"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // parserConfig keeps expr's node limit and turns every expr builtin off, so

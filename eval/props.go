@@ -1,8 +1,8 @@
 package eval
 
 import (
-	"vouch/props"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/props"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // The property functions: water and steam (IAPWS-IF97) and the organic

@@ -5,7 +5,7 @@ import (
 
 	"github.com/expr-lang/expr/ast"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Solution records how solve found a value, for the package.

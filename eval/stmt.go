@@ -13,7 +13,7 @@ import (
 
 	"github.com/expr-lang/expr/ast"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Limits that guard the expression parser against hostile input: expr's

@@ -6,7 +6,7 @@ import (
 	"strconv"
 	"strings"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // KeyValue is one "key: value" pair of a YAML data file, as the document

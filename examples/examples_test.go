@@ -15,8 +15,8 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/calcdoc"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // python is Debian's interpreter, which has python3-iapws; the python3 on

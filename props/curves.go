@@ -3,7 +3,7 @@ package props
 import (
 	"math"
 
-	"vouch/props/if97"
+	"github.com/vouchcalc/vouch/props/if97"
 )
 
 // CurvePoint is a point of a diagram curve in SI base units.

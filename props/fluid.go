@@ -5,8 +5,8 @@ import (
 	"fmt"
 	"strings"
 
-	"vouch/props/helmholtz"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/props/helmholtz"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // nameFolder drops the characters a fluid name may be written with or without.

@@ -6,8 +6,8 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"vouch/props/helmholtz"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/props/helmholtz"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // fuzzPairs are the input pairs the fuzz tests call, with the unit each

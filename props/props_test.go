@@ -5,7 +5,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 func q(v float64, unit string) units.Quantity {

@@ -8,7 +8,7 @@ package props
 import (
 	"fmt"
 
-	"vouch/units"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // State is one state of a working fluid with its properties as quantities.

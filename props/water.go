@@ -7,8 +7,8 @@ import (
 	"strconv"
 	"strings"
 
-	"vouch/props/if97"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/props/if97"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // IF97 names the water formulation in packages and manifests.

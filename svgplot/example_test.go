@@ -4,7 +4,7 @@ import (
 	"bytes"
 	"fmt"
 
-	"vouch/svgplot"
+	"github.com/vouchcalc/vouch/svgplot"
 )
 
 func ExamplePlot_SVG() {

@@ -7,7 +7,7 @@ import (
 	"html/template"
 	"strings"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // banner marks a preview page, so that nobody takes it for a package; it

@@ -16,7 +16,7 @@ import (
 	"sync"
 	"time"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // Timings of the live reload.

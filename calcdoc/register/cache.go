@@ -1,7 +1,7 @@
 package register
 
 import (
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 
 	"bytes"
 	"encoding/json"

@@ -6,8 +6,8 @@ import (
 	"os"
 	"path/filepath"
 
-	"vouch/calcdoc"
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // cacheFormat names the layout of a cache entry; a new layout renders

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // engine is the engine version the tests register with.

@@ -6,7 +6,7 @@ import (
 	"strings"
 	"unicode"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // maxErrors is the number of errors the index shows for a broken calc.

@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // kinds of the generated calcs, by index: most are plain, a few fail a

@@ -6,8 +6,8 @@ import (
 	"path/filepath"
 	"sync"
 
-	"vouch/calcdoc"
-	"vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // CalcError is an error in a calc file, at its line and column.

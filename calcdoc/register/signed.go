@@ -6,7 +6,7 @@ import (
 	"os"
 	"path/filepath"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // Signed is the state of the signed package kept beside a calc

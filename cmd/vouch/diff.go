@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"io"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // cmdDiff compares a calc at two revisions from git and prints what

@@ -5,8 +5,8 @@ import (
 	"io"
 	"text/tabwriter"
 
-	"vouch/eval"
-	"vouch/props"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/props"
 )
 
 func cmdFunctions(args []string, stdout, stderr io.Writer) int {

@@ -87,11 +87,11 @@ func permitted(pkg, im string, ok []string) bool {
 	if mathOnly[pkg] {
 		return im == "math"
 	}
-	own := strings.HasPrefix(im, "vouch/")
+	own := strings.HasPrefix(im, "github.com/vouchcalc/vouch/")
 	if !own && !strings.Contains(strings.SplitN(im, "/", 2)[0], ".") {
 		return true // standard library
 	}
-	im = strings.TrimPrefix(im, "vouch/")
+	im = strings.TrimPrefix(im, "github.com/vouchcalc/vouch/")
 	for _, a := range ok {
 		if im == a || strings.HasPrefix(im, a+"/") && !own {
 			return true

@@ -5,7 +5,7 @@ import (
 	"io"
 	"os"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // loadCalc reads and evaluates a calc; a long sweep reports its progress on

@@ -7,7 +7,7 @@ import (
 	"strconv"
 	"strings"
 
-	"vouch/calcdoc/register"
+	"github.com/vouchcalc/vouch/calcdoc/register"
 )
 
 // cmdRegister renders every changed calc under a folder and writes the

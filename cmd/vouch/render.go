@@ -6,7 +6,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 func cmdRender(args []string, stdout, stderr io.Writer) int {

@@ -9,8 +9,8 @@ import (
 	"strings"
 	"text/tabwriter"
 
-	"vouch/calcdoc"
-	"vouch/units"
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // newFlags returns a flag set that reports to stderr without exiting.

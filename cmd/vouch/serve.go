@@ -8,7 +8,7 @@ import (
 	"os/signal"
 	"syscall"
 
-	"vouch/calcdoc/preview"
+	"github.com/vouchcalc/vouch/calcdoc/preview"
 )
 
 // serveContext ends the preview server: on Ctrl-C or SIGTERM (tests

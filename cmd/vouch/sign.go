@@ -7,7 +7,7 @@ import (
 	"os"
 	"path/filepath"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 func cmdSign(args []string, stdout, stderr io.Writer) int {

@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"io"
 
-	"vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 func cmdVerify(args []string, stdout, stderr io.Writer) int {
