@@ -3,11 +3,11 @@ package calcdoc
 import (
 	"errors"
 	"fmt"
+	"github.com/vouchcalc/vouch/eval"
 	"go.yaml.in/yaml/v3"
 	"os"
 	"path/filepath"
 	"strings"
-	"github.com/vouchcalc/vouch/eval"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
