@@ -119,8 +119,7 @@ func callAbs(args []any) (any, error) {
 	if err != nil {
 		return nil, err
 	}
-	q.V = math.Abs(q.V)
-	return q, nil
+	return units.AbsValue(q)
 }
 
 func extreme(sign int) func([]any) (any, error) {

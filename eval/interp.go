@@ -120,7 +120,11 @@ func (c *scope) unary(v *ast.UnaryNode) (any, *Error) {
 			return nil, c.errAt(v, "%s needs a number or quantity, not %s", v.Operator, kindOf(x))
 		}
 		if v.Operator == "-" {
-			q = units.Neg(q)
+			n, err := units.Neg(q)
+			if err != nil {
+				return nil, c.errAt(v, "%s", err.Error())
+			}
+			q = n
 		}
 		return q, nil
 	case "!", "not":

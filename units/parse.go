@@ -2,6 +2,7 @@ package units
 
 import (
 	"math"
+	"strconv"
 	"strings"
 	"unicode"
 	"unicode/utf8"
@@ -57,7 +58,11 @@ func Parse(text string) (Unit, error) {
 	}
 	p.skipSpace()
 	if p.pos < len(p.src) {
-		return Unit{}, p.errf("unexpected %q in unit %q", p.src[p.pos:p.pos+1], text)
+		r, n := utf8.DecodeRuneInString(p.src[p.pos:])
+		if r == utf8.RuneError && n <= 1 {
+			return Unit{}, p.errf("unit %q holds a byte that is not UTF-8 text", excerpt(text))
+		}
+		return Unit{}, p.errf("unexpected %q in unit %q", p.src[p.pos:p.pos+n], excerpt(text))
 	}
 	return finish(u, text)
 }
@@ -76,7 +81,7 @@ func MustParse(text string) Unit {
 func finish(u Unit, text string) (Unit, error) {
 	d, err := fromWide(u.wide)
 	if err != nil {
-		return Unit{}, &Error{0, "unit " + text + ": " + strings.Replace(err.Error(), "the result would hold", "it would hold", 1)}
+		return Unit{}, &Error{0, "unit " + excerpt(text) + ": " + strings.Replace(err.Error(), "the result would hold", "it would hold", 1)}
 	}
 	u.Dim, u.wide = d, [7]int{}
 	if len(u.factors) == 1 && u.factors[0].n == 1 {
@@ -90,11 +95,11 @@ func finish(u Unit, text string) (Unit, error) {
 		}
 	}
 	if math.IsInf(u.Factor, 0) || u.Factor == 0 {
-		return Unit{}, &Error{0, "unit " + text + " is beyond the range of numbers"}
+		return Unit{}, &Error{0, "unit " + excerpt(text) + " is beyond the range of numbers"}
 	}
 	for _, f := range u.factors {
 		if a, _ := lookupAtom(f.sym); a.Kind == Gauge {
-			return Unit{}, &Error{0, "gauge unit " + f.sym + " cannot be part of the compound unit " + text + "; convert to an absolute pressure unit"}
+			return Unit{}, &Error{0, "gauge unit " + f.sym + " cannot be part of the compound unit " + excerpt(text) + "; convert to an absolute pressure unit"}
 		}
 	}
 	return u, nil
@@ -167,27 +172,25 @@ func (p *parser) term() (Unit, error) {
 }
 
 func (p *parser) integer() (int, error) {
-	start, neg := p.pos, false
+	start := p.pos
 	if p.pos < len(p.src) && p.src[p.pos] == '-' {
-		neg = true
 		p.pos++
 	}
-	n, digits := 0, 0
-	for p.pos < len(p.src) && p.src[p.pos] >= '0' && p.src[p.pos] <= '9' && digits < 3 {
-		n = n*10 + int(p.src[p.pos]-'0')
+	digits := p.pos
+	for p.pos < len(p.src) && p.src[p.pos] >= '0' && p.src[p.pos] <= '9' {
 		p.pos++
-		digits++
 	}
-	if digits == 0 {
+	if p.pos == digits {
 		p.pos = start
 		return 0, p.errf("expected an integer power after ^")
 	}
-	if neg {
-		n = -n
-	}
-	if n > 12 || n < -12 {
+	written := p.src[start:p.pos]
+	// Leading zeros aside, a power of more than two digits is out of range:
+	// it is quoted as written, never cut to its first digits.
+	n, err := strconv.Atoi(written)
+	if err != nil || n > MaxPower || n < -MaxPower {
 		p.pos = start
-		return 0, p.errf("unit power %d is out of range (at most 12)", n)
+		return 0, p.errf("unit power %s is out of range (at most %d)", excerpt(written), MaxPower)
 	}
 	return n, nil
 }
@@ -233,7 +236,7 @@ func (p *parser) symbol() (Unit, error) {
 	a, ok := lookupAtom(sym)
 	if !ok {
 		p.pos = start
-		msg := "unknown unit " + sym
+		msg := "unknown unit " + excerpt(sym)
 		if s := Nearest(sym, Symbols()); s != "" {
 			msg += "; did you mean " + s + "?"
 		}
@@ -283,6 +286,20 @@ func (u Unit) pow(n int) Unit {
 		out.factors = append(out.factors, pow1{f.sym, f.n * n})
 	}
 	return out
+}
+
+// excerpt cuts a long piece of a unit's text for a message: the first 64
+// bytes (not splitting a character) and "…".
+func excerpt(s string) string {
+	const limit = 64
+	if len(s) <= limit {
+		return s
+	}
+	cut := limit
+	for cut > 0 && !utf8.RuneStart(s[cut]) {
+		cut--
+	}
+	return s[:cut] + "…"
 }
 
 // ipow raises x to an integer power exactly as repeated multiplication.

@@ -3,6 +3,7 @@ package units
 import (
 	"fmt"
 	"math"
+	"strings"
 )
 
 // Temp tells how a temperature quantity may be combined.
@@ -21,12 +22,35 @@ const (
 	Scale
 )
 
+// Press tells how a pressure quantity may be combined. Its rules are those
+// of temperatures, with a gauge pressure in the place of an absolute
+// temperature: a gauge pressure is a reading on a scale whose zero is the
+// atmosphere, as degC is a reading on a scale whose zero is 273.15 K.
+type Press uint8
+
+const (
+	// AnyP is every pressure written in an absolute unit (Pa, bar, bara,
+	// psia) or computed from other quantities: it serves as absolute or as
+	// difference, as the arithmetic needs (the Scale of pressures).
+	AnyP Press = iota
+	// GaugeP is a pressure written in a gauge unit (barg, psig, kPag), or
+	// computed as gauge plus or minus a pressure that is not gauge. Its value
+	// is absolute (the atmosphere added); two gauge pressures cannot be
+	// added (the Abs of pressures).
+	GaugeP
+	// DiffP is a pressure difference from gauge minus gauge: it cannot be
+	// shown in a gauge unit (the Rel of pressures).
+	DiffP
+)
+
 // Quantity is a value in SI base units with its dimension. T is meaningful
-// only when D is the temperature dimension.
+// only when D is the temperature dimension, P only when D is the pressure
+// dimension.
 type Quantity struct {
 	V float64
 	D Dim
 	T Temp
+	P Press
 }
 
 // Num returns a dimensionless quantity.
@@ -39,6 +63,7 @@ func (u Unit) Q(v float64, ctx Context) Quantity {
 	switch {
 	case u.Kind == Gauge:
 		q.V = v*u.Factor + ctx.Atmosphere
+		q.P = GaugeP
 	case u.Kind == AbsTemp:
 		q.T = Abs
 	case u.Kelvin:
@@ -66,6 +91,8 @@ func (q Quantity) In(u Unit, ctx Context) (float64, error) {
 	}
 	var v float64
 	switch {
+	case u.Kind == Gauge && q.P == DiffP:
+		return 0, fmt.Errorf("a pressure difference (gauge minus gauge) cannot be shown in %s, which adds the atmosphere; use %s", u, absoluteOf(u))
 	case u.Kind == Gauge:
 		v = (q.V - ctx.Atmosphere) / u.Factor
 	case u.Kind == AbsTemp && q.T == Rel:
@@ -78,6 +105,11 @@ func (q Quantity) In(u Unit, ctx Context) (float64, error) {
 		return 0, fmt.Errorf("%g %s is beyond the range of numbers in %s; choose a larger unit", (q.V-du.Offset)/du.Factor, du, u)
 	}
 	return v, nil
+}
+
+// absoluteOf names the absolute unit of a gauge unit: barg → bar.
+func absoluteOf(u Unit) string {
+	return strings.TrimSuffix(u.String(), "g")
 }
 
 // DimError is a dimension mismatch between two operands.
@@ -100,19 +132,27 @@ func (e *DimError) Error() string {
 	return fmt.Sprintf("cannot %s %s and %s (%s)", e.Op, a, e.B.Name(), DefaultUnit(Quantity{D: e.B}).String())
 }
 
-// Add returns a + b under the temperature rules.
+// Add returns a + b under the temperature and pressure rules: two absolute
+// temperatures or two gauge pressures cannot be added (the scale's zero would
+// be counted twice); absolute + difference is absolute, gauge + difference is
+// gauge.
 func Add(a, b Quantity) (Quantity, error) {
 	if a.D != b.D {
 		return Quantity{}, &DimError{Op: "add", A: a, B: b.D}
 	}
 	r := Quantity{V: a.V + b.V, D: a.D}
-	if a.D != DimTemperature {
-		return r, nil
+	switch a.D {
+	case DimTemperature:
+		if a.T == Abs && b.T == Abs {
+			return r, fmt.Errorf("cannot add two absolute temperatures; subtract them for a difference, or write the one that is a difference in K or delta_degC")
+		}
+		r.T = addTemp(a.T, b.T)
+	case DimPressure:
+		if a.P == GaugeP && b.P == GaugeP {
+			return r, fmt.Errorf("cannot add two gauge pressures: each holds the atmosphere; subtract them for a difference, or write the one that is a difference in an absolute unit (bar, kPa, psi)")
+		}
+		r.P = pressOf(addTemp(tempOf(a.P), tempOf(b.P)))
 	}
-	if a.T == Abs && b.T == Abs {
-		return r, fmt.Errorf("cannot add two absolute temperatures; subtract them for a difference, or write the one that is a difference in K or delta_degC")
-	}
-	r.T = addTemp(a.T, b.T)
 	return r, nil
 }
 
@@ -126,27 +166,62 @@ func addTemp(a, b Temp) Temp {
 	return Scale
 }
 
-// Sub returns a − b under the temperature rules: absolute minus absolute is
-// a difference.
+// tempOf and pressOf map the pressure kinds to their temperature
+// counterparts, so that both follow one set of rules.
+func tempOf(p Press) Temp {
+	switch p {
+	case GaugeP:
+		return Abs
+	case DiffP:
+		return Rel
+	}
+	return Scale
+}
+
+func pressOf(t Temp) Press {
+	switch t {
+	case Abs:
+		return GaugeP
+	case Rel:
+		return DiffP
+	}
+	return AnyP
+}
+
+// Sub returns a − b under the temperature and pressure rules: absolute minus
+// absolute is a difference, and so is gauge minus gauge.
 func Sub(a, b Quantity) (Quantity, error) {
 	if a.D != b.D {
 		return Quantity{}, &DimError{Op: "subtract", A: a, B: b.D}
 	}
 	r := Quantity{V: a.V - b.V, D: a.D}
-	if a.D != DimTemperature {
-		return r, nil
-	}
-	switch {
-	case b.T == Abs && (a.T == Abs || a.T == Scale):
-		r.T = Rel
-	case a.T == Abs:
-		r.T = Abs
-	case b.T == Abs:
-		return r, fmt.Errorf("cannot subtract an absolute temperature from a temperature difference")
-	default:
-		r.T = addTemp(a.T, b.T)
+	switch a.D {
+	case DimTemperature:
+		t, ok := subTemp(a.T, b.T)
+		if !ok {
+			return r, fmt.Errorf("cannot subtract an absolute temperature from a temperature difference")
+		}
+		r.T = t
+	case DimPressure:
+		t, ok := subTemp(tempOf(a.P), tempOf(b.P))
+		if !ok {
+			return r, fmt.Errorf("cannot subtract a gauge pressure from a pressure difference")
+		}
+		r.P = pressOf(t)
 	}
 	return r, nil
+}
+
+func subTemp(a, b Temp) (Temp, bool) {
+	switch {
+	case b == Abs && (a == Abs || a == Scale):
+		return Rel, true
+	case a == Abs:
+		return Abs, true
+	case b == Abs:
+		return 0, false
+	}
+	return addTemp(a, b), true
 }
 
 // Mul returns a × b; temperatures enter with their kelvin value. A result
@@ -169,21 +244,46 @@ func Div(a, b Quantity) (Quantity, error) {
 	return scaled(Quantity{V: a.V / b.V, D: d}, a, b), nil
 }
 
-// scaled sets the temperature kind of a product or quotient: a difference
-// scaled by a number stays a difference; anything else is kelvin-scale.
+// scaled sets the temperature or pressure kind of a product or quotient: a
+// difference scaled by a number stays a difference; anything else is
+// kelvin-scale (temperature) or absolute (pressure): products use the
+// kelvin value and the absolute pressure.
 func scaled(r, a, b Quantity) Quantity {
-	if r.D != DimTemperature {
+	if r.D != DimTemperature && r.D != DimPressure {
 		return r
 	}
+	k := Scale
 	switch {
-	case a.D == DimTemperature && b.D.IsNone():
-		r.T = keepDiff(a.T)
-	case b.D == DimTemperature && a.D.IsNone():
-		r.T = keepDiff(b.T)
-	default:
-		r.T = Scale
+	case a.D == r.D && b.D.IsNone():
+		k = keepDiff(kindOf(a))
+	case b.D == r.D && a.D.IsNone():
+		k = keepDiff(kindOf(b))
 	}
-	return r
+	return withKind(r, k)
+}
+
+// kindOf returns the kind of a temperature or pressure in the temperature
+// terms Abs, Rel and Scale; Scale for every other quantity.
+func kindOf(q Quantity) Temp {
+	switch q.D {
+	case DimTemperature:
+		return q.T
+	case DimPressure:
+		return tempOf(q.P)
+	}
+	return Scale
+}
+
+// withKind sets the kind of a temperature or pressure from its temperature
+// terms.
+func withKind(q Quantity, k Temp) Quantity {
+	switch q.D {
+	case DimTemperature:
+		q.T = k
+	case DimPressure:
+		q.P = pressOf(k)
+	}
+	return q
 }
 
 func keepDiff(t Temp) Temp {
@@ -193,13 +293,40 @@ func keepDiff(t Temp) Temp {
 	return Scale
 }
 
-// Neg returns −a.
-func Neg(a Quantity) Quantity {
-	a.V = -a.V
-	if a.D == DimTemperature {
-		a.T = keepDiff(a.T)
+// Neg returns −a. An absolute temperature or a gauge pressure has no
+// negative: its value counts from the scale's zero (273.15 K, the
+// atmosphere), so −(20 degC) is not −20 degC. Write the negative reading as a
+// literal (-20 degC) or negate a difference.
+func Neg(a Quantity) (Quantity, error) {
+	if err := offsetOp(a, "negate"); err != nil {
+		return Quantity{}, err
 	}
-	return a
+	a.V = -a.V
+	return a, nil
+}
+
+// AbsValue returns |a|. An absolute temperature or a gauge pressure is an
+// error, as in Neg: the size of a reading on an offset scale depends on the
+// scale.
+func AbsValue(a Quantity) (Quantity, error) {
+	if err := offsetOp(a, "take abs of"); err != nil {
+		return Quantity{}, err
+	}
+	a.V = math.Abs(a.V)
+	return a, nil
+}
+
+// offsetOp refuses an operation that would treat a reading on an offset
+// scale (degC, degF, a gauge unit) as a plain magnitude.
+func offsetOp(a Quantity, op string) error {
+	switch kindOf(a) {
+	case Abs:
+		if a.D == DimPressure {
+			return fmt.Errorf("cannot %s a gauge pressure: its value counts from vacuum, not from the atmosphere; %s a difference (p - 0 barg) instead", op, op)
+		}
+		return fmt.Errorf("cannot %s an absolute temperature: its value counts from 0 K, not from 0 degC; write a negative reading as a literal (-20 degC) or %s a difference", op, op)
+	}
+	return nil
 }
 
 // Pow returns a raised to a dimensionless power; a quantity with a dimension
@@ -219,20 +346,20 @@ func Pow(a, b Quantity) (Quantity, error) {
 	if err != nil {
 		return Quantity{}, err
 	}
-	r := Quantity{V: math.Pow(a.V, n), D: d}
-	if r.D == DimTemperature {
-		r.T = Scale
-	}
-	return r, nil
+	return withKind(Quantity{V: math.Pow(a.V, n), D: d}, Scale), nil
 }
 
 // Compare returns −1, 0 or +1 as a <, ==, > b. Comparing an absolute
-// temperature with a difference is an error.
+// temperature with a temperature difference, or a gauge pressure with a
+// difference of gauge pressures, is an error.
 func Compare(a, b Quantity) (int, error) {
 	if a.D != b.D {
 		return 0, &DimError{Op: "compare", A: a, B: b.D}
 	}
-	if a.D == DimTemperature && (a.T == Abs && b.T == Rel || a.T == Rel && b.T == Abs) {
+	if ka, kb := kindOf(a), kindOf(b); ka == Abs && kb == Rel || ka == Rel && kb == Abs {
+		if a.D == DimPressure {
+			return 0, fmt.Errorf("cannot compare a gauge pressure with a pressure difference (gauge minus gauge)")
+		}
 		return 0, fmt.Errorf("cannot compare an absolute temperature with a temperature difference")
 	}
 	switch {

@@ -95,10 +95,21 @@ var table = []Atom{
 	{Symbol: "degR", Factor: rankine, Dim: DimTemperature, Name: "degree Rankine", Typeset: "°R", KelvinLk: true},
 	{Symbol: "delta_degC", Factor: 1, Dim: DimTemperature, Name: "Celsius temperature difference", Typeset: "Δ°C"},
 	{Symbol: "delta_degF", Factor: rankine, Dim: DimTemperature, Name: "Fahrenheit temperature difference", Typeset: "Δ°F"},
+	// Absolute and gauge spellings of plant pressure units. NIST SP 811 §7.4
+	// (cited from memory) keeps "absolute" and "gauge" out of a unit symbol;
+	// plant documents write them there all the same, so the spellings are
+	// accepted, with the factors of the plain units: bar = 1.0 E+05 Pa,
+	// exact (NIST SP 811 B.9); psi = lbf/in² = 6.894 757 E+03 Pa (NIST SP 811
+	// B.9); kPa and MPa by the SI prefixes (BIPM SI Brochure, 9th ed., Table 7).
+	{Symbol: "bara", Factor: 1e5, Dim: DimPressure, Prefix: true, Name: "bar (absolute)"},
+	{Symbol: "psia", Factor: psiSI, Dim: DimPressure, Name: "pound-force per square inch (absolute)"},
+	{Symbol: "kPaa", Factor: 1e3, Dim: DimPressure, Name: "kilopascal (absolute)"},
+	{Symbol: "MPaa", Factor: 1e6, Dim: DimPressure, Name: "megapascal (absolute)"},
 	// Gauge pressures: converted to absolute with the calc's atmosphere.
-	{Symbol: "barg", Factor: 1e5, Dim: DimPressure, Kind: Gauge, Name: "bar (gauge)"},
+	{Symbol: "barg", Factor: 1e5, Dim: DimPressure, Kind: Gauge, Prefix: true, Name: "bar (gauge)"},
 	{Symbol: "psig", Factor: psiSI, Dim: DimPressure, Kind: Gauge, Name: "pound-force per square inch (gauge)"},
 	{Symbol: "kPag", Factor: 1e3, Dim: DimPressure, Kind: Gauge, Name: "kilopascal (gauge)"},
+	{Symbol: "MPag", Factor: 1e6, Dim: DimPressure, Kind: Gauge, Name: "megapascal (gauge)"},
 	// Ratios.
 	{Symbol: "%", Factor: 1e-2, Name: "percent"},
 	{Symbol: "ppm", Factor: 1e-6, Name: "part per million"},

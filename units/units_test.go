@@ -26,6 +26,16 @@ func TestFactorsNIST(t *testing.T) {
 		{"kWh", 3.6e6, true},            // NIST SP 811 B.9: kW·h = 3.6 E+06 J (exact)
 		{"TR", 3.516853e3, false},       // NIST SP 811 B.9: ton of refrigeration (12 000 Btu_IT/h) = 3.516 853 E+03 W
 		{"bar", 1e5, true},              // NIST SP 811 B.9: bar = 1.0 E+05 Pa (exact)
+		{"bara", 1e5, true},             // NIST SP 811 B.9: bar = 1.0 E+05 Pa (exact); "a" marks absolute
+		{"mbara", 1e2, true},            // NIST SP 811 B.9: bar = 1.0 E+05 Pa (exact); SI prefix m = 10⁻³
+		{"psia", 6.894757e3, false},     // NIST SP 811 B.9: psi = 6.894 757 E+03 Pa; "a" marks absolute
+		{"kPaa", 1e3, true},             // SI prefix k = 10³ (BIPM SI Brochure Table 7); "a" marks absolute
+		{"MPaa", 1e6, true},             // SI prefix M = 10⁶ (BIPM SI Brochure Table 7); "a" marks absolute
+		{"barg", 1e5, true},             // NIST SP 811 B.9: bar = 1.0 E+05 Pa (exact); gauge: the interval factor
+		{"mbarg", 1e2, true},            // NIST SP 811 B.9 and SI prefix m = 10⁻³; gauge: the interval factor
+		{"psig", 6.894757e3, false},     // NIST SP 811 B.9: psi = 6.894 757 E+03 Pa; gauge: the interval factor
+		{"kPag", 1e3, true},             // SI prefix k = 10³ (BIPM SI Brochure Table 7); gauge: the interval factor
+		{"MPag", 1e6, true},             // SI prefix M = 10⁶ (BIPM SI Brochure Table 7); gauge: the interval factor
 		{"L", 1e-3, true},               // NIST SP 811 B.9: L = 1.0 E-03 m³ (exact)
 		{"kJ/(kg*K)", 1e3, true},        // SI prefix k = 10³ (BIPM SI Brochure Table 7)
 		{"MPa", 1e6, true},              // SI prefix M = 10⁶ (BIPM SI Brochure Table 7)
@@ -85,7 +95,7 @@ func TestParseFormatRoundTrip(t *testing.T) {
 func TestParseErrors(t *testing.T) {
 	cases := map[string]string{
 		"kJ/kgg": "unknown unit kgg; did you mean kg?",
-		"MPaa":   "unknown unit MPaa; did you mean MPa?",
+		"MPax":   "unknown unit MPax; did you mean MPa?",
 		"m^":     "expected an integer power after ^",
 		"(kg*K":  "missing ) in unit",
 		"barg/s": "gauge unit barg cannot be part of the compound unit barg/s; convert to an absolute pressure unit",
@@ -230,5 +240,195 @@ func TestInOverflow(t *testing.T) {
 	}
 	if v, err := p.In(MustParse("GPa"), StandardAtmosphere); err != nil || v != 1e297 {
 		t.Errorf("1e306 Pa in GPa = %g, %v", v, err)
+	}
+}
+
+// Issue 11 item 23: the absolute and gauge spellings plant documents use.
+// Absolute spellings read as the plain unit; gauge spellings add the
+// atmosphere (101 325 Pa, exact: NIST SP 811 B.9) and are gauge only alone.
+func TestPlantPressureSpellings(t *testing.T) {
+	abs := map[string]float64{"bara": 1e5, "mbara": 1e2, "kPaa": 1e3, "MPaa": 1e6, "psia": psiSI}
+	for sym, f := range abs {
+		u := MustParse(sym)
+		if u.Kind != Linear {
+			t.Errorf("%s: kind %v, want linear (absolute)", sym, u.Kind)
+		}
+		if p := u.Q(2, StandardAtmosphere); p.V != 2*f || p.P != AnyP {
+			t.Errorf("2 %s = %+v, want %g Pa, absolute", sym, p, 2*f)
+		}
+	}
+	gauge := map[string]float64{"barg": 1e5, "mbarg": 1e2, "kPag": 1e3, "MPag": 1e6, "psig": psiSI}
+	for sym, f := range gauge {
+		u := MustParse(sym)
+		p := u.Q(2, StandardAtmosphere)
+		if u.Kind != Gauge || p.V != 2*f+101325 || p.P != GaugeP {
+			t.Errorf("2 %s = %+v (kind %v), want %g Pa absolute from a gauge unit", sym, p, u.Kind, 2*f+101325)
+		}
+		if _, err := Parse(sym + "/s"); err == nil {
+			t.Errorf("%s/s parsed; a gauge unit stands alone", sym)
+		}
+	}
+	// 1 MPag at the standard atmosphere is 1.101325 MPa absolute (exact).
+	if v, _ := q(t, 1, "MPag").In(MustParse("MPaa"), StandardAtmosphere); math.Abs(v-1.101325) > 1e-15 {
+		t.Errorf("1 MPag = %.17g MPaa, want 1.101325", v)
+	}
+}
+
+// Issue 11 item 4: 1 barg + 1 barg gave 3.013 barg, the atmosphere counted
+// twice.
+func TestGaugePlusGauge(t *testing.T) {
+	_, err := Add(q(t, 1, "barg"), q(t, 1, "barg"))
+	if err == nil || !strings.HasPrefix(err.Error(), "cannot add two gauge pressures") {
+		t.Fatalf("1 barg + 1 barg: error %v, want cannot add two gauge pressures", err)
+	}
+	if _, err := Add(q(t, 1, "psig"), q(t, 1, "kPag")); err == nil {
+		t.Error("psig + kPag must fail as barg + barg does")
+	}
+}
+
+// The class of gauge plus gauge: every operation on gauge pressures follows
+// the temperature rules, a gauge pressure in the place of an absolute
+// temperature. Values are exact arithmetic on exact factors (bar = 1e5 Pa,
+// atm = 101 325 Pa: NIST SP 811 B.9).
+func TestGaugeRules(t *testing.T) {
+	ctx := StandardAtmosphere
+	barg, bar := MustParse("barg"), MustParse("bar")
+	show := func(x Quantity, u Unit) float64 {
+		t.Helper()
+		v, err := x.In(u, ctx)
+		if err != nil {
+			t.Fatalf("%+v in %s: %v", x, u, err)
+		}
+		return v
+	}
+	near := func(what string, got, want float64) {
+		t.Helper()
+		if math.Abs(got-want) > 1e-12*math.Max(1, math.Abs(want)) {
+			t.Errorf("%s = %.15g, want %.15g", what, got, want)
+		}
+	}
+	// Gauge + any pressure is gauge, either way round: 1 barg + 0.5 bar = 1.5 barg.
+	for _, s := range []func() (Quantity, error){
+		func() (Quantity, error) { return Add(q(t, 1, "barg"), q(t, 0.5, "bar")) },
+		func() (Quantity, error) { return Add(q(t, 0.5, "bar"), q(t, 1, "barg")) },
+	} {
+		r, err := s()
+		if err != nil || r.P != GaugeP {
+			t.Fatalf("barg + bar = %+v, %v; want gauge", r, err)
+		}
+		near("1 barg + 0.5 bar in barg", show(r, barg), 1.5)
+	}
+	// Gauge − gauge is a difference: 5 barg − 2 barg = 3 bar, and it cannot be shown in barg.
+	d, err := Sub(q(t, 5, "barg"), q(t, 2, "barg"))
+	if err != nil || d.P != DiffP {
+		t.Fatalf("5 barg - 2 barg = %+v, %v; want a difference", d, err)
+	}
+	near("5 barg - 2 barg in bar", show(d, bar), 3)
+	if _, err := d.In(barg, ctx); err == nil || !strings.Contains(err.Error(), "cannot be shown in barg") || !strings.Contains(err.Error(), "use bar") {
+		t.Errorf("a difference shown in barg: %v", err)
+	}
+	if _, err := d.In(MustParse("psig"), ctx); err == nil || !strings.Contains(err.Error(), "use psi") {
+		t.Errorf("a difference shown in psig: %v", err)
+	}
+	// Gauge + difference is gauge: 2 barg + (5 barg − 2 barg) = 5 barg.
+	g, err := Add(q(t, 2, "barg"), d)
+	if err != nil || g.P != GaugeP {
+		t.Fatalf("barg + difference = %+v, %v", g, err)
+	}
+	near("2 barg + 3 bar difference in barg", show(g, barg), 5)
+	// Gauge − any is gauge: 5 barg − 0.5 bar = 4.5 barg.
+	if r, err := Sub(q(t, 5, "barg"), q(t, 0.5, "bar")); err != nil || r.P != GaugeP {
+		t.Errorf("barg - bar = %+v, %v", r, err)
+	} else {
+		near("5 barg - 0.5 bar in barg", show(r, barg), 4.5)
+	}
+	// Absolute − gauge is a difference: 5 bar − 1 barg = 5 − 2.01325 = 2.98675 bar.
+	if r, err := Sub(q(t, 5, "bar"), q(t, 1, "barg")); err != nil || r.P != DiffP {
+		t.Errorf("bar - barg = %+v, %v", r, err)
+	} else {
+		near("5 bar - 1 barg in bar", show(r, bar), 2.98675)
+	}
+	// A difference minus a gauge pressure has no meaning.
+	if _, err := Sub(d, q(t, 1, "barg")); err == nil || err.Error() != "cannot subtract a gauge pressure from a pressure difference" {
+		t.Errorf("difference - barg: %v", err)
+	}
+	// Comparing (and so min and max): gauge with absolute is fine, gauge with a difference is not.
+	if k, err := Compare(q(t, 1, "barg"), q(t, 2, "bar")); err != nil || k != 1 {
+		t.Errorf("1 barg vs 2 bar = %d, %v; want +1 (2.01325 bar > 2 bar)", k, err)
+	}
+	if _, err := Compare(q(t, 1, "barg"), d); err == nil || !strings.Contains(err.Error(), "gauge pressure with a pressure difference") {
+		t.Errorf("barg vs difference: %v", err)
+	}
+	if _, err := Compare(d, q(t, 1, "barg")); err == nil {
+		t.Error("difference vs barg must fail")
+	}
+	// Negation and abs of a gauge reading are refused; of a difference they keep it a difference.
+	if _, err := Neg(q(t, 1, "barg")); err == nil || !strings.HasPrefix(err.Error(), "cannot negate a gauge pressure") {
+		t.Errorf("-(1 barg): %v", err)
+	}
+	if _, err := AbsValue(q(t, -0.5, "barg")); err == nil || !strings.HasPrefix(err.Error(), "cannot take abs of a gauge pressure") {
+		t.Errorf("abs(-0.5 barg): %v", err)
+	}
+	if n, err := Neg(d); err != nil || n.P != DiffP || n.V != -3e5 {
+		t.Errorf("-(difference) = %+v, %v", n, err)
+	}
+	if a, err := AbsValue(Quantity{V: -3e5, D: DimPressure, P: DiffP}); err != nil || a.P != DiffP || a.V != 3e5 {
+		t.Errorf("abs(difference) = %+v, %v", a, err)
+	}
+	// Products use the absolute pressure: 2 × 1 barg = 4.0265 bar, no longer gauge;
+	// a difference times a number stays a difference.
+	if m, err := Mul(Num(2), q(t, 1, "barg")); err != nil || m.P != AnyP || math.Abs(m.V-4.0265e5) > 1e-9 {
+		t.Errorf("2 * 1 barg = %+v, %v; want 4.0265 bar absolute", m, err)
+	}
+	if m, err := Div(d, Num(2)); err != nil || m.P != DiffP {
+		t.Errorf("difference / 2 = %+v, %v; want a difference", m, err)
+	}
+	if m, err := Pow(q(t, 1, "barg"), Num(1)); err != nil || m.P != AnyP {
+		t.Errorf("(1 barg)^1 = %+v, %v; want absolute", m, err)
+	}
+	// Absolute pressures add: Dalton's law of partial pressures.
+	if s, err := Add(q(t, 1, "bara"), q(t, 2, "bar")); err != nil || s.P != AnyP || s.V != 3e5 {
+		t.Errorf("1 bara + 2 bar = %+v, %v", s, err)
+	}
+}
+
+// -(20 degC) gave -566.3 degC: the negation of the kelvin value shown on the
+// Celsius scale. The same class as gauge plus gauge.
+func TestNegAbsoluteTemperature(t *testing.T) {
+	if _, err := Neg(q(t, 20, "degC")); err == nil || !strings.HasPrefix(err.Error(), "cannot negate an absolute temperature") {
+		t.Errorf("-(20 degC): %v", err)
+	}
+	if _, err := AbsValue(q(t, -20, "degC")); err == nil || !strings.HasPrefix(err.Error(), "cannot take abs of an absolute temperature") {
+		t.Errorf("abs(-20 degC): %v", err)
+	}
+	d, _ := Sub(q(t, 20, "degC"), q(t, 30, "degC"))
+	if n, err := Neg(d); err != nil || n.T != Rel || n.V != 10 {
+		t.Errorf("-(20 degC - 30 degC) = %+v, %v; want a 10 K difference", n, err)
+	}
+	if n, err := Neg(q(t, 5, "K")); err != nil || n.T != Scale || n.V != -5 {
+		t.Errorf("-(5 K) = %+v, %v", n, err)
+	}
+}
+
+// Issue 11 item 22: m^1000 was reported as "unit power 100": the parser read
+// three digits and quoted those. The power is quoted as written.
+func TestUnitPowerQuotedAsWritten(t *testing.T) {
+	cases := map[string]string{
+		"m^1000":                        "unit power 1000 is out of range (at most 12)",
+		"m^-1000":                       "unit power -1000 is out of range (at most 12)",
+		"m^13":                          "unit power 13 is out of range (at most 12)",
+		"kg*m^99999999999999999999":     "unit power 99999999999999999999 is out of range (at most 12)",
+		"m^" + strings.Repeat("9", 100): "unit power " + strings.Repeat("9", 64) + "… is out of range (at most 12)",
+		// The same class: a character is quoted whole, not as its first byte.
+		"m²": `unexpected "²" in unit "m²"`,
+	}
+	for in, want := range cases {
+		_, err := Parse(in)
+		if err == nil || err.Error() != want {
+			t.Errorf("Parse(%q) error = %v, want %q", in, err, want)
+		}
+	}
+	if u, err := Parse("m^0012"); err != nil || u.Dim[Length] != 12 {
+		t.Errorf("m^0012 = %v, %v; want m^12", u, err)
 	}
 }
