@@ -55,7 +55,7 @@ func TestDataFileErrors(t *testing.T) {
 	cases := map[string]string{
 		"a: [1, 2]\n":  "line 1: a: a value must be a number, a quantity such as 12.5 MPa, or text in quotes",
 		"a: 1\na: 2\n": "line 2: a is already given on line 1",
-		"a: 12 MPaa\n": "unknown unit MPaa; did you mean MPa?",
+		"a: 12 MPax\n": "unknown unit MPax; did you mean MPa?",
 		"a: twelve\n":  `"twelve" is not a number with an optional unit (write text in quotes)`,
 		"- 1\n- 2\n":   "a data file holds key: value lines",
 		"a: [\n":       "not valid YAML",

@@ -11,7 +11,7 @@ import (
 var errorCases = []struct {
 	name, body, want string
 }{
-	{"unknown unit", "a = 3 MPaa", "1:7: unknown unit MPaa; did you mean MPa?"},
+	{"unknown unit", "a = 3 MPax", "1:7: unknown unit MPax; did you mean MPa?"},
 	{"unknown display unit", "a [kJ/kgg] = 1 kJ/kg", "1:7: unknown unit kgg; did you mean kg?"},
 	{"dimension mismatch", "a = 2 MPa + 3 kJ/kg", "1:11: cannot add pressure (MPa) and specific enthalpy (kJ/kg)"},
 	{"display unit mismatch", "a [kJ/kg] = 2 MPa", "1:4: a: cannot show pressure (MPa) in kJ/kg, which is specific enthalpy"},

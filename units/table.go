@@ -106,7 +106,8 @@ var table = []Atom{
 	{Symbol: "kPaa", Factor: 1e3, Dim: DimPressure, Name: "kilopascal (absolute)"},
 	{Symbol: "MPaa", Factor: 1e6, Dim: DimPressure, Name: "megapascal (absolute)"},
 	// Gauge pressures: converted to absolute with the calc's atmosphere.
-	{Symbol: "barg", Factor: 1e5, Dim: DimPressure, Kind: Gauge, Prefix: true, Name: "bar (gauge)"},
+	{Symbol: "barg", Factor: 1e5, Dim: DimPressure, Kind: Gauge, Name: "bar (gauge)"},
+	{Symbol: "mbarg", Factor: 1e2, Dim: DimPressure, Kind: Gauge, Name: "millibar (gauge)"},
 	{Symbol: "psig", Factor: psiSI, Dim: DimPressure, Kind: Gauge, Name: "pound-force per square inch (gauge)"},
 	{Symbol: "kPag", Factor: 1e3, Dim: DimPressure, Kind: Gauge, Name: "kilopascal (gauge)"},
 	{Symbol: "MPag", Factor: 1e6, Dim: DimPressure, Kind: Gauge, Name: "megapascal (gauge)"},
