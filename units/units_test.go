@@ -1,7 +1,9 @@
 package units
 
 import (
+	"errors"
 	"math"
+	"math/rand"
 	"strings"
 	"testing"
 )
@@ -430,5 +432,53 @@ func TestUnitPowerQuotedAsWritten(t *testing.T) {
 	}
 	if u, err := Parse("m^0012"); err != nil || u.Dim[Length] != 12 {
 		t.Errorf("m^0012 = %v, %v; want m^12", u, err)
+	}
+}
+
+// The property behind the gauge rules: every sum, difference and comparison
+// of pressures that is allowed gives a number that does not depend on the
+// calc's atmosphere, shown in the unit its kind calls for (gauge in barg,
+// a difference in bar); the atmosphere enters only where a gauge reading
+// and an absolute pressure meet. Readings and atmospheres are random.
+func TestGaugeResultsIndependentOfAtmosphere(t *testing.T) {
+	rng := rand.New(rand.NewSource(11))
+	barg, bar := MustParse("barg"), MustParse("bar")
+	for i := 0; i < 2000; i++ {
+		a, b, x := rng.Float64()*200-0.9, rng.Float64()*200-0.9, rng.Float64()*10
+		var got [2][3]float64
+		var cmp [2]int
+		for j, atm := range []float64{101325, 60e3 + rng.Float64()*50e3} {
+			ctx := Context{Atmosphere: atm}
+			ga, gb, dx := barg.Q(a, ctx), barg.Q(b, ctx), bar.Q(x, ctx)
+			sum, err1 := Add(ga, dx)      // gauge + absolute unit: gauge
+			diff, err2 := Sub(ga, gb)     // gauge − gauge: difference
+			back, err3 := Add(gb, diff)   // gauge + difference: gauge, = a
+			k, err4 := Compare(sum, back) // gauge with gauge
+			if err := errors.Join(err1, err2, err3, err4); err != nil {
+				t.Fatalf("a=%g b=%g x=%g atm=%g: %v", a, b, x, atm, err)
+			}
+			v1, _ := sum.In(barg, ctx)
+			v2, _ := diff.In(bar, ctx)
+			v3, _ := back.In(barg, ctx)
+			got[j] = [3]float64{v1, v2, v3}
+			cmp[j] = k
+			if _, err := Add(ga, gb); err == nil {
+				t.Fatalf("%g barg + %g barg was allowed", a, b)
+			}
+			if _, err := diff.In(barg, ctx); err == nil {
+				t.Fatalf("%g barg - %g barg was shown in barg", a, b)
+			}
+		}
+		want := [3]float64{a + x, a - b, a}
+		for j := range got {
+			for n := range want {
+				if math.Abs(got[j][n]-want[n]) > 1e-9*math.Max(1, math.Abs(want[n])) {
+					t.Fatalf("a=%g b=%g x=%g: result %d = %.15g at atmosphere %d, want %.15g", a, b, x, n, got[j][n], j, want[n])
+				}
+			}
+		}
+		if cmp[0] != cmp[1] {
+			t.Fatalf("a=%g b=%g x=%g: comparison depends on the atmosphere", a, b, x)
+		}
 	}
 }
