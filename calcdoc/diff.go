@@ -274,7 +274,7 @@ func quantityOf(it *Item) (units.Quantity, bool) {
 }
 
 // quantityChange formats new minus old in the new display unit (a
-// temperature change in K or delta_degF, since a change is a difference)
+// temperature change in K or Fdeg, since a change is a difference)
 // and the change relative to the old value, in per cent.
 func quantityChange(a, b units.Quantity, d *Doc, display units.Unit) (change, rel string) {
 	if a.D != b.D {
@@ -300,7 +300,7 @@ func changeUnit(delta units.Quantity, display units.Unit) units.Unit {
 	case display.Kind == units.Linear && display.Dim == delta.D && !display.Kelvin:
 		return display
 	case display.Kind == units.AbsTemp && strings.Contains(display.String(), "degF"):
-		return units.MustParse("delta_degF")
+		return units.MustParse("Fdeg")
 	case delta.D == units.DimTemperature:
 		return units.MustParse("K")
 	}

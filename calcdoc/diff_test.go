@@ -234,7 +234,7 @@ func TestCompareValues(t *testing.T) {
 	}{
 		{"pressure", "p = 10 MPa", "p = 11 MPa", "+1.000 MPa", "+10.0 %", false},
 		{"temperature in K", "T [degC] = 540 degC", "T [degC] = 545 degC", "+5.000 K", "+0.615 %", false},
-		{"temperature in delta_degF", "T [degF] = 1000 degF", "T [degF] = 990 degF", "-10.00 delta_degF", "", false},
+		{"temperature in Fdeg", "T [degF] = 1000 degF", "T [degF] = 990 degF", "-10.00 Fdeg", "", false},
 		{"gauge pressure", "p [barg] = 10 barg", "p [barg] = 12 barg", "+200.0 kPa", "+18.2 %", false},
 		{"from zero", "q = 0 kW", "q = 3 kW", "+3.000 kW", "", false},
 		{"unchanged", "m = 2 kg", "m = 2 kg", "", "", true},

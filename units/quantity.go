@@ -11,7 +11,7 @@ type Temp uint8
 
 const (
 	// Rel is every quantity that is not a temperature, and a temperature
-	// difference (from absolute minus absolute, or written in delta_degC).
+	// difference (from absolute minus absolute, or written in Cdeg).
 	Rel Temp = iota
 	// Abs is an absolute temperature (written in degC or degF, or computed
 	// as absolute plus difference). Two absolutes cannot be added.
@@ -96,7 +96,7 @@ func (q Quantity) In(u Unit, ctx Context) (float64, error) {
 	case u.Kind == Gauge:
 		v = (q.V - ctx.Atmosphere) / u.Factor
 	case u.Kind == AbsTemp && q.T == Rel:
-		return 0, fmt.Errorf("a temperature difference cannot be shown in %s; use K or delta_%s", u, u)
+		return 0, fmt.Errorf("a temperature difference cannot be shown in %s; use K or %sdeg", u, strings.TrimPrefix(u.String(), "deg"))
 	default:
 		v = (q.V - u.Offset) / u.Factor
 	}
@@ -144,7 +144,7 @@ func Add(a, b Quantity) (Quantity, error) {
 	switch a.D {
 	case DimTemperature:
 		if a.T == Abs && b.T == Abs {
-			return r, fmt.Errorf("cannot add two absolute temperatures; subtract them for a difference, or write the one that is a difference in K or delta_degC")
+			return r, fmt.Errorf("cannot add two absolute temperatures; subtract them for a difference, or write the one that is a difference in K or Cdeg")
 		}
 		r.T = addTemp(a.T, b.T)
 	case DimPressure:

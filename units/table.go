@@ -93,8 +93,11 @@ var table = []Atom{
 	{Symbol: "degC", Factor: 1, Offset: 273.15, Dim: DimTemperature, Kind: AbsTemp, Name: "degree Celsius", Typeset: "°C"},
 	{Symbol: "degF", Factor: rankine, Offset: fZeroSI, Dim: DimTemperature, Kind: AbsTemp, Name: "degree Fahrenheit", Typeset: "°F"},
 	{Symbol: "degR", Factor: rankine, Dim: DimTemperature, Name: "degree Rankine", Typeset: "°R", KelvinLk: true},
-	{Symbol: "delta_degC", Factor: 1, Dim: DimTemperature, Name: "Celsius temperature difference", Typeset: "Δ°C"},
-	{Symbol: "delta_degF", Factor: rankine, Dim: DimTemperature, Name: "Fahrenheit temperature difference", Typeset: "Δ°F"},
+	// Temperature differences, spelt as the trade has long written an
+	// interval ("C deg"); typeset with a Δ before the degree sign, so a
+	// checker never reads them as temperatures.
+	{Symbol: "Cdeg", Factor: 1, Dim: DimTemperature, Name: "Celsius temperature difference (C deg)", Typeset: "Δ°C"},
+	{Symbol: "Fdeg", Factor: rankine, Dim: DimTemperature, Name: "Fahrenheit temperature difference (F deg)", Typeset: "Δ°F"},
 	// Absolute and gauge spellings of plant pressure units. NIST SP 811 §7.4
 	// (cited from memory) keeps "absolute" and "gauge" out of a unit symbol;
 	// plant documents write them there all the same, so the spellings are

@@ -133,11 +133,11 @@ func TestTemperatureRules(t *testing.T) {
 		t.Fatalf("100 degC - 1 degC = %+v, %v; want 99 K difference", d, err)
 	}
 	if _, err := d.In(MustParse("degC"), StandardAtmosphere); err == nil ||
-		err.Error() != "a temperature difference cannot be shown in degC; use K or delta_degC" {
+		err.Error() != "a temperature difference cannot be shown in degC; use K or Cdeg" {
 		t.Errorf("difference shown in degC: %v", err)
 	}
-	if v, _ := d.In(MustParse("delta_degF"), StandardAtmosphere); math.Abs(v-178.2) > 1e-12 {
-		t.Errorf("99 K = %g delta_degF, want 178.2", v) // 99 × 9/5 = 178.2, exact arithmetic
+	if v, _ := d.In(MustParse("Fdeg"), StandardAtmosphere); math.Abs(v-178.2) > 1e-12 {
+		t.Errorf("99 K = %g Fdeg, want 178.2", v) // 99 × 9/5 = 178.2, exact arithmetic
 	}
 	if _, err := Add(q(t, 20, "degC"), q(t, 30, "degC")); err == nil || !strings.HasPrefix(err.Error(), "cannot add two absolute temperatures") {
 		t.Errorf("degC + degC: %v", err)
@@ -480,5 +480,33 @@ func TestGaugeResultsIndependentOfAtmosphere(t *testing.T) {
 		if cmp[0] != cmp[1] {
 			t.Fatalf("a=%g b=%g x=%g: comparison depends on the atmosphere", a, b, x)
 		}
+	}
+}
+
+// Issue 17 item 8: the temperature differences are spelt Cdeg and Fdeg, as
+// the trade writes an interval ("C deg"); the old spellings are unknown.
+// 1 Fdeg = 5/9 K, exact by the definition of the Fahrenheit scale (NIST SP
+// 811 B.9).
+func TestTemperatureDifferenceSpelling(t *testing.T) {
+	if u := MustParse("Cdeg"); u.Factor != 1 || u.Dim != DimTemperature || u.Kind != Linear || u.Kelvin {
+		t.Errorf("Cdeg = %+v", u)
+	}
+	if u := MustParse("Fdeg"); u.Factor != 5.0/9.0 || u.Kind != Linear {
+		t.Errorf("Fdeg = %+v", u)
+	}
+	if q := q(t, 10, "Cdeg"); q.T != Rel {
+		t.Errorf("10 Cdeg is %v, want a difference", q.T)
+	}
+	for _, old := range []string{"delta_degC", "delta_degF"} {
+		if _, err := Parse(old); err == nil || !strings.HasPrefix(err.Error(), "unknown unit "+old) {
+			t.Errorf("Parse(%q) = %v; want unknown unit", old, err)
+		}
+	}
+	if Typeset("Cdeg") != "Δ°C" || Typeset("Fdeg") != "Δ°F" {
+		t.Errorf("typeset %s, %s; want Δ°C, Δ°F", Typeset("Cdeg"), Typeset("Fdeg"))
+	}
+	d, _ := Sub(q(t, 50, "degF"), q(t, 40, "degF"))
+	if _, err := d.In(MustParse("degF"), StandardAtmosphere); err == nil || err.Error() != "a temperature difference cannot be shown in degF; use K or Fdeg" {
+		t.Errorf("difference shown in degF: %v", err)
 	}
 }
