@@ -93,7 +93,7 @@ func splitLines(fm []byte) []string {
 func frontMap(fm []byte) (map[string]*yaml.Node, *frontErr) {
 	var root yaml.Node
 	if err := yaml.Unmarshal(fm, &root); err != nil {
-		return nil, &frontErr{1, 1, "front matter is not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ")}
+		return nil, &frontErr{1, 1, "front matter is not valid YAML (lines counted from the line after ---): " + strings.TrimPrefix(err.Error(), "yaml: ")}
 	}
 	top := map[string]*yaml.Node{}
 	if len(root.Content) == 0 {

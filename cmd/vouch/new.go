@@ -74,7 +74,7 @@ func cmdNew(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors
 	}
-	fmt.Fprintf(stdout, "wrote %s from the %s template (%s)\n", dest, t.Name, t.Origin())
+	fmt.Fprintf(stdout, "wrote %s from the template %s, %s\n", dest, t.Name, t.Origin())
 	return exitOK
 }
 
