@@ -1,6 +1,9 @@
 package settings
 
-import "testing"
+import (
+	"strings"
+	"testing"
+)
 
 // TestErrors lists every message of the settings reader with its exact
 // text and position.
@@ -62,6 +65,10 @@ func TestErrors(t *testing.T) {
 		{"tolerance nan", "compare:\n  tolerance: NaN %\n", `vouch.yaml:2:14: compare tolerance must be more than 0 % and less than 100 %, not "NaN %"`},
 		{"compare unknown", "compare:\n  tol: 1 %\n", `vouch.yaml:2:3: unknown key "tol" under compare; the keys are tolerance`},
 	}
+	cases = append(cases, struct{ name, src, want string }{"too large",
+		"caution: " + strings.Repeat("x", MaxSize) + "\n",
+		"vouch.yaml:1:1: vouch.yaml is larger than 1048576 bytes; a settings file is a page of text"},
+		struct{ name, src, want string }{"not UTF-8", "paper: \xff\n", "vouch.yaml:1:1: vouch.yaml is not valid YAML: invalid leading UTF-8 octet"})
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
 			s, err := Parse("vouch.yaml", []byte(c.src))

@@ -5,7 +5,6 @@ import (
 	"path"
 	"strconv"
 	"strings"
-	"unicode/utf8"
 
 	"go.yaml.in/yaml/v3"
 )
@@ -17,10 +16,6 @@ func sprintf(format string, args ...any) string { return fmt.Sprintf(format, arg
 func (d *decoder) text(n *yaml.Node, what string, dst *string, oneLine bool) bool {
 	if n.Kind != yaml.ScalarNode || n.Tag == "!!null" || strings.TrimSpace(n.Value) == "" {
 		d.errf(n, "%s must be a text", what)
-		return false
-	}
-	if !utf8.ValidString(n.Value) {
-		d.errf(n, "%s is not valid UTF-8 text", what)
 		return false
 	}
 	for _, r := range n.Value {
