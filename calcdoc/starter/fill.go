@@ -26,8 +26,8 @@ const placeholder = "Name <name@example.com>"
 // everything else of the template as written.
 func Fill(t Template, s *settings.Settings, preparer Person) ([]byte, error) {
 	fm, body, ok := splitFront(t.Text)
-	if !ok {
-		fm, body = nil, t.Text
+	if !ok && bytes.HasPrefix(t.Text, []byte("---\n")) {
+		return nil, (&frontErr{0, 1, "front matter is not closed: add a line --- after it"}).in(t)
 	}
 	top, ferr := frontMap(fm)
 	if ferr != nil {

@@ -128,6 +128,7 @@ func TestFill(t *testing.T) {
 func TestFillErrors(t *testing.T) {
 	cases := []struct{ text, want string }{
 		{"---\ntitle: [\n---\n", ".vouch/templates/x.calc.md:2:1: front matter is not valid YAML (lines counted from the line after ---): line 1: did not find expected node content"},
+		{"---\ntitle: A\n", ".vouch/templates/x.calc.md:1:1: front matter is not closed: add a line --- after it"},
 		{"---\n- a\n---\n", ".vouch/templates/x.calc.md:2:1: front matter must be key: value lines"},
 		{"---\ntitle: A\ntitle: B\n---\n", ".vouch/templates/x.calc.md:3:1: title is given twice; keep one"},
 		{"---\npeople:\n  preparer: A <a@example.com>\n---\n", ".vouch/templates/x.calc.md:3:3: a template must not name the preparer; vouch new fills it in from git's user.name and user.email"},
