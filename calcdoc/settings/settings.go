@@ -82,6 +82,7 @@ var BuiltinFrontKeys = []string{
 // Settings are a repository's settings. The zero value is not useful: start
 // from Default or from Parse.
 type Settings struct {
+	// Firm is the title block on every cover and page header.
 	Firm Firm
 	// Paper is A4 or Letter; a calc may override it in its front matter.
 	Paper string
