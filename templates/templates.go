@@ -1,5 +1,7 @@
 // Package templates holds the HTML template and the styles of the
-// calculation package, embedded in the binary. Only calcdoc reads it.
+// calculation package, and the built-in calc templates of `vouch new`
+// (new/NAME.calc.md), embedded in the binary. Only calcdoc and its
+// subpackages read it.
 package templates
 
 import (

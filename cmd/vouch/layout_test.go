@@ -16,9 +16,11 @@ import (
 // cmd → calcdoc → eval → props → units). Standard-library imports are free,
 // except for the numerics packages, which may import only math.
 var allowed = map[string][]string{
-	"cmd/vouch":          {"calcdoc", "calcdoc/provenance", "calcdoc/register", "calcdoc/preview", "eval", "units", "props"},
+	"cmd/vouch":          {"calcdoc", "calcdoc/provenance", "calcdoc/register", "calcdoc/preview", "calcdoc/settings", "calcdoc/starter", "eval", "units", "props"},
 	"calcdoc":            {"calcdoc/provenance", "eval", "props", "units", "templates", "svgplot", "github.com/yuin/goldmark", "go.yaml.in/yaml/v3"},
 	"calcdoc/provenance": {"github.com/go-git/go-git/v5", "golang.org/x/crypto"},
+	"calcdoc/settings":   {"go.yaml.in/yaml/v3"},
+	"calcdoc/starter":    {"calcdoc/settings", "templates", "go.yaml.in/yaml/v3"},
 	"calcdoc/register":   {"calcdoc", "calcdoc/provenance"},
 	"calcdoc/preview":    {"calcdoc"},
 	"eval":               {"props", "units", "github.com/expr-lang/expr"},
