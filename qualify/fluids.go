@@ -14,13 +14,15 @@ import (
 // equation key, as helmholtz.LookupEquation does.
 type FluidLookup func(name, key string) (*helmholtz.Fluid, bool)
 
-func defaultFluids(name, key string) (*helmholtz.Fluid, bool) { return helmholtz.LookupEquation(name, key) }
+func defaultFluids(name, key string) (*helmholtz.Fluid, bool) {
+	return helmholtz.LookupEquation(name, key)
+}
 
 // fluidRow is one row of helmholtz_check-values.csv (columns fluid, eos, T,
 // rho, rho_unit, p_MPa, phase, property, value, unit, source, note).
 type fluidRow struct {
 	fluid, eos, rhoUnit, phase, prop, value, unit, source, note string
-	T, rho, p                                                  float64
+	T, rho, p                                                   float64
 }
 
 // fluidChecks computes every published value of the organic-fluid

@@ -79,10 +79,10 @@ const FormatName = "vouch-qualification/1"
 // Options configure a run. Water nil means the engine's own functions
 // (DefaultWater); tests pass perturbed ones.
 type Options struct {
-	Version string       // the engine's release number, recorded with its identity
-	With    string       // a folder of the firm's acceptance cases, or ""
-	Water   WaterFuncs   // the water and steam functions to check; nil: DefaultWater()
-	Fluids  FluidLookup  // the organic-fluid equations to check; nil: helmholtz.LookupEquation
+	Version string           // the engine's release number, recorded with its identity
+	With    string           // a folder of the firm's acceptance cases, or ""
+	Water   WaterFuncs       // the water and steam functions to check; nil: DefaultWater()
+	Fluids  FluidLookup      // the organic-fluid equations to check; nil: helmholtz.LookupEquation
 	Ident   *engine.Identity // the identity to record; nil: engine.Identify(Version)
 }
 
