@@ -35,6 +35,7 @@ func init() {
 		{"diff", "FILE [--from REV] [--to REV]", "show what changed in a calc between two revisions", cmdDiff},
 		{"register", "DIR [-o DIR] [--shard i/n]", "render the changed calcs under DIR and write the register's index", cmdRegister},
 		{"serve", "FILE|DIR [--addr HOST:PORT]", "serve a live preview that refreshes on save", cmdServe},
+		{"qualify", "[-o DIR] [--with DIR]", "run the engine's verification suite and write its report", cmdQualify},
 		{"units", "", "list every unit with its SI factor", cmdUnits},
 		{"functions", "", "list the functions a calc can call", cmdFunctions},
 		{"help", "", "show this help", cmdHelp},
