@@ -7,7 +7,6 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
-	"strconv"
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc"
@@ -143,7 +142,7 @@ func compare(d *calcdoc.Doc, e expectation, base string) (Check, error) {
 		return Check{}, fmt.Errorf("%s: %v", e.name, err)
 	}
 	c := Check{Group: GroupFirm, ID: fmt.Sprintf("%s:%s", base, e.name), Source: e.source,
-		What: fmt.Sprintf("%s: %s", base, e.name), Expected: strconv.FormatFloat(e.value, 'g', -1, 64),
+		What: fmt.Sprintf("%s: %s", base, e.name), Expected: strings.Fields(e.expect)[0],
 		Unit: e.unitText, ExpectedV: e.value, ToleranceS: e.tolText}
 	c.Tolerance = e.rel * math.Abs(e.value)
 	if e.rel == 0 {

@@ -8,6 +8,7 @@
 package qualify
 
 import (
+	"bytes"
 	"crypto/sha256"
 	"embed"
 	"encoding/hex"
@@ -170,11 +171,14 @@ func (r *Report) Passed() bool { return r.Summary.Failed == 0 }
 // fields in declaration order, floats in Go's shortest form, so the same
 // report gives the same bytes.
 func (r *Report) CanonicalJSON() []byte {
-	b, err := json.MarshalIndent(r, "", "  ")
-	if err != nil {
+	var b bytes.Buffer
+	enc := json.NewEncoder(&b)
+	enc.SetEscapeHTML(false)
+	enc.SetIndent("", "  ")
+	if err := enc.Encode(r); err != nil {
 		panic("qualify: a report always encodes: " + err.Error()) // only finite floats are stored
 	}
-	return append(b, '\n')
+	return b.Bytes()
 }
 
 // ComputeDigest returns the hex SHA-256 of the canonical JSON of the report
