@@ -2,9 +2,11 @@ package qualify
 
 import (
 	"bytes"
+	"math"
 	"os"
 	"path/filepath"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -137,6 +139,27 @@ func TestReportCoversGoTables(t *testing.T) {
 	for v := range r7 {
 		if !passed[v] {
 			t.Errorf("check value %s of the if97 tests is not reproduced in the report", v)
+		}
+	}
+	// The command's end-to-end tests quote published values too (some
+	// rounded, within their tolerance): each must be a reproduced value.
+	row := regexp.MustCompile(`\{"\w+",\s*([0-9.eE+-]+),\s*([0-9.eE+-]+)\},\s*//.*(Table|NIST)`)
+	for _, f := range []string{"../cmd/vouch/water_test.go", "../cmd/vouch/fluid_test.go"} {
+		rows := goRows(t, f, row)
+		if len(rows) < 5 {
+			t.Fatalf("found %d published values in %s", len(rows), f)
+		}
+		for k := range rows {
+			parts := strings.Split(k, "|")
+			v, _ := strconv.ParseFloat(parts[0], 64)
+			tol, _ := strconv.ParseFloat(parts[1], 64)
+			found := false
+			for _, c := range r.Checks {
+				found = found || c.Verdict == Pass && math.Abs(c.ExpectedV-v) <= max(tol, tol*math.Abs(v))
+			}
+			if !found {
+				t.Errorf("%s: published value %s is not reproduced in the report", f, parts[0])
+			}
 		}
 	}
 }
