@@ -5,6 +5,7 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"strconv"
 
 	"github.com/vouchcalc/vouch/qualify"
 )
@@ -49,7 +50,11 @@ func cmdQualify(args []string, stdout, stderr io.Writer) int {
 	fmt.Fprintf(stdout, "%d values: %d reproduced, %d not reproduced, %d listed but not claimed\n", s.Total, s.Passed, s.Failed, s.NotRun)
 	for _, c := range r.Checks {
 		if c.Verdict == qualify.Fail {
-			fmt.Fprintf(stdout, "FAIL %s: %s: expected %s %s (%s)\n", c.Source, c.What, c.Expected, c.Unit, c.ID)
+			got := "no value"
+			if c.Computed != nil {
+				got = strconv.FormatFloat(*c.Computed, 'g', 12, 64)
+			}
+			fmt.Fprintf(stdout, "FAIL %s: %s: expected %s %s %s, computed %s (%s)\n", c.Source, c.What, c.Expected, c.Unit, c.ToleranceS, got, c.ID)
 		}
 	}
 	fmt.Fprintf(stdout, "report digest sha256 %s\nwrote %s\n", r.Digest, filepath.Join(*out, "qualification.html"))
