@@ -13,11 +13,14 @@ import (
 
 // allowed lists, per package of this module, the packages of this module
 // and the third-party modules it may import (STYLE.md habit 9: imports run
-// cmd → calcdoc → eval → props → units). Standard-library imports are free,
+// cmd → qualify → calcdoc → eval → props → units;
+// internal/engine, the build's identity, imports nothing of ours). Standard-library imports are free,
 // except for the numerics packages, which may import only math.
 var allowed = map[string][]string{
-	"cmd/vouch":          {"calcdoc", "calcdoc/provenance", "calcdoc/register", "calcdoc/preview", "calcdoc/settings", "calcdoc/starter", "eval", "units", "props"},
+	"cmd/vouch":          {"calcdoc", "calcdoc/provenance", "calcdoc/register", "calcdoc/preview", "calcdoc/settings", "calcdoc/starter", "eval", "units", "props", "qualify", "internal/engine"},
 	"calcdoc":            {"calcdoc/provenance", "eval", "props", "units", "templates", "svgplot", "github.com/yuin/goldmark", "go.yaml.in/yaml/v3"},
+	"qualify":            {"calcdoc", "props/if97", "props/helmholtz", "units", "internal/engine", "go.yaml.in/yaml/v3"},
+	"internal/engine":    {},
 	"calcdoc/provenance": {"github.com/go-git/go-git/v5", "golang.org/x/crypto"},
 	"calcdoc/settings":   {"go.yaml.in/yaml/v3"},
 	"calcdoc/starter":    {"calcdoc/settings", "templates", "go.yaml.in/yaml/v3"},

@@ -36,6 +36,7 @@ func init() {
 		{"register", "DIR [-o DIR] [--shard i/n]", "render the changed calcs under DIR and write the register's index", cmdRegister},
 		{"serve", "FILE|DIR [--addr HOST:PORT]", "serve a live preview that refreshes on save", cmdServe},
 		{"new", "[--template NAME] FILE.calc.md", "write a starter calc from a template (--list lists them)", cmdNew},
+		{"qualify", "[-o DIR] [--with DIR]", "run the engine's verification suite and write its report", cmdQualify},
 		{"units", "", "list every unit with its SI factor", cmdUnits},
 		{"functions", "", "list the functions a calc can call", cmdFunctions},
 		{"help", "", "show this help", cmdHelp},
