@@ -129,12 +129,27 @@ func fluidError(call string, f *helmholtz.Fluid, err error) error {
 func fluidState(f *helmholtz.Fluid, p helmholtz.Props) *State {
 	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
 		Phase: p.Phase.String(), TwoPhase: p.Phase == helmholtz.TwoPhase}
-	s := n.state(f.Name, f.Equation+" for "+f.Name, f.Reference)
-	for _, k := range []string{"mu", "k"} {
-		delete(s.values, k)
-		s.missing[k] = "vouch has no transport-property correlation for " + f.Name
+	return n.state(f.Name, formulationOf(f), f.Reference)
+}
+
+// formulations holds "EQUATION for NAME" of every organic fluid, built
+// once, so a state does not build the text again.
+var formulations = func() map[*helmholtz.Fluid]string {
+	m := map[*helmholtz.Fluid]string{}
+	for _, n := range helmholtz.Names() {
+		if f, ok := helmholtz.Lookup(n); ok {
+			m[f] = f.Equation + " for " + f.Name
+		}
 	}
-	return s
+	return m
+}()
+
+// formulationOf names the equation of state of an organic fluid.
+func formulationOf(f *helmholtz.Fluid) string {
+	if s, ok := formulations[f]; ok {
+		return s
+	}
+	return f.Equation + " for " + f.Name
 }
 
 // FluidInfo describes a working fluid for listings.

@@ -62,19 +62,14 @@ func Water(a, b units.Quantity) (*State, error) {
 	return waterState(p), nil
 }
 
-// waterState adds the transport properties and converts to quantities.
+// waterState converts an IF97 state; mu and k are computed from it when
+// they are read.
 func waterState(p if97.Props) *State {
 	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
 		Phase: p.Phase.String(), Region: p.Region, TwoPhase: p.Phase == if97.TwoPhase}
-	if !n.TwoPhase || p.X == 0 || p.X == 1 {
-		if mu, err := if97.Viscosity(p.Rho, p.T); err == nil {
-			n.Mu = mu
-		}
-		if k, err := if97.Conductivity(p.Rho, p.T); err == nil {
-			n.K = k
-		}
-	}
-	return n.state("water", IF97, IF97Reference)
+	s := n.state("water", IF97, IF97Reference)
+	s.water, s.isWater = p, true
+	return s
 }
 
 // WaterSat returns the saturation line of water at a pressure or a
