@@ -128,7 +128,7 @@ func fluidError(call string, f *helmholtz.Fluid, err error) error {
 
 func fluidState(f *helmholtz.Fluid, p helmholtz.Props) *State {
 	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
-		Phase: p.Phase.String(), TwoPhase: p.Phase == helmholtz.TwoPhase}
+		Tc: f.Tc, RhoC: f.RhoC, Phase: p.Phase.String(), TwoPhase: p.Phase == helmholtz.TwoPhase}
 	return n.state(f.Name, formulationOf(f), f.Reference)
 }
 

@@ -107,7 +107,8 @@ type State struct {
 	num         [fX + 1]float64
 	water       if97.Props // water: the state mu and k are computed from
 	isWater     bool
-	mixture     bool // two-phase with 0 < x < 1
+	tc, rhoc    float64 // critical temperature and density of the formulation
+	mixture     bool    // two-phase with 0 < x < 1
 	supercrit   bool
 }
 
@@ -205,19 +206,46 @@ func (s *State) transport(i int) (float64, error) {
 }
 
 // defined applies the rules every state keeps: no field is NaN or
-// infinite; p, T, v, rho, cp, cv, w, mu and k are above zero; cp and k are
-// not given at the critical point (cp/cv above CritRatio, see there).
+// infinite; p, T, v, rho, cp, cv, w, mu and k are above zero; cp is not
+// given at the critical point (cp/cv above CritRatio, see there), nor k,
+// whose critical enhancement contains cp.
 func (s *State) defined(i int, v float64) error {
-	name := stateFields[i]
-	if math.IsNaN(v) || math.IsInf(v, 0) || mustBePositive[i] && !(v > 0) {
-		return s.undefined(name, fmt.Sprintf("%s gives %s = %s here, and %s must be finite and above zero; the formulation does not define it at this state (as at the critical point, where cp diverges)",
-			s.Formulation, name, showNum(v), name))
+	if why := s.why(i, v); why != "" {
+		return s.undefined(stateFields[i], why)
 	}
-	if (i == fCp || i == fK) && !(s.num[fCp] <= CritRatio*s.num[fCv]) {
-		return s.undefined(name, fmt.Sprintf("the state is the critical point of %s to within the precision of its constants (cp/cv = %s, above %s), where cp and the thermal conductivity diverge",
-			s.Formulation, showNum(s.num[fCp]/s.num[fCv]), showNum(CritRatio)))
+	if i == fK {
+		if why := s.why(fCp, s.num[fCp]); why != "" {
+			return s.undefined("k", "its critical enhancement (IAPWS R15-11) contains cp, and "+why)
+		}
 	}
 	return nil
+}
+
+// stateSI are the SI units of the quantity fields, for messages.
+var stateSI = [fK + 1]string{"Pa", "K", "J/kg", "J/(kg*K)", "J/kg", "m^3/kg", "kg/m^3", "J/(kg*K)", "J/(kg*K)", "m/s", "", "Pa*s", "W/(m*K)"}
+
+// why says why field i with value v is not defined, or returns "".
+func (s *State) why(i int, v float64) string {
+	name := stateFields[i]
+	bad := math.IsNaN(v) || math.IsInf(v, 0) || mustBePositive[i] && !(v > 0)
+	if !bad && !(i == fCp && !(v <= CritRatio*s.num[fCv])) {
+		return ""
+	}
+	given := strings.TrimSpace(fmt.Sprintf("%s gives %s = %s %s", s.Formulation, name, showNum(v), stateSI[i]))
+	if s.nearCritical() {
+		return fmt.Sprintf("the state is the critical point of %s (T = %s, rho = %s) to within the precision of its constants, where cp diverges; %s",
+			s.Fluid, showValue("T", s.tc), showValue("rho", s.rhoc), given)
+	}
+	if !bad {
+		return fmt.Sprintf("%s, %s times cv (above %s): the state is too close to the critical point for cp to be a number", given, showNum(v/s.num[fCv]), showNum(CritRatio))
+	}
+	return given + ", and " + name + " must be finite and above zero: the formulation does not define it at this state"
+}
+
+// nearCritical reports whether the state lies within 0.1 % in T and 25 % in
+// density of the critical point (for messages only).
+func (s *State) nearCritical() bool {
+	return math.Abs(s.num[fT]/s.tc-1) < 1e-3 && math.Abs(s.num[fRho]/s.rhoc-1) < 0.25
 }
 
 // undefined says that a field is not defined at this state, naming the
@@ -278,6 +306,7 @@ func joinFields(f []string) string {
 // numState is a state in SI base units, as both numerics packages give it.
 type numState struct {
 	P, T, V, Rho, H, S, U, Cp, Cv, W, X float64
+	Tc, RhoC                            float64 // critical point of the formulation
 	Phase                               string
 	Region                              int
 	TwoPhase                            bool
@@ -286,7 +315,8 @@ type numState struct {
 // state builds a State from SI numbers.
 func (n *numState) state(fluid, formulation, reference string) *State {
 	s := &State{Fluid: fluid, Formulation: formulation, Reference: reference, Phase: n.Phase, Region: n.Region,
-		num:       [fX + 1]float64{n.P, n.T, n.H, n.S, n.U, n.V, n.Rho, n.Cp, n.Cv, n.W, n.X},
+		num: [fX + 1]float64{n.P, n.T, n.H, n.S, n.U, n.V, n.Rho, n.Cp, n.Cv, n.W, n.X},
+		tc:  n.Tc, rhoc: n.RhoC,
 		mixture:   n.TwoPhase && n.X > 0 && n.X < 1,
 		supercrit: n.Phase == "supercritical"}
 	return s

@@ -66,7 +66,7 @@ func Water(a, b units.Quantity) (*State, error) {
 // they are read.
 func waterState(p if97.Props) *State {
 	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
-		Phase: p.Phase.String(), Region: p.Region, TwoPhase: p.Phase == if97.TwoPhase}
+		Tc: if97.Tc, RhoC: if97.Rhoc, Phase: p.Phase.String(), Region: p.Region, TwoPhase: p.Phase == if97.TwoPhase}
 	s := n.state("water", IF97, IF97Reference)
 	s.water, s.isWater = p, true
 	return s
