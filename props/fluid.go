@@ -219,21 +219,30 @@ func Describe(source string) string {
 // Crit is a fluid's critical point and the range of its formulation.
 type Crit struct {
 	Fluid, Formulation string
-	values             map[string]units.Quantity
+	num                [len(critFields)]float64 // T, p, rho, Tmin, Tmax, pmax in SI
 }
 
-var critFields = []string{"T", "p", "rho", "Tmin", "Tmax", "pmax"}
+var critFields = [...]string{"T", "p", "rho", "Tmin", "Tmax", "pmax"}
+
+var critDims = [len(critFields)]units.Dim{units.DimTemperature, units.DimPressure, units.DimDensity,
+	units.DimTemperature, units.DimTemperature, units.DimPressure}
 
 // Field returns a field of the critical point by its calc name.
 func (c *Crit) Field(name string) (any, error) {
-	if q, ok := c.values[name]; ok {
-		return q, nil
+	for i, n := range critFields {
+		if n == name {
+			q := units.Quantity{V: c.num[i], D: critDims[i]}
+			if q.D == units.DimTemperature {
+				q.T = units.Abs
+			}
+			return q, nil
+		}
 	}
-	return nil, fmt.Errorf("fluid_crit has no field %s; its fields are %s", name, joinFields(critFields))
+	return nil, fmt.Errorf("fluid_crit has no field %s; its fields are %s", name, joinFields(critFields[:]))
 }
 
 // FieldNames lists the fields of a critical point.
-func (c *Crit) FieldNames() []string { return critFields }
+func (c *Crit) FieldNames() []string { return critFields[:] }
 
 // Source names the formulation.
 func (c *Crit) Source() string { return c.Formulation }
@@ -242,19 +251,14 @@ func (c *Crit) Source() string { return c.Formulation }
 // formulation's range (Tmin, Tmax, pmax), so a calc can check a reduced
 // pressure or a margin once for every fluid.
 func FluidCrit(name string) (*Crit, error) {
-	abs := func(T float64) units.Quantity { return units.Quantity{V: T, D: units.DimTemperature, T: units.Abs} }
-	p := func(v float64) units.Quantity { return units.Quantity{V: v, D: units.DimPressure} }
-	rho := func(v float64) units.Quantity { return units.Quantity{V: v, D: units.DimDensity} }
 	if isWater(name) {
 		// IAPWS R7-97(2012) Eqs. (2)-(4): Tc = 647.096 K, pc = 22.064 MPa, rhoc = 322 kg/m3;
 		// the range of Section 2 (to 1073.15 K at 100 MPa).
-		return &Crit{Fluid: "water", Formulation: IF97, values: map[string]units.Quantity{
-			"T": abs(647.096), "p": p(22.064e6), "rho": rho(322), "Tmin": abs(273.15), "Tmax": abs(1073.15), "pmax": p(100e6)}}, nil
+		return &Crit{Fluid: "water", Formulation: IF97, num: [len(critFields)]float64{647.096, 22.064e6, 322, 273.15, 1073.15, 100e6}}, nil
 	}
 	f, err := lookupFluid(name)
 	if err != nil {
 		return nil, err
 	}
-	return &Crit{Fluid: f.Name, Formulation: f.Equation + " for " + f.Name, values: map[string]units.Quantity{
-		"T": abs(f.Tc), "p": p(f.Pc), "rho": rho(f.RhoC), "Tmin": abs(f.Tmin), "Tmax": abs(f.Tmax), "pmax": p(f.Pmax)}}, nil
+	return &Crit{Fluid: f.Name, Formulation: formulationOf(f), num: [len(critFields)]float64{f.Tc, f.Pc, f.RhoC, f.Tmin, f.Tmax, f.Pmax}}, nil
 }
