@@ -47,44 +47,44 @@ func Fluid(name string, a, b units.Quantity) (*State, error) {
 	if err != nil {
 		return nil, err
 	}
-	call := fmt.Sprintf("fluid(%q", f.Name)
-	ka, kb, qa, qb, err := pair(call+", A, B)", a, b)
+	ka, kb, qa, qb, err := pair(func() string { return fmt.Sprintf("fluid(%q, A, B)", f.Name) }, a, b)
 	if err != nil {
 		return nil, err
 	}
-	call += fmt.Sprintf(", %s, %s)", ka, kb)
-	if err := positive(call, ka, qa, kb, qb); err != nil {
+	// The call as messages show it, built only for a message.
+	callText := func() string { return fmt.Sprintf("fluid(%q, %s, %s)", f.Name, ka, kb) }
+	if err := positive(callText, ka, qa, kb, qb); err != nil {
 		return nil, err
 	}
 	var p helmholtz.Props
-	switch string(ka) + "," + string(kb) {
-	case "p,T":
+	switch [2]kind{ka, kb} {
+	case [2]kind{kP, kT}:
 		p, err = f.StatePT(qa.V, qb.V)
-	case "p,h":
+	case [2]kind{kP, kH}:
 		p, err = f.StatePH(qa.V, qb.V)
-	case "p,s":
+	case [2]kind{kP, kS}:
 		p, err = f.StatePS(qa.V, qb.V)
-	case "h,s":
+	case [2]kind{kH, kS}:
 		p, err = f.StateHS(qa.V, qb.V)
-	case "p,x":
+	case [2]kind{kP, kX}:
 		p, err = f.StatePX(qa.V, qb.V)
-	case "T,x":
+	case [2]kind{kT, kX}:
 		p, err = f.StateTX(qa.V, qb.V)
-	case "T,v":
+	case [2]kind{kT, kV}:
 		p, err = f.StateTRho(qa.V, 1/qb.V)
-	case "p,v":
+	case [2]kind{kP, kV}:
 		p, err = f.StatePV(qa.V, qb.V)
 	default:
-		return nil, fmt.Errorf("%s is not a pair the fluid functions can solve; use one of (p, T), (p, h), (p, s), (h, s), (p, x), (T, x), (T, v), (T, rho), (p, v), (p, rho)", call)
+		return nil, fmt.Errorf("%s is not a pair the fluid functions can solve; use one of (p, T), (p, h), (p, s), (h, s), (p, x), (T, x), (T, v), (T, rho), (p, v), (p, rho)", callText())
 	}
 	if err != nil {
 		if noStateErr(err) {
-			return nil, noStateMessage(call, f.Equation+" for "+f.Name, ka, qa, kb, qb)
+			return nil, noStateMessage(callText(), f.Equation+" for "+f.Name, ka, qa, kb, qb)
 		}
 		if onSatErr(err) {
-			return nil, onSatMessage(call, fmt.Sprintf("fluid(%q, ", f.Name), qa, qb)
+			return nil, onSatMessage(callText(), fmt.Sprintf("fluid(%q, ", f.Name), qa, qb)
 		}
-		return nil, fluidError(call, f, err)
+		return nil, fluidError(callText(), f, err)
 	}
 	return fluidState(f, p), nil
 }

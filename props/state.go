@@ -364,23 +364,38 @@ func kindOf(q units.Quantity) (kind, bool) {
 	return "", false
 }
 
-// order ranks kinds so a pair is read in one canonical order.
-var order = map[kind]int{kP: 0, kT: 1, kH: 2, kS: 3, kV: 4, kRho: 4, kX: 5}
+// rank orders kinds so a pair is read in one canonical order.
+func rank(k kind) int {
+	switch k {
+	case kP:
+		return 0
+	case kT:
+		return 1
+	case kH:
+		return 2
+	case kS:
+		return 3
+	case kV, kRho:
+		return 4
+	}
+	return 5
+}
 
 // Pairs lists the input pairs the state functions accept.
 var Pairs = []string{"(p, T)", "(p, h)", "(p, s)", "(h, s)", "(p, x)", "(T, x)", "(p, v)", "(p, rho)", "(T, v)", "(T, rho)"}
 
-// pair sorts two arguments into canonical order and names them.
-func pair(fn string, a, b units.Quantity) (ka, kb kind, qa, qb units.Quantity, err error) {
+// pair sorts two arguments into canonical order and names them; fn names
+// the call in an error (a function, so the text is built only then).
+func pair(fn func() string, a, b units.Quantity) (ka, kb kind, qa, qb units.Quantity, err error) {
 	ka, ok1 := kindOf(a)
 	kb, ok2 := kindOf(b)
 	switch {
 	case !ok1:
-		return "", "", a, b, fmt.Errorf("%s: the first argument is %s, which is none of pressure, temperature, specific enthalpy, specific entropy, specific volume, density or quality", fn, a.D.Name())
+		return "", "", a, b, fmt.Errorf("%s: the first argument is %s, which is none of pressure, temperature, specific enthalpy, specific entropy, specific volume, density or quality", fn(), a.D.Name())
 	case !ok2:
-		return "", "", a, b, fmt.Errorf("%s: the second argument is %s, which is none of pressure, temperature, specific enthalpy, specific entropy, specific volume, density or quality", fn, b.D.Name())
+		return "", "", a, b, fmt.Errorf("%s: the second argument is %s, which is none of pressure, temperature, specific enthalpy, specific entropy, specific volume, density or quality", fn(), b.D.Name())
 	}
-	if order[kb] < order[ka] {
+	if rank(kb) < rank(ka) {
 		ka, kb, a, b = kb, ka, b, a
 	}
 	if kb == kRho {
