@@ -195,3 +195,27 @@ func TestPositiveFieldsChecked(t *testing.T) {
 		}
 	}
 }
+
+// TestFieldAtRange: FieldAt outside the fields is an error, never a panic;
+// StateFieldIndex and FieldAt agree with Field for every field.
+func TestFieldAtRange(t *testing.T) {
+	st, err := Water(q(1, "MPa"), q(300, "degC"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, i := range []int{-1, len(stateFields), 1 << 30} {
+		if _, err := st.FieldAt(i); err == nil {
+			t.Errorf("FieldAt(%d) gave no error", i)
+		}
+	}
+	for _, n := range stateFields {
+		a, errA := st.Field(n)
+		b, errB := st.FieldAt(StateFieldIndex(n))
+		if a != b || (errA == nil) != (errB == nil) {
+			t.Errorf("%s: Field %v, %v; FieldAt %v, %v", n, a, errA, b, errB)
+		}
+	}
+	if StateFieldIndex("hf") != -1 {
+		t.Error("hf is not a state field")
+	}
+}

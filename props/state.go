@@ -11,7 +11,6 @@ import (
 	"strings"
 
 	"github.com/vouchcalc/vouch/props/if97"
-
 	"github.com/vouchcalc/vouch/units"
 )
 
@@ -33,7 +32,6 @@ const (
 	fK
 	fPhase
 	fRegion
-	nStateFields
 )
 
 // stateFields are the fields of a state in the order listings show them.
@@ -124,10 +122,12 @@ func (s *State) Field(name string) (any, error) {
 // FieldAt returns the field of index i (from StateFieldIndex): a quantity,
 // or the phase as text.
 func (s *State) FieldAt(i int) (any, error) {
-	switch i {
-	case fPhase:
+	switch {
+	case i < 0 || i > fRegion:
+		return nil, fmt.Errorf("a state has no field number %d; its fields are %s", i, joinFields(stateFields))
+	case i == fPhase:
 		return s.Phase, nil
-	case fRegion:
+	case i == fRegion:
 		return units.Num(float64(s.Region)), nil
 	}
 	q, err := s.quantity(i)
@@ -157,7 +157,7 @@ func (s *State) Quantity(name string) (units.Quantity, bool) {
 // quantity returns quantity field i (fP..fK) or says why it is not defined.
 func (s *State) quantity(i int) (units.Quantity, error) {
 	if i < 0 || i > fK {
-		return units.Quantity{}, fmt.Errorf("%s is not a quantity", stateFields[i])
+		return units.Quantity{}, fmt.Errorf("field number %d of a state is not a quantity", i)
 	}
 	name := stateFields[i]
 	var v float64
