@@ -47,44 +47,44 @@ func Fluid(name string, a, b units.Quantity) (*State, error) {
 	if err != nil {
 		return nil, err
 	}
-	call := fmt.Sprintf("fluid(%q", f.Name)
-	ka, kb, qa, qb, err := pair(call+", A, B)", a, b)
+	ka, kb, qa, qb, err := pair(func() string { return fmt.Sprintf("fluid(%q, A, B)", f.Name) }, a, b)
 	if err != nil {
 		return nil, err
 	}
-	call += fmt.Sprintf(", %s, %s)", ka, kb)
-	if err := positive(call, ka, qa, kb, qb); err != nil {
+	// The call as messages show it, built only for a message.
+	callText := func() string { return fmt.Sprintf("fluid(%q, %s, %s)", f.Name, ka, kb) }
+	if err := positive(callText, ka, qa, kb, qb); err != nil {
 		return nil, err
 	}
 	var p helmholtz.Props
-	switch string(ka) + "," + string(kb) {
-	case "p,T":
+	switch [2]kind{ka, kb} {
+	case [2]kind{kP, kT}:
 		p, err = f.StatePT(qa.V, qb.V)
-	case "p,h":
+	case [2]kind{kP, kH}:
 		p, err = f.StatePH(qa.V, qb.V)
-	case "p,s":
+	case [2]kind{kP, kS}:
 		p, err = f.StatePS(qa.V, qb.V)
-	case "h,s":
+	case [2]kind{kH, kS}:
 		p, err = f.StateHS(qa.V, qb.V)
-	case "p,x":
+	case [2]kind{kP, kX}:
 		p, err = f.StatePX(qa.V, qb.V)
-	case "T,x":
+	case [2]kind{kT, kX}:
 		p, err = f.StateTX(qa.V, qb.V)
-	case "T,v":
+	case [2]kind{kT, kV}:
 		p, err = f.StateTRho(qa.V, 1/qb.V)
-	case "p,v":
+	case [2]kind{kP, kV}:
 		p, err = f.StatePV(qa.V, qb.V)
 	default:
-		return nil, fmt.Errorf("%s is not a pair the fluid functions can solve; use one of (p, T), (p, h), (p, s), (h, s), (p, x), (T, x), (T, v), (T, rho), (p, v), (p, rho)", call)
+		return nil, fmt.Errorf("%s is not a pair the fluid functions can solve; use one of (p, T), (p, h), (p, s), (h, s), (p, x), (T, x), (T, v), (T, rho), (p, v), (p, rho)", callText())
 	}
 	if err != nil {
 		if noStateErr(err) {
-			return nil, noStateMessage(call, f.Equation+" for "+f.Name, ka, qa, kb, qb)
+			return nil, noStateMessage(callText(), f.Equation+" for "+f.Name, ka, qa, kb, qb)
 		}
 		if onSatErr(err) {
-			return nil, onSatMessage(call, fmt.Sprintf("fluid(%q, ", f.Name), qa, qb)
+			return nil, onSatMessage(callText(), fmt.Sprintf("fluid(%q, ", f.Name), qa, qb)
 		}
-		return nil, fluidError(call, f, err)
+		return nil, fluidError(callText(), f, err)
 	}
 	return fluidState(f, p), nil
 }
@@ -128,13 +128,28 @@ func fluidError(call string, f *helmholtz.Fluid, err error) error {
 
 func fluidState(f *helmholtz.Fluid, p helmholtz.Props) *State {
 	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
-		Phase: p.Phase.String(), TwoPhase: p.Phase == helmholtz.TwoPhase}
-	s := n.state(f.Name, f.Equation+" for "+f.Name, f.Reference)
-	for _, k := range []string{"mu", "k"} {
-		delete(s.values, k)
-		s.missing[k] = "vouch has no transport-property correlation for " + f.Name
+		Tc: f.Tc, RhoC: f.RhoC, Phase: p.Phase.String(), TwoPhase: p.Phase == helmholtz.TwoPhase}
+	return n.state(f.Name, formulationOf(f), f.Reference)
+}
+
+// formulations holds "EQUATION for NAME" of every organic fluid, built
+// once, so a state does not build the text again.
+var formulations = func() map[*helmholtz.Fluid]string {
+	m := map[*helmholtz.Fluid]string{}
+	for _, n := range helmholtz.Names() {
+		if f, ok := helmholtz.Lookup(n); ok {
+			m[f] = f.Equation + " for " + f.Name
+		}
 	}
-	return s
+	return m
+}()
+
+// formulationOf names the equation of state of an organic fluid.
+func formulationOf(f *helmholtz.Fluid) string {
+	if s, ok := formulations[f]; ok {
+		return s
+	}
+	return f.Equation + " for " + f.Name
 }
 
 // FluidInfo describes a working fluid for listings.
@@ -204,21 +219,30 @@ func Describe(source string) string {
 // Crit is a fluid's critical point and the range of its formulation.
 type Crit struct {
 	Fluid, Formulation string
-	values             map[string]units.Quantity
+	num                [len(critFields)]float64 // T, p, rho, Tmin, Tmax, pmax in SI
 }
 
-var critFields = []string{"T", "p", "rho", "Tmin", "Tmax", "pmax"}
+var critFields = [...]string{"T", "p", "rho", "Tmin", "Tmax", "pmax"}
+
+var critDims = [len(critFields)]units.Dim{units.DimTemperature, units.DimPressure, units.DimDensity,
+	units.DimTemperature, units.DimTemperature, units.DimPressure}
 
 // Field returns a field of the critical point by its calc name.
 func (c *Crit) Field(name string) (any, error) {
-	if q, ok := c.values[name]; ok {
-		return q, nil
+	for i, n := range critFields {
+		if n == name {
+			q := units.Quantity{V: c.num[i], D: critDims[i]}
+			if q.D == units.DimTemperature {
+				q.T = units.Abs
+			}
+			return q, nil
+		}
 	}
-	return nil, fmt.Errorf("fluid_crit has no field %s; its fields are %s", name, joinFields(critFields))
+	return nil, fmt.Errorf("fluid_crit has no field %s; its fields are %s", name, joinFields(critFields[:]))
 }
 
 // FieldNames lists the fields of a critical point.
-func (c *Crit) FieldNames() []string { return critFields }
+func (c *Crit) FieldNames() []string { return critFields[:] }
 
 // Source names the formulation.
 func (c *Crit) Source() string { return c.Formulation }
@@ -227,19 +251,14 @@ func (c *Crit) Source() string { return c.Formulation }
 // formulation's range (Tmin, Tmax, pmax), so a calc can check a reduced
 // pressure or a margin once for every fluid.
 func FluidCrit(name string) (*Crit, error) {
-	abs := func(T float64) units.Quantity { return units.Quantity{V: T, D: units.DimTemperature, T: units.Abs} }
-	p := func(v float64) units.Quantity { return units.Quantity{V: v, D: units.DimPressure} }
-	rho := func(v float64) units.Quantity { return units.Quantity{V: v, D: units.DimDensity} }
 	if isWater(name) {
 		// IAPWS R7-97(2012) Eqs. (2)-(4): Tc = 647.096 K, pc = 22.064 MPa, rhoc = 322 kg/m3;
 		// the range of Section 2 (to 1073.15 K at 100 MPa).
-		return &Crit{Fluid: "water", Formulation: IF97, values: map[string]units.Quantity{
-			"T": abs(647.096), "p": p(22.064e6), "rho": rho(322), "Tmin": abs(273.15), "Tmax": abs(1073.15), "pmax": p(100e6)}}, nil
+		return &Crit{Fluid: "water", Formulation: IF97, num: [len(critFields)]float64{647.096, 22.064e6, 322, 273.15, 1073.15, 100e6}}, nil
 	}
 	f, err := lookupFluid(name)
 	if err != nil {
 		return nil, err
 	}
-	return &Crit{Fluid: f.Name, Formulation: f.Equation + " for " + f.Name, values: map[string]units.Quantity{
-		"T": abs(f.Tc), "p": p(f.Pc), "rho": rho(f.RhoC), "Tmin": abs(f.Tmin), "Tmax": abs(f.Tmax), "pmax": p(f.Pmax)}}, nil
+	return &Crit{Fluid: f.Name, Formulation: formulationOf(f), num: [len(critFields)]float64{f.Tc, f.Pc, f.RhoC, f.Tmin, f.Tmax, f.Pmax}}, nil
 }

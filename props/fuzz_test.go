@@ -70,6 +70,13 @@ func checkState(t *testing.T, call string, st *State, a, b string, va, vb float6
 			t.Fatalf("%s: %s = %v, not positive", call, n, qv.V)
 		}
 	}
+	// A field that must be positive is positive wherever it is given (the
+	// class of cp = 0 and cp < 0 at the critical point).
+	for _, n := range []string{"cp", "cv", "w", "mu", "k"} {
+		if qv, ok := st.Quantity(n); ok && !(qv.V > 0) {
+			t.Fatalf("%s: %s = %v, not positive", call, n, qv.V)
+		}
+	}
 	if st.Phase == "two-phase" {
 		if x, _ := st.Quantity("x"); !(x.V >= 0 && x.V <= 1) {
 			t.Fatalf("%s: two-phase with x = %v", call, x.V)

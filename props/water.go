@@ -21,30 +21,30 @@ const (
 // Water returns the state of water or steam from two properties, read from
 // their dimensions (IAPWS-IF97).
 func Water(a, b units.Quantity) (*State, error) {
-	ka, kb, qa, qb, err := pair("water", a, b)
+	ka, kb, qa, qb, err := pair(waterName, a, b)
 	if err != nil {
 		return nil, err
 	}
-	if err := positive("water", ka, qa, kb, qb); err != nil {
+	if err := positive(waterName, ka, qa, kb, qb); err != nil {
 		return nil, err
 	}
 	var p if97.Props
-	switch string(ka) + "," + string(kb) {
-	case "p,T":
+	switch [2]kind{ka, kb} {
+	case [2]kind{kP, kT}:
 		p, err = if97.StatePT(qa.V, qb.V)
-	case "p,h":
+	case [2]kind{kP, kH}:
 		p, err = if97.StatePH(qa.V, qb.V)
-	case "p,s":
+	case [2]kind{kP, kS}:
 		p, err = if97.StatePS(qa.V, qb.V)
-	case "h,s":
+	case [2]kind{kH, kS}:
 		p, err = if97.StateHS(qa.V, qb.V)
-	case "p,x":
+	case [2]kind{kP, kX}:
 		p, err = if97.StatePX(qa.V, qb.V)
-	case "T,x":
+	case [2]kind{kT, kX}:
 		p, err = if97.StateTX(qa.V, qb.V)
-	case "p,v":
+	case [2]kind{kP, kV}:
 		p, err = if97.StatePV(qa.V, qb.V)
-	case "T,v":
+	case [2]kind{kT, kV}:
 		p, err = if97.StateTV(qa.V, qb.V)
 	default:
 		return nil, fmt.Errorf("water(%s, %s) is not a pair the formulation can solve; use one of %s", ka, kb, joinFields(Pairs))
@@ -62,19 +62,16 @@ func Water(a, b units.Quantity) (*State, error) {
 	return waterState(p), nil
 }
 
-// waterState adds the transport properties and converts to quantities.
+func waterName() string { return "water" }
+
+// waterState converts an IF97 state; mu and k are computed from it when
+// they are read.
 func waterState(p if97.Props) *State {
 	n := numState{P: p.P, T: p.T, V: p.V, Rho: p.Rho, H: p.H, S: p.S, U: p.U, Cp: p.Cp, Cv: p.Cv, W: p.W, X: p.X,
-		Phase: p.Phase.String(), Region: p.Region, TwoPhase: p.Phase == if97.TwoPhase}
-	if !n.TwoPhase || p.X == 0 || p.X == 1 {
-		if mu, err := if97.Viscosity(p.Rho, p.T); err == nil {
-			n.Mu = mu
-		}
-		if k, err := if97.Conductivity(p.Rho, p.T); err == nil {
-			n.K = k
-		}
-	}
-	return n.state("water", IF97, IF97Reference)
+		Tc: if97.Tc, RhoC: if97.Rhoc, Phase: p.Phase.String(), Region: p.Region, TwoPhase: p.Phase == if97.TwoPhase}
+	s := n.state("water", IF97, IF97Reference)
+	s.water, s.isWater = p, true
+	return s
 }
 
 // WaterSat returns the saturation line of water at a pressure or a
@@ -101,13 +98,13 @@ func WaterSat(x units.Quantity) (*Sat, error) {
 
 // positive refuses non-positive pressures, temperatures and volumes before
 // the numerics see them.
-func positive(fn string, ka kind, qa units.Quantity, kb kind, qb units.Quantity) error {
+func positive(fn func() string, ka kind, qa units.Quantity, kb kind, qb units.Quantity) error {
 	for _, a := range []struct {
 		k kind
 		q units.Quantity
 	}{{ka, qa}, {kb, qb}} {
 		if (a.k == kP || a.k == kT || a.k == kV) && !(a.q.V > 0) {
-			return fmt.Errorf("%s: %s = %s must be above zero", fn, a.k, showValue(string(a.k), a.q.V))
+			return fmt.Errorf("%s: %s = %s must be above zero", fn(), a.k, showValue(string(a.k), a.q.V))
 		}
 	}
 	return nil

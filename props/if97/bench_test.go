@@ -64,3 +64,24 @@ func BenchmarkStatePSRegion1(b *testing.B)  { benchState(b, StatePS, 3e6, 1500) 
 func BenchmarkStatePSRegion2(b *testing.B)  { benchState(b, StatePS, 1e6, 7000) }
 func BenchmarkStatePHRegion3(b *testing.B)  { benchState(b, StatePH, 25e6, 2000e3) }
 func BenchmarkStateHSRegion2(b *testing.B)  { benchState(b, StateHS, 3200e3, 7000) }
+
+// BenchmarkConductivityOf: the conductivity of a known region-2 state (10 MPa, 773.15 K), the
+// path props takes when .k is read.
+func BenchmarkConductivityOf(b *testing.B) {
+	st, _ := StatePT(10e6, 773.15)
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		k, _ := ConductivityOf(&st)
+		sink += k
+	}
+}
+
+// BenchmarkConductivity: the same conductivity from (rho, T), which solves for the state again.
+func BenchmarkConductivity(b *testing.B) {
+	st, _ := StatePT(10e6, 773.15)
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		k, _ := Conductivity(st.Rho, st.T)
+		sink += k
+	}
+}

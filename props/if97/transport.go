@@ -173,14 +173,14 @@ func lamCritical(rb, tb, cp, cv, drdp, mub float64) float64 {
 // temperature T (K), IAPWS R15-11 Eq. (10) in its industrial form: λ2 from Eqs. (18)-(25) with
 // cp, cv and (∂ρ/∂p)_T from IAPWS-IF97, ζ at T̄R = 1.5 from Eq. (26), and μ̄ from R12-08 with
 // μ2 = 1. The state (rho, T) must be a single-phase state of IAPWS-IF97 with T <= 1173.15 K;
-// rho = 0 gives the dilute-gas limit λ0.
+// rho = 0 gives the dilute-gas limit λ0. It finds the state from (T, 1/rho); a caller that
+// has the state already uses ConductivityOf, which does not solve for it again.
 func Conductivity(rho, T float64) (float64, error) {
 	if err := checkTransport(rho, T); err != nil {
 		return 0, err
 	}
-	rb, tb := rho/trRhoStar, T/trTStar
 	if rho == 0 {
-		return lamBackground(0, tb) * trLamStar, nil
+		return lamBackground(0, T/trTStar) * trLamStar, nil
 	}
 	st, err := StateTV(T, 1/rho)
 	if err != nil {
@@ -192,21 +192,75 @@ func Conductivity(rho, T float64) (float64, error) {
 	if st.Region == 4 {
 		return 0, twoPhaseRho(rho, st)
 	}
-	var drdp float64
-	if st.Region == 3 {
-		a := r3Helm(rho, T, wantX|wantXX)
-		drdp = 1 / a.dpdrho()
-	} else {
-		d := gibbsAt(st.Region, st.P, T, wantX|wantXX)
-		ps := r2PStar
-		if st.Region == 1 {
-			ps = r1PStar
-		}
-		dvdp := R * T * d.gpp / (ps * ps)
-		drdp = -rho * rho * dvdp
+	return conductivityOf(&st), nil
+}
+
+// ConductivityOf returns the thermal conductivity in W/(m·K) of a state that a state function
+// of this package returned, by the same equations as Conductivity, from the state's own
+// density, temperature, pressure, cp and cv and the (∂ρ/∂p)_T of the basic equation the state
+// lies on; it never solves for the state again. A saturated liquid or vapour (X = 0 or 1) is
+// taken on its own side of the saturation line. A two-phase mixture (0 < X < 1) has no
+// conductivity and gives a *RangeError on x; a state beyond the transport equations' range
+// (T above 1173.15 K) gives a *RangeError on T.
+func ConductivityOf(st *Props) (float64, error) {
+	if err := checkTransportState(st); err != nil {
+		return 0, err
 	}
-	l := lamBackground(rb, tb) + lamCritical(rb, tb, st.Cp, st.Cv, drdp, muBar(rb, tb))
-	return l * trLamStar, nil
+	return conductivityOf(st), nil
+}
+
+// ViscosityOf returns the dynamic viscosity in Pa·s of a state that a state function of this
+// package returned: Viscosity at its density and temperature, with the same errors as
+// ConductivityOf for a two-phase mixture or a state beyond the range.
+func ViscosityOf(st *Props) (float64, error) {
+	if err := checkTransportState(st); err != nil {
+		return 0, err
+	}
+	return muBar(st.Rho/trRhoStar, st.T/trTStar) * trMuStar, nil
+}
+
+// checkTransportState refuses a two-phase mixture and a state outside the transport range.
+func checkTransportState(st *Props) error {
+	if st.Region == 4 && st.X != 0 && st.X != 1 {
+		return above("x", st.X, 0, "a two-phase mixture has no single-phase transport properties")
+	}
+	return checkTransport(st.Rho, st.T)
+}
+
+// conductivityOf is R15-11 Eq. (10) at a single-phase or saturated state within range.
+func conductivityOf(st *Props) float64 {
+	rho, T := st.Rho, st.T
+	rb, tb := rho/trRhoStar, T/trTStar
+	l := lamBackground(rb, tb) + lamCritical(rb, tb, st.Cp, st.Cv, drhodp(st), muBar(rb, tb))
+	return l * trLamStar
+}
+
+// drhodp returns (∂ρ/∂p)_T in kg/(m³·Pa) from the basic equation the state lies on: region 3
+// at (ρ, T), else the Gibbs equation of its region at (p, T). A saturated state (region 4)
+// lies on region 1 (liquid) or 2 (vapour) up to 623.15 K and on region 3 above.
+func drhodp(st *Props) float64 {
+	region := st.Region
+	if region == 4 {
+		switch {
+		case st.T > T13:
+			region = 3
+		case st.X == 0:
+			region = 1
+		default:
+			region = 2
+		}
+	}
+	if region == 3 {
+		a := r3Helm(st.Rho, st.T, wantX|wantXX)
+		return 1 / a.dpdrho()
+	}
+	d := gibbsAt(region, st.P, st.T, wantX|wantXX)
+	ps := r2PStar
+	if region == 1 {
+		ps = r1PStar
+	}
+	dvdp := R * st.T * d.gpp / (ps * ps)
+	return -st.Rho * st.Rho * dvdp
 }
 
 // twoPhaseRho reports a density inside the two-phase region, naming the nearer saturated

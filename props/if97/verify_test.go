@@ -252,7 +252,8 @@ func (c checkValue) eval() (float64, error) {
 		if err != nil {
 			return 0, err
 		}
-		return Conductivity(s.Rho, c.b)
+		// The path props takes: the state known, nothing solved again.
+		return ConductivityOf(&s)
 	case "sigma":
 		return SurfaceTension(c.a)
 	}
