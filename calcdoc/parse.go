@@ -5,6 +5,7 @@ package calcdoc
 
 import (
 	"bytes"
+	"errors"
 	"sort"
 	"strings"
 	"unicode/utf8"
@@ -234,6 +235,25 @@ func (d *Doc) readInline(s *gast.CodeSpan) {
 	if st != nil && len(errs) == 0 {
 		d.Items = append(d.Items, &Item{Stmt: st, Inline: true})
 	}
+}
+
+// evalError adds an error of the evaluator at its own offset, or at off
+// when it carries none.
+func (d *Doc) evalError(err error, off int) {
+	var e *eval.Error
+	if errors.As(err, &e) {
+		off = e.Off
+	}
+	d.errorf(off, "%s", evalMsg(err))
+}
+
+// evalMsg is the message of an evaluator error, without a position.
+func evalMsg(err error) string {
+	var e *eval.Error
+	if errors.As(err, &e) {
+		return e.Msg
+	}
+	return err.Error()
 }
 
 func (d *Doc) addEvalErrors(errs []*eval.Error) {

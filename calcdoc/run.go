@@ -39,7 +39,7 @@ func (d *Doc) Evaluate() {
 		out, err := eng.Exec(it.Stmt)
 		if err != nil {
 			it.Err = true
-			d.errorf(err.Off, "%s", err.Msg)
+			d.evalError(err, it.Stmt.ExprOff)
 			continue
 		}
 		if rec, isRecord := out.Value.(eval.Record); it.Inline && isRecord {
