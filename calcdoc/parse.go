@@ -6,6 +6,7 @@ package calcdoc
 import (
 	"bytes"
 	"errors"
+	"io/fs"
 	"sort"
 	"strings"
 	"unicode/utf8"
@@ -42,9 +43,13 @@ type Doc struct {
 	Sweeps []*Sweep
 	// DataFiles are the data files the calc read, in order of first use.
 	DataFiles []DataFile
-	// ReadData, when set, reads a root-relative data file instead of the
-	// working tree (verify reads them at the recorded commit).
-	ReadData func(rel string) ([]byte, error)
+	// Files is the tree data files and images are read from: the work tree
+	// (WorkTree) or a commit's tree (verify, diff). Root is its folder on
+	// disk and Rel the calc's slash path inside it. When Files is nil,
+	// Evaluate reads from the work tree that holds Path (Locate).
+	Files fs.FS
+	Root  string
+	Rel   string
 
 	diagramBlocks []*diagramBlock
 	images        []*image         // the images of the prose, embedded when rendered

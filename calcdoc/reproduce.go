@@ -5,7 +5,6 @@ import (
 	"errors"
 	"fmt"
 	"html"
-	"path/filepath"
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
@@ -71,8 +70,7 @@ func reproduce(repo *provenance.Repo, m *provenance.Manifest, engine string) (*r
 	if err != nil {
 		return nil, err
 	}
-	path := filepath.Join(repo.Root(), filepath.FromSlash(m.Source))
-	d := evaluateAt(repo, m.Commit, path, src)
+	d := evaluateAt(repo, m.Commit, m.Source, src)
 	if len(d.Errors) > 0 {
 		return nil, fmt.Errorf("%s at commit %s has errors:\n%s", m.Source, shortHash(m.Commit), d.Errors.Format(m.Source, src))
 	}
@@ -89,14 +87,11 @@ func reproduce(repo *provenance.Repo, m *provenance.Manifest, engine string) (*r
 	return &reproduction{repo: repo, commit: m.Commit, src: src, doc: d, record: rec}, nil
 }
 
-// evaluateAt reads and evaluates a calc from its bytes at a commit: path
-// is where the calc lies in the work tree, and data files are read from
-// the commit, not from the work tree.
-func evaluateAt(repo *provenance.Repo, commit, path string, src []byte) *Doc {
-	d := Read(path, src)
-	d.ReadData = func(rel string) ([]byte, error) { return repo.ReadAt(commit, rel) }
-	d.Evaluate()
-	return d
+// evaluateAt reads and evaluates a calc from its bytes at a commit: rel is
+// its path in the repository, and data files are read from the commit,
+// not from the work tree.
+func evaluateAt(repo *provenance.Repo, commit, rel string, src []byte) *Doc {
+	return ReadIn(repo.CommitFS(commit), repo.Root(), rel, src)
 }
 
 // render renders the reproduction with a record. Rendering changes a
@@ -104,7 +99,7 @@ func evaluateAt(repo *provenance.Repo, commit, path string, src []byte) *Doc {
 func (r *reproduction) render(engine string, rec *Record) ([]byte, error) {
 	d := r.doc
 	if r.rendered {
-		d = evaluateAt(r.repo, r.commit, r.doc.Path, r.src)
+		d = evaluateAt(r.repo, r.commit, r.doc.Rel, r.src)
 	}
 	r.rendered = true
 	return d.Render(RenderOptions{Engine: engine, Record: rec})

@@ -101,15 +101,3 @@ func (w *Workspace) holds(path string) bool {
 	}
 	return true
 }
-
-// DataRoot is the folder a calc's data-file paths are relative to: its
-// repository's root, or outside a repository the calc's own folder.
-func (d *Doc) DataRoot() string {
-	root, _ := d.dataRoot()
-	return root
-}
-
-// DataPath is the path on disk of a data file the calc read.
-func (d *Doc) DataPath(f DataFile) string {
-	return filepath.Join(d.DataRoot(), filepath.FromSlash(f.Path))
-}
