@@ -123,3 +123,14 @@ func (x lineIndex) text(src []byte, n int) string {
 	}
 	return strings.TrimRight(string(src[start:end]), "\r")
 }
+
+// UsageError is a command that cannot start: a file that cannot be read,
+// a bad allowed-signers file, a role or key that cannot be used, an
+// unknown revision. The CLI exits with its usage code.
+type UsageError struct{ Err error }
+
+// Error returns the underlying error's message.
+func (e *UsageError) Error() string { return e.Err.Error() }
+
+// Unwrap returns the underlying error.
+func (e *UsageError) Unwrap() error { return e.Err }

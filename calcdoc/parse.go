@@ -1,6 +1,3 @@
-// Package calcdoc reads a calc file — YAML front matter, Markdown prose,
-// calc blocks and inline values — evaluates it, and renders the package.
-// It is the only importer of goldmark.
 package calcdoc
 
 import (

@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 )
 
 // engine is the engine version the tests register with.
@@ -130,29 +131,29 @@ func renderBeside(t testing.TB, calc string) string {
 	if err != nil || len(d.Errors) > 0 {
 		t.Fatalf("%v %v", err, d.Errors)
 	}
-	html, err := d.Render(calcdoc.RenderOptions{Engine: engine})
+	st, err := audit.Provenance(d, engine)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := d.Render(calcdoc.RenderOptions{Engine: engine, Stamp: st})
 	if err != nil {
 		t.Fatal(err)
 	}
 	pkg := strings.TrimSuffix(calc, ".calc.md") + ".html"
-	writePackage(t, pkg, html)
+	writePackage(t, pkg, p)
 	return pkg
 }
 
-func writePackage(t testing.TB, pkg string, html []byte) {
+func writePackage(t testing.TB, pkg string, p *calcdoc.Package) {
 	t.Helper()
-	m, err := calcdoc.ManifestOf(html)
+	file, err := audit.ManifestFile(p.Manifest)
 	if err != nil {
 		t.Fatal(err)
 	}
-	file, err := calcdoc.ManifestFile(m)
-	if err != nil {
+	if err := os.WriteFile(audit.ManifestPath(pkg), file, 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if err := os.WriteFile(calcdoc.ManifestPath(pkg), file, 0o644); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(pkg, html, 0o644); err != nil {
+	if err := os.WriteFile(pkg, p.HTML, 0o644); err != nil {
 		t.Fatal(err)
 	}
 }
@@ -165,10 +166,10 @@ func signAsPreparer(t testing.TB, pkg string) {
 	if out, err := exec.Command("ssh-keygen", "-q", "-t", "ed25519", "-N", "", "-C", "preparer@example.com", "-f", key).CombinedOutput(); err != nil {
 		t.Fatalf("ssh-keygen: %v\n%s", err, out)
 	}
-	signed, rep, err := calcdoc.Sign(pkg, calcdoc.SignOptions{VerifyOptions: calcdoc.VerifyOptions{Engine: engine}, Role: "preparer", Key: key})
+	signed, rep, err := audit.Sign(pkg, audit.SignOptions{VerifyOptions: audit.VerifyOptions{Engine: engine}, Role: "preparer", Key: key})
 	if err != nil {
 		t.Fatalf("sign: %v\n%v", err, rep)
 	}
-	os.WriteFile(calcdoc.ManifestPath(pkg), signed.ManifestFile, 0o644)
+	os.WriteFile(audit.ManifestPath(pkg), signed.ManifestFile, 0o644)
 	os.WriteFile(pkg, signed.HTML, 0o644)
 }

@@ -1,8 +1,9 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -120,7 +121,7 @@ func (r *Report) result() string {
 	}
 	var topics []string
 	for _, f := range fails {
-		if !contains(topics, f.Topic) {
+		if !slices.Contains(topics, f.Topic) {
 			topics = append(topics, f.Topic)
 		}
 	}

@@ -1,9 +1,10 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"errors"
 	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -12,18 +13,8 @@ import (
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
-// UsageError is a verify or sign that cannot start: a file that cannot be
-// read, a bad allowed-signers file, a role or key that cannot be used.
-type UsageError struct{ Err error }
-
-// Error returns the underlying error's message.
-func (e *UsageError) Error() string { return e.Err.Error() }
-
-// Unwrap returns the underlying error.
-func (e *UsageError) Unwrap() error { return e.Err }
-
 func usageErr(format string, args ...any) error {
-	return &UsageError{Err: fmt.Errorf(format, args...)}
+	return &calcdoc.UsageError{Err: fmt.Errorf(format, args...)}
 }
 
 // VerifyOptions say where and how to verify a package.
@@ -45,7 +36,7 @@ type VerifyOptions struct {
 // role and, given an allowed-signers file, with that person's key. The
 // source is read from git at the manifest's commit, never from the work
 // tree. Problems with the package are findings in the report; the error
-// is for a verification that cannot start (a *UsageError).
+// is for a verification that cannot start (a *calcdoc.UsageError).
 func Verify(pkgPath string, opt VerifyOptions) (*Report, error) {
 	v, err := newVerifier(pkgPath, opt)
 	if err != nil {
