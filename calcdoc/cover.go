@@ -1,6 +1,7 @@
 package calcdoc
 
 import (
+	"path/filepath"
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
@@ -142,9 +143,10 @@ func title(s string) string {
 	return strings.ToUpper(s[:1]) + s[1:]
 }
 
-// PackageName is the file name of the package of a calc file: NAME.html
-// for NAME.calc.md.
+// PackageName is the file name of the package of a calc file, NAME.html
+// for NAME.calc.md (or NAME.md), whatever folder the path names. It is
+// the one naming rule: render, register, sign and the cover use it.
 func PackageName(source string) string {
-	base := source[strings.LastIndex(source, "/")+1:]
+	base := filepath.Base(filepath.FromSlash(source))
 	return strings.TrimSuffix(strings.TrimSuffix(base, ".md"), ".calc") + ".html"
 }

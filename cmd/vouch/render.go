@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
-	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
@@ -75,7 +74,7 @@ func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
 
 // packagePath is NAME.html for NAME.calc.md, in outDir or beside the calc.
 func packagePath(path, outDir string) string {
-	base := strings.TrimSuffix(strings.TrimSuffix(filepath.Base(path), ".md"), ".calc") + ".html"
+	base := calcdoc.PackageName(path)
 	if outDir == "" {
 		return filepath.Join(filepath.Dir(path), base)
 	}
