@@ -58,7 +58,7 @@ type Doc struct {
 	SweepLimit int
 	// Progress, when set, is told how far a sweep has come.
 	Progress func(name string, done, total int)
-	MD       gast.Node // the Markdown tree, for rendering
+	mdTree   gast.Node // the Markdown tree, for rendering
 	md       goldmark.Markdown
 	lines    lineIndex
 	body     []byte // Src with the front matter blanked, as goldmark parsed it
@@ -86,7 +86,7 @@ func Read(path string, src []byte) *Doc {
 		return d
 	}
 	d.readFront()
-	d.MD = d.md.Parser().Parse(text.NewReader(d.body))
+	d.mdTree = d.md.Parser().Parse(text.NewReader(d.body))
 	d.collect()
 	return d
 }
@@ -141,7 +141,7 @@ func (d *Doc) readFront() {
 func (d *Doc) collect() {
 	var blocks, sweeps, diagrams []*gast.FencedCodeBlock
 	var spans []*gast.CodeSpan
-	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
+	gast.Walk(d.mdTree, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
 		if !entering {
 			return gast.WalkContinue, nil
 		}

@@ -38,10 +38,10 @@ func (d *Doc) calcFenceLines() map[int]bool {
 			skip[n] = true
 		}
 	}
-	if d.MD == nil {
+	if d.mdTree == nil {
 		return skip
 	}
-	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
+	gast.Walk(d.mdTree, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
 		if f, ok := n.(*gast.FencedCodeBlock); ok && entering && string(f.Language(d.body)) == "calc" {
 			first, last := d.fenceSpan(f)
 			for l := first; l <= last; l++ {

@@ -127,13 +127,13 @@ func (d *Doc) Render(opt RenderOptions) (*Package, error) {
 func (d *Doc) renderBody() (string, error) {
 	if !d.prepared {
 		d.replaceCalcNodes()
-		demoteHeadings(d.MD)
+		demoteHeadings(d.mdTree)
 		d.md.Renderer().AddOptions(renderer.WithNodeRenderers(util.Prioritized(&bodyRenderer{d: d}, 100)))
 		d.prepared = true
 	}
 	var body bytes.Buffer
 	body.Grow(8 * len(d.body)) // MathML is several times the size of its source
-	if err := d.md.Renderer().Render(&body, d.body, d.MD); err != nil {
+	if err := d.md.Renderer().Render(&body, d.body, d.mdTree); err != nil {
 		return "", err
 	}
 	return body.String(), nil
@@ -159,7 +159,7 @@ func (d *Doc) summaryRows() []rowView {
 		if it == nil {
 			continue
 		}
-		rows = append(rows, rowView{Name: NameText(name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
+		rows = append(rows, rowView{Name: nameText(name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
 	}
 	return rows
 }
@@ -189,7 +189,7 @@ func (d *Doc) inputRows() []rowView {
 		if _, ok := it.Outcome.Value.(eval.Record); ok {
 			continue
 		}
-		rows = append(rows, rowView{Name: NameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
+		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
 	}
 	return rows
 }

@@ -26,7 +26,7 @@ func (v *verifier) checkSignatures() bool {
 	}
 	for _, st := range states {
 		if !slices.Contains(calcdoc.Roles, st.Sig.Role) {
-			v.rep.addRole(Fail, st.Sig.Role, st.Reason)
+			v.rep.addRole(Fails, st.Sig.Role, st.Reason)
 		}
 	}
 	v.rep.Status = status(states)
@@ -68,7 +68,7 @@ func (v *verifier) reportRole(role string, states []calcdoc.SignatureState) {
 		}
 		signed = true
 		if !st.Valid {
-			v.rep.addRole(Fail, role, st.Reason)
+			v.rep.addRole(Fails, role, st.Reason)
 			continue
 		}
 		s := st.Sig
@@ -78,7 +78,7 @@ func (v *verifier) reportRole(role string, states []calcdoc.SignatureState) {
 		} else {
 			text += "; key not checked (no allowed-signers file)"
 		}
-		v.rep.addRole(Pass, role, text)
+		v.rep.addRole(Holds, role, text)
 	}
 	if !signed {
 		who := "the front matter names no " + role
