@@ -63,41 +63,24 @@ func (d *Doc) replaceCalcNodes() {
 			byBlock[it.Block] = append(byBlock[it.Block], it)
 		}
 	}
-	var blocks, sweeps, diagrams []*gast.FencedCodeBlock
-	var spans []*gast.CodeSpan
-	gast.Walk(d.mdTree, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
-		if !entering {
-			return gast.WalkContinue, nil
-		}
-		if f, ok := n.(*gast.FencedCodeBlock); ok {
-			switch string(f.Language(d.body)) {
-			case "calc":
-				blocks = append(blocks, f)
-			case "sweep":
-				sweeps = append(sweeps, f)
-			case "diagram":
-				diagrams = append(diagrams, f)
-			}
-		} else if s, ok := n.(*gast.CodeSpan); ok && d.spanItem(s, inline) != nil {
-			spans = append(spans, s)
-		}
-		return gast.WalkContinue, nil
-	})
-	for i, f := range sweeps {
+	fs := &d.fences
+	for i, f := range fs.sweeps {
 		if i < len(d.Sweeps) {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.sweepHTML(d.Sweeps[i])})
 		}
 	}
-	for i, f := range diagrams {
+	for i, f := range fs.diagrams {
 		if i < len(d.diagramBlocks) {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.diagramHTML(d.diagramBlocks[i])})
 		}
 	}
-	for i, f := range blocks {
+	for i, f := range fs.calcs {
 		f.Parent().ReplaceChild(f.Parent(), f, &calcBlock{items: byBlock[i]})
 	}
-	for _, s := range spans {
-		s.Parent().ReplaceChild(s.Parent(), s, &calcInline{item: d.spanItem(s, inline)})
+	for _, s := range fs.spans {
+		if it := d.spanItem(s, inline); it != nil {
+			s.Parent().ReplaceChild(s.Parent(), s, &calcInline{item: it})
+		}
 	}
 }
 

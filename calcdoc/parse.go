@@ -13,6 +13,7 @@ import (
 	"github.com/yuin/goldmark/extension"
 	"github.com/yuin/goldmark/parser"
 	"github.com/yuin/goldmark/text"
+	"github.com/yuin/goldmark/util"
 
 	"github.com/vouchcalc/vouch/eval"
 )
@@ -62,21 +63,25 @@ type Doc struct {
 	md       goldmark.Markdown
 	lines    lineIndex
 	body     []byte // Src with the front matter blanked, as goldmark parsed it
+	fences   fences // the nodes vouch reads, found while parsing
 }
 
 // newMarkdown returns the Markdown reader: CommonMark with GitHub tables
 // and strikethrough; raw HTML stays off.
-func newMarkdown() goldmark.Markdown {
+// Its transformer records the nodes vouch reads in f.
+func newMarkdown(f *fences) goldmark.Markdown {
 	return goldmark.New(
 		goldmark.WithExtensions(extension.Table, extension.Strikethrough),
-		goldmark.WithParserOptions(parser.WithAutoHeadingID()),
+		goldmark.WithParserOptions(parser.WithAutoHeadingID(),
+			parser.WithASTTransformers(util.Prioritized(fenceFinder{f}, 1000))),
 	)
 }
 
 // Read parses a calc file's bytes. It never fails: problems are gathered in
 // Doc.Errors.
 func Read(path string, src []byte) *Doc {
-	d := &Doc{Path: path, Src: src, lines: newLineIndex(src), md: newMarkdown()}
+	d := &Doc{Path: path, Src: src, lines: newLineIndex(src)}
+	d.md = newMarkdown(&d.fences)
 	if len(src) > MaxFileBytes {
 		d.errorf(0, "file is %d bytes; a calc file may be at most %d bytes", len(src), MaxFileBytes)
 		return d
@@ -137,41 +142,23 @@ func (d *Doc) readFront() {
 	}
 }
 
-// collect walks the Markdown tree for calc blocks and inline values.
+// collect reads the calc blocks, inline values, sweeps, diagrams and
+// images the parser's transformer found.
 func (d *Doc) collect() {
-	var blocks, sweeps, diagrams []*gast.FencedCodeBlock
-	var spans []*gast.CodeSpan
-	gast.Walk(d.mdTree, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
-		if !entering {
-			return gast.WalkContinue, nil
-		}
-		switch v := n.(type) {
-		case *gast.FencedCodeBlock:
-			switch string(v.Language(d.body)) {
-			case "calc":
-				blocks = append(blocks, v)
-			case "sweep":
-				sweeps = append(sweeps, v)
-			case "diagram":
-				diagrams = append(diagrams, v)
-			}
-		case *gast.CodeSpan:
-			spans = append(spans, v)
-		case *gast.Image:
-			d.readImage(v)
-		}
-		return gast.WalkContinue, nil
-	})
-	for i, b := range blocks {
+	f := &d.fences
+	for _, im := range f.images {
+		d.readImage(im)
+	}
+	for i, b := range f.calcs {
 		d.readBlock(i, b)
 	}
-	for _, s := range spans {
+	for _, s := range f.spans {
 		d.readInline(s)
 	}
-	for _, s := range sweeps {
+	for _, s := range f.sweeps {
 		d.readSweep(s)
 	}
-	for _, s := range diagrams {
+	for _, s := range f.diagrams {
 		d.readDiagram(s)
 	}
 	sortItems(d.Items)

@@ -38,18 +38,12 @@ func (d *Doc) calcFenceLines() map[int]bool {
 			skip[n] = true
 		}
 	}
-	if d.mdTree == nil {
-		return skip
-	}
-	gast.Walk(d.mdTree, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
-		if f, ok := n.(*gast.FencedCodeBlock); ok && entering && string(f.Language(d.body)) == "calc" {
-			first, last := d.fenceSpan(f)
-			for l := first; l <= last; l++ {
-				skip[l] = true
-			}
+	for _, f := range d.fences.calcs {
+		first, last := d.fenceSpan(f)
+		for l := first; l <= last; l++ {
+			skip[l] = true
 		}
-		return gast.WalkContinue, nil
-	})
+	}
 	return skip
 }
 

@@ -166,7 +166,7 @@ func BenchmarkGoldmark2000(b *testing.B) {
 	src := []byte(generatedCalc(2000))
 	for b.Loop() {
 		var out bytes.Buffer
-		if err := newMarkdown().Convert(src, &out); err != nil {
+		if err := newMarkdown(&fences{}).Convert(src, &out); err != nil {
 			b.Fatal(err)
 		}
 	}

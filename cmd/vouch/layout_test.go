@@ -102,3 +102,28 @@ func permitted(pkg, im string, ok []string) bool {
 	}
 	return false
 }
+
+// TestCalcdocRunsNoGit holds calcdoc to reading, evaluating and rendering:
+// it takes from calcdoc/provenance only the manifest's types and the blob
+// hash, never a repository, and runs no program. Git and signatures are
+// calcdoc/audit's and calcdoc/diff's.
+func TestCalcdocRunsNoGit(t *testing.T) {
+	files, err := filepath.Glob(filepath.Join("..", "..", "calcdoc", "*.go"))
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no calcdoc files: %v", err)
+	}
+	for _, f := range files {
+		if strings.HasSuffix(f, "_test.go") {
+			continue
+		}
+		src, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, bad := range []string{"provenance.Open", "provenance.Repo", `"os/exec"`, "VerifySignature"} {
+			if strings.Contains(string(src), bad) {
+				t.Errorf("%s uses %s; git and signature checks belong in calcdoc/audit", filepath.Base(f), bad)
+			}
+		}
+	}
+}
