@@ -10,78 +10,23 @@ import (
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
+	"github.com/vouchcalc/vouch/internal/testkit"
 )
 
 // engine is the engine version the tests register with.
 const engine = "0.1.0-test"
 
-// needTool skips the test when an executable is missing, unless CI is set,
-// where a missing tool is a failure.
-func needTool(t testing.TB, name string) {
-	t.Helper()
-	if _, err := exec.LookPath(name); err != nil {
-		if os.Getenv("CI") != "" {
-			t.Fatalf("%s is required when CI is set: %v", name, err)
-		}
-		t.Skipf("%s not found: %v", name, err)
-	}
-}
+var needTool = testkit.NeedTool
 
-// tree is a scratch repository of generated calcs, with a fictional
-// identity and dates one day apart per commit.
-type tree struct {
-	t    testing.TB
-	dir  string
-	tick int
-}
+// tree is a scratch repository of generated calcs (internal/testkit) that
+// ignores packages.
+type tree = testkit.Repo
 
 func newTree(t testing.TB) *tree {
 	t.Helper()
-	needTool(t, "git")
-	dir, err := filepath.EvalSymlinks(t.TempDir())
-	if err != nil {
-		t.Fatal(err)
-	}
-	r := &tree{t: t, dir: dir}
-	r.git("init", "-q", "-b", "main")
-	r.write(".gitignore", "*.html\n*.manifest.json\n")
+	r := testkit.NewRepo(t)
+	r.Write(".gitignore", "*.html\n*.manifest.json\n")
 	return r
-}
-
-func (r *tree) git(args ...string) string {
-	r.t.Helper()
-	cmd := exec.Command("git", args...)
-	date := fmt.Sprintf("@%d +0000", 1900000000+86400*r.tick)
-	cmd.Dir = r.dir
-	cmd.Env = append(os.Environ(), "GIT_CONFIG_GLOBAL=/dev/null", "GIT_CONFIG_NOSYSTEM=1",
-		"GIT_AUTHOR_NAME=P. Writer (fictional)", "GIT_AUTHOR_EMAIL=preparer@example.com",
-		"GIT_COMMITTER_NAME=P. Writer (fictional)", "GIT_COMMITTER_EMAIL=preparer@example.com",
-		"GIT_AUTHOR_DATE="+date, "GIT_COMMITTER_DATE="+date)
-	out, err := cmd.CombinedOutput()
-	if err != nil {
-		r.t.Fatalf("git %s: %v\n%s", strings.Join(args, " "), err, out)
-	}
-	return strings.TrimSpace(string(out))
-}
-
-func (r *tree) path(rel string) string { return filepath.Join(r.dir, filepath.FromSlash(rel)) }
-
-func (r *tree) write(rel, content string) {
-	r.t.Helper()
-	p := r.path(rel)
-	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
-		r.t.Fatal(err)
-	}
-	if err := os.WriteFile(p, []byte(content), 0o644); err != nil {
-		r.t.Fatal(err)
-	}
-}
-
-func (r *tree) commit(msg string) {
-	r.t.Helper()
-	r.git("add", "-A")
-	r.tick++
-	r.git("commit", "-q", "-m", msg)
 }
 
 // genCalc is a generated feed-pump calc of a fictional plant; kind adds a
