@@ -57,8 +57,8 @@ func (d *Doc) dataPath(name string) (string, error) {
 // caller set a tree.
 func (d *Doc) useWorkTree() {
 	if d.Files == nil {
-		d.Root, d.Rel = Locate(d.Path)
-		d.Files = WorkTree(d.Root)
+		d.Root, d.Rel = locate(d.Path)
+		d.Files = newWorkTree(d.Root)
 	}
 }
 

@@ -8,7 +8,7 @@
 // Files:
 //   - reading: parse.go (Doc, Read), front.go (front matter), errors.go
 //     (Pos, Error, ErrorList, UsageError), prose.go (prose lines for the
-//     diff), files.go (Locate, WorkTree), data.go (csv and yaml readers,
+//     diff), files.go (the work tree as an fs.FS), data.go (csv and yaml readers,
 //     path rules), images.go (images of the prose).
 //   - evaluating: run.go (Evaluate, ReadFile, ReadIn), sweep.go and
 //     sweeprun.go (sweep blocks), diagram.go (T-s and h-s diagrams).

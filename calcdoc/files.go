@@ -9,12 +9,12 @@ import (
 	"strings"
 )
 
-// Locate returns the folder a calc's data-file paths are relative to, the
+// locate returns the folder a calc's data-file paths are relative to, the
 // root of the work tree that holds path (the nearest folder above it with
 // a .git entry), or outside one the calc's own folder, and the calc's
 // slash path inside it. It reads no git objects: the root is enough for
 // the path rules.
-func Locate(path string) (root, rel string) {
+func locate(path string) (root, rel string) {
 	abs, err := filepath.Abs(path)
 	if err != nil {
 		return filepath.Dir(path), filepath.Base(path)
@@ -38,9 +38,9 @@ func Locate(path string) (root, rel string) {
 	return filepath.Dir(abs), filepath.Base(abs)
 }
 
-// WorkTree is the folder root on disk as an fs.FS for Doc.Files: it reads
+// newWorkTree is the folder root on disk as an fs.FS for Doc.Files: it reads
 // files and refuses a symbolic link that leads outside root.
-func WorkTree(root string) fs.FS { return workTree(root) }
+func newWorkTree(root string) fs.FS { return workTree(root) }
 
 type workTree string
 

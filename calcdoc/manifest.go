@@ -66,7 +66,7 @@ func (d *Doc) Manifest(engine string) (*provenance.Manifest, error) {
 		Formulation:        strings.Join(d.formulationNames(), "; "),
 		FormulationVersion: props.IF97Version,
 		Data:               d.manifestData(),
-		Results:            d.ManifestResults(),
+		Results:            d.manifestResults(),
 		Signatures:         []provenance.Signature{},
 	}
 	digest, err := provenance.ResultsDigest(m.Results)
@@ -112,11 +112,11 @@ func contains(list []string, s string) bool {
 	return false
 }
 
-// ManifestResults lists every result of the evaluated calc for the
+// manifestResults lists every result of the evaluated calc for the
 // manifest, in file order: each definition that holds a quantity, with its
 // SI value and SI unit, and each check as "check:LINE" with 1 for PASS and
 // 0 for FAIL. The manifest's results digest covers all of them.
-func (d *Doc) ManifestResults() []provenance.Result {
+func (d *Doc) manifestResults() []provenance.Result {
 	out := []provenance.Result{}
 	for _, it := range d.Items {
 		o := it.Outcome

@@ -42,9 +42,9 @@ type Doc struct {
 	// DataFiles are the data files the calc read, in order of first use.
 	DataFiles []DataFile
 	// Files is the tree data files and images are read from: the work tree
-	// (WorkTree) or a commit's tree (verify, diff). Root is its folder on
+	// (the work tree) or a commit's tree (verify, diff). Root is its folder on
 	// disk and Rel the calc's slash path inside it. When Files is nil,
-	// Evaluate reads from the work tree that holds Path (Locate).
+	// Evaluate reads from the work tree that holds Path (locate).
 	Files fs.FS
 	Root  string
 	Rel   string
