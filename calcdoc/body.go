@@ -63,41 +63,24 @@ func (d *Doc) replaceCalcNodes() {
 			byBlock[it.Block] = append(byBlock[it.Block], it)
 		}
 	}
-	var blocks, sweeps, diagrams []*gast.FencedCodeBlock
-	var spans []*gast.CodeSpan
-	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
-		if !entering {
-			return gast.WalkContinue, nil
-		}
-		if f, ok := n.(*gast.FencedCodeBlock); ok {
-			switch string(f.Language(d.body)) {
-			case "calc":
-				blocks = append(blocks, f)
-			case "sweep":
-				sweeps = append(sweeps, f)
-			case "diagram":
-				diagrams = append(diagrams, f)
-			}
-		} else if s, ok := n.(*gast.CodeSpan); ok && d.spanItem(s, inline) != nil {
-			spans = append(spans, s)
-		}
-		return gast.WalkContinue, nil
-	})
-	for i, f := range sweeps {
+	fs := &d.fences
+	for i, f := range fs.sweeps {
 		if i < len(d.Sweeps) {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.sweepHTML(d.Sweeps[i])})
 		}
 	}
-	for i, f := range diagrams {
+	for i, f := range fs.diagrams {
 		if i < len(d.diagramBlocks) {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.diagramHTML(d.diagramBlocks[i])})
 		}
 	}
-	for i, f := range blocks {
+	for i, f := range fs.calcs {
 		f.Parent().ReplaceChild(f.Parent(), f, &calcBlock{items: byBlock[i]})
 	}
-	for _, s := range spans {
-		s.Parent().ReplaceChild(s.Parent(), s, &calcInline{item: d.spanItem(s, inline)})
+	for _, s := range fs.spans {
+		if it := d.spanItem(s, inline); it != nil {
+			s.Parent().ReplaceChild(s.Parent(), s, &calcInline{item: it})
+		}
 	}
 }
 
@@ -200,7 +183,7 @@ func (d *Doc) lineHTML(it *Item) string {
 	}
 	if sv := o.Solve; sv != nil {
 		b.WriteString(sprintf("<div class=\"desc\">Solved by bracketing (Brent's method) in %d evaluations; remaining residual %s.</div>",
-			sv.Iterations, QuantityText(sv.Residual, units.DefaultUnit(sv.Residual), 3, d.Front.Ctx)))
+			sv.Iterations, quantityText(sv.Residual, units.DefaultUnit(sv.Residual), 3, d.Front.Ctx)))
 	}
 	for _, src := range o.Sources {
 		b.WriteString("<div class=\"src\">Properties: " + html.EscapeString(src) + "</div>")
@@ -226,7 +209,7 @@ const stackAfter = 36
 func (d *Doc) equation(it *Item) []string {
 	s, o := it.Stmt, it.Outcome
 	if o.Solve != nil {
-		return []string{d.formula(s, false), NameMathML(s.Name) + "<mo>=</mo>" + d.resultMathML(o)}
+		return []string{d.formula(s, false), nameMathML(s.Name) + "<mo>=</mo>" + d.resultMathML(o)}
 	}
 	formula := d.formula(s, false)
 	if s.Kind == eval.Check {
@@ -238,7 +221,7 @@ func (d *Doc) equation(it *Item) []string {
 	}
 	head := formula
 	if s.Kind == eval.Def {
-		head = NameMathML(s.Name) + "<mo>=</mo>" + formula
+		head = nameMathML(s.Name) + "<mo>=</mo>" + formula
 	}
 	if s.IsLiteralInput() || (s.IsPlainNumber() && !s.HasDisplayUnit()) {
 		return []string{head} // an input: the value as written is the result
@@ -302,14 +285,14 @@ func (d *Doc) valueHTML(o *eval.Outcome) string {
 	if o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsLiteralInput() {
 		l := o.Stmt.LoneLiteral()
 		s := groupDigits(l.Num)
-		if t := UnitText(l.Unit); t != "" {
+		if t := unitText(l.Unit); t != "" {
 			s += "\u2009" + html.EscapeString(t)
 		}
 		return s
 	}
 	switch v := o.Value.(type) {
 	case units.Quantity:
-		return QuantityText(v, o.Display, d.Front.Digits, d.Front.Ctx)
+		return quantityText(v, o.Display, d.Front.Digits, d.Front.Ctx)
 	case bool:
 		return map[bool]string{true: "true", false: "false"}[v]
 	case string:
@@ -348,7 +331,7 @@ func stateHTML(st eval.Record, digits int) string {
 		if f == "T" {
 			u = units.MustParse("degC")
 		}
-		parts = append(parts, NameText(f)+"&#8239;=&#8239;"+QuantityText(q, u, digits, units.StandardAtmosphere))
+		parts = append(parts, nameText(f)+"&#8239;=&#8239;"+quantityText(q, u, digits, units.StandardAtmosphere))
 	}
 	if phase != "" {
 		parts = append(parts, html.EscapeString(phaseText(st, phase)))
@@ -363,12 +346,12 @@ func (d *Doc) sweepHTML(sw *Sweep) string {
 		return "" // a sweep that did not run has an error, and no package is written
 	}
 	var b strings.Builder
-	b.WriteString(sprintf("<figure class=\"sweep\" id=\"L%d\"><figcaption>Sweep of %s (line %d): %d points</figcaption>", sw.Line, NameText(sw.Var), sw.Line, sw.Len()))
-	b.WriteString("<table class=\"grid\"><tr><th>" + NameText(sw.Var) + unitHeading(sw.XUnit) + "</th>")
+	b.WriteString(sprintf("<figure class=\"sweep\" id=\"L%d\"><figcaption>Sweep of %s (line %d): %d points</figcaption>", sw.Line, nameText(sw.Var), sw.Line, sw.Len()))
+	b.WriteString("<table class=\"grid\"><tr><th>" + nameText(sw.Var) + unitHeading(sw.XUnit) + "</th>")
 	cols := make([]units.Unit, len(sw.Show))
 	for j, c := range sw.Show {
 		cols[j] = d.ColumnUnit(c, sw.Rows[0][j])
-		b.WriteString("<th>" + NameText(c.Name) + unitHeading(cols[j]) + "</th>")
+		b.WriteString("<th>" + nameText(c.Name) + unitHeading(cols[j]) + "</th>")
 	}
 	b.WriteString("<th>Checks</th></tr>\n")
 	for i := 0; i < sw.Len(); i++ {
@@ -387,7 +370,7 @@ func (d *Doc) sweepHTML(sw *Sweep) string {
 }
 
 func unitHeading(u units.Unit) string {
-	if t := UnitText(u); t != "" {
+	if t := unitText(u); t != "" {
 		return " [" + html.EscapeString(t) + "]"
 	}
 	return ""
@@ -398,7 +381,7 @@ func numberIn(q units.Quantity, u units.Unit, d *Doc) string {
 	if err != nil {
 		return html.EscapeString(err.Error())
 	}
-	return NumberText(v, d.Front.Digits)
+	return numberText(v, d.Front.Digits)
 }
 
 func failedHTML(lines []int) string {
@@ -442,7 +425,7 @@ func tableHTML(t *eval.Table) string {
 	var b strings.Builder
 	b.WriteString("<table class=\"grid data\"><tr>")
 	for i, n := range t.Names {
-		b.WriteString("<th>" + NameText(n) + unitHeading(t.Units[i]) + "</th>")
+		b.WriteString("<th>" + nameText(n) + unitHeading(t.Units[i]) + "</th>")
 	}
 	b.WriteString("</tr>")
 	for r := range t.Cols[0] {
@@ -472,16 +455,16 @@ func (d *Doc) valuesHTML(vs *eval.Values) string {
 		var text string
 		switch v := x.(type) {
 		case units.Quantity:
-			text = QuantityText(v, units.DefaultUnit(v), d.Front.Digits, d.Front.Ctx)
+			text = quantityText(v, units.DefaultUnit(v), d.Front.Digits, d.Front.Ctx)
 			if v.T == units.Abs {
-				text = QuantityText(v, celsius, d.Front.Digits, d.Front.Ctx)
+				text = quantityText(v, celsius, d.Front.Digits, d.Front.Ctx)
 			}
 		case string:
 			text = "“" + html.EscapeString(v) + "”"
 		default:
 			text = html.EscapeString(sprintf("%v", v))
 		}
-		parts = append(parts, NameText(k)+"&#8239;=&#8239;"+text)
+		parts = append(parts, nameText(k)+"&#8239;=&#8239;"+text)
 	}
 	return strings.Join(parts, ", ")
 }

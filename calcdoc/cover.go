@@ -1,7 +1,7 @@
 package calcdoc
 
 import (
-	"fmt"
+	"path/filepath"
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
@@ -10,22 +10,11 @@ import (
 // Roles are the signing roles, in the order a package is signed.
 var Roles = []string{"preparer", "checker", "approver"}
 
-// stamps are the cover stamps reached by valid signatures of the first
-// one, two or three Roles; with none the stamp is DRAFT.
-var stamps = []string{"PREPARED", "CHECKED", "APPROVED"}
-
 // maxHistory is the number of revisions the cover lists.
 const maxHistory = 10
 
-// sigState is a signature of a package and whether it holds.
-type sigState struct {
-	Sig    provenance.Signature
-	Valid  bool
-	Reason string // why it does not hold
-}
-
-// person returns the person the front matter names for a role.
-func (d *Doc) person(role string) Person {
+// Person returns the person the front matter names for a role.
+func (d *Doc) Person(role string) Person {
 	switch role {
 	case "preparer":
 		return d.Front.People.Preparer
@@ -37,67 +26,8 @@ func (d *Doc) person(role string) Person {
 	return Person{}
 }
 
-// checkSignatures checks each signature of the record, in manifest order.
-// A signature holds when it verifies over the manifest for its role, is the
-// only one for that role, is made as the person the front matter names for
-// the role, and carries the commit's date. Whether the key is that
-// person's is for an allowed-signers file to say (see Verify): a package
-// cannot carry that answer itself.
-func (d *Doc) checkSignatures(rec *Record) []sigState {
-	seen := map[string]bool{}
-	var out []sigState
-	for _, s := range rec.Manifest.Signatures {
-		reason := d.signatureProblem(rec, s, seen[s.Role])
-		seen[s.Role] = true
-		out = append(out, sigState{Sig: s, Valid: reason == "", Reason: reason})
-	}
-	return out
-}
-
-// signatureProblem says why a signature does not hold, or "" when it does.
-func (d *Doc) signatureProblem(rec *Record, s provenance.Signature, again bool) string {
-	p := d.person(s.Role)
-	switch {
-	case !contains(Roles, s.Role):
-		return fmt.Sprintf("unknown role %q; the roles are %s", s.Role, strings.Join(Roles, ", "))
-	case again:
-		return "a second " + s.Role + " signature"
-	case !rec.Versioned:
-		return "the calc is not under version control"
-	case p.Email == "":
-		return "the front matter names no " + s.Role
-	case s.Principal != p.Email || s.Name != p.Name:
-		return fmt.Sprintf("signed as %s <%s>, but the front matter names %s <%s> as %s", s.Name, s.Principal, p.Name, p.Email, s.Role)
-	case s.Date != rec.Date:
-		return fmt.Sprintf("dated %s, but the commit is dated %s", s.Date, rec.Date)
-	}
-	if _, err := rec.Manifest.VerifySignature(s); err != nil {
-		return err.Error()
-	}
-	return ""
-}
-
-// stamp is the cover stamp that valid signatures reach: each role counts
-// only when every role before it is validly signed too.
-func stamp(states []sigState) string {
-	valid := map[string]bool{}
-	for _, st := range states {
-		if st.Valid {
-			valid[st.Sig.Role] = true
-		}
-	}
-	status := "DRAFT"
-	for i, r := range Roles {
-		if !valid[r] {
-			break
-		}
-		status = stamps[i]
-	}
-	return status
-}
-
-// setRecord fills the cover and appendix parts of the view from the record.
-func (v *view) setRecord(d *Doc, rec *Record) error {
+// setStamp fills the cover and appendix parts of the view from the stamp.
+func (v *view) setStamp(d *Doc, rec *Stamp) error {
 	m := rec.Manifest
 	canon, err := m.Canonical()
 	if err != nil {
@@ -107,8 +37,11 @@ func (v *view) setRecord(d *Doc, rec *Record) error {
 	if err != nil {
 		return err
 	}
-	states := d.checkSignatures(rec)
-	v.Status = stamp(states)
+	states := rec.Signatures
+	v.Status = rec.Status
+	if v.Status == "" {
+		v.Status = "DRAFT"
+	}
 	v.Roles = d.roleRows(states)
 	v.Signatures = signatureRows(states)
 	v.History, v.HistoryMore = historyRows(rec.History)
@@ -122,10 +55,10 @@ func (v *view) setRecord(d *Doc, rec *Record) error {
 
 // roleRows are the cover's signature block: one row per role, with the
 // person the front matter names and the role's first signature, if any.
-func (d *Doc) roleRows(states []sigState) []roleView {
+func (d *Doc) roleRows(states []SignatureState) []roleView {
 	var rows []roleView
 	for _, role := range Roles {
-		p := d.person(role)
+		p := d.Person(role)
 		row := roleView{Role: title(role), Name: p.Name, Email: p.Email, State: "not signed"}
 		for _, st := range states {
 			if st.Sig.Role == role {
@@ -140,7 +73,7 @@ func (d *Doc) roleRows(states []sigState) []roleView {
 }
 
 // signatureRows lists every signature for the appendix.
-func signatureRows(states []sigState) []sigView {
+func signatureRows(states []SignatureState) []sigView {
 	var rows []sigView
 	for _, st := range states {
 		s := st.Sig
@@ -150,7 +83,7 @@ func signatureRows(states []sigState) []sigView {
 	return rows
 }
 
-func stateText(st sigState) string {
+func stateText(st SignatureState) string {
 	if st.Valid {
 		return "valid"
 	}
@@ -171,7 +104,7 @@ func historyRows(revs []provenance.Revision) ([]revView, int) {
 
 // historyNote says under the revision table how the package relates to
 // version control.
-func historyNote(rec *Record) string {
+func historyNote(rec *Stamp) string {
 	m := rec.Manifest
 	switch {
 	case !rec.Versioned:
@@ -210,9 +143,10 @@ func title(s string) string {
 	return strings.ToUpper(s[:1]) + s[1:]
 }
 
-// PackageName is the file name of the package of a calc file: NAME.html
-// for NAME.calc.md.
+// PackageName is the file name of the package of a calc file, NAME.html
+// for NAME.calc.md (or NAME.md), whatever folder the path names. It is
+// the one naming rule: render, register, sign and the cover use it.
 func PackageName(source string) string {
-	base := source[strings.LastIndex(source, "/")+1:]
+	base := filepath.Base(filepath.FromSlash(source))
 	return strings.TrimSuffix(strings.TrimSuffix(base, ".md"), ".calc") + ".html"
 }

@@ -1,11 +1,10 @@
 package calcdoc
 
 import (
-	"errors"
 	"fmt"
 	"github.com/vouchcalc/vouch/eval"
 	"go.yaml.in/yaml/v3"
-	"os"
+	"io/fs"
 	"path/filepath"
 	"strings"
 
@@ -19,83 +18,53 @@ type DataFile struct {
 }
 
 // dataReader returns the reader csv() uses: paths are relative to the calc
-// file, must stay inside its repository (or, outside one, inside its
+// file, must stay inside Files (its repository, or outside one its
 // folder), and every file read is recorded with its hash.
 func (d *Doc) dataReader() func(string) ([]byte, error) {
 	return func(name string) ([]byte, error) {
-		if d.ReadData != nil {
-			return d.recordData(name, d.ReadData)
+		rel, err := d.dataPath(name)
+		if err != nil {
+			return nil, err
 		}
-		return d.recordData(name, d.readDataFromDisk)
-	}
-}
-
-// recordData reads through read and records the file's path and hash.
-func (d *Doc) recordData(name string, read func(rel string) ([]byte, error)) ([]byte, error) {
-	rel, err := d.dataPath(name)
-	if err != nil {
-		return nil, err
-	}
-	raw, err := read(rel)
-	if err != nil {
-		return nil, err
-	}
-	for _, f := range d.DataFiles {
-		if f.Path == rel {
-			return raw, nil
+		raw, err := fs.ReadFile(d.Files, rel)
+		if err != nil {
+			return nil, err
 		}
+		for _, f := range d.DataFiles {
+			if f.Path == rel {
+				return raw, nil
+			}
+		}
+		d.DataFiles = append(d.DataFiles, DataFile{Path: rel, Hash: provenance.BlobHash(raw)})
+		return raw, nil
 	}
-	d.DataFiles = append(d.DataFiles, DataFile{Path: rel, Hash: provenance.BlobHash(raw)})
-	return raw, nil
 }
 
 // dataPath resolves a data-file name to a slash path relative to the root
-// (the repository, or the calc's folder outside one) and refuses paths that
-// leave it.
+// of Files and refuses paths that leave it.
 func (d *Doc) dataPath(name string) (string, error) {
 	if filepath.IsAbs(name) {
 		return "", fmt.Errorf("%s: give a path relative to the calc file, inside its repository", name)
 	}
-	root, calcRel := d.dataRoot()
-	rel := filepath.Clean(filepath.Join(filepath.Dir(calcRel), filepath.FromSlash(name)))
+	rel := filepath.Clean(filepath.Join(filepath.Dir(filepath.FromSlash(d.Rel)), filepath.FromSlash(name)))
 	if rel == ".." || strings.HasPrefix(rel, ".."+string(filepath.Separator)) {
-		return "", fmt.Errorf("%s leaves the repository %s; a calc reads only files inside its repository", name, root)
+		return "", fmt.Errorf("%s leaves the repository %s; a calc reads only files inside its repository", name, d.Root)
 	}
 	return filepath.ToSlash(rel), nil
 }
 
-// dataRoot returns the root data paths are relative to and the calc file's
-// path relative to it.
-func (d *Doc) dataRoot() (root, calcRel string) {
-	abs, err := filepath.Abs(d.Path)
-	if err != nil {
-		return filepath.Dir(d.Path), filepath.Base(d.Path)
+// useWorkTree sets Files to the work tree that holds the calc, unless the
+// caller set a tree.
+func (d *Doc) useWorkTree() {
+	if d.Files == nil {
+		d.Root, d.Rel = locate(d.Path)
+		d.Files = newWorkTree(d.Root)
 	}
-	if repo, err := provenance.Open(abs); err == nil {
-		if rel, err := repo.Rel(abs); err == nil {
-			return repo.Root(), filepath.FromSlash(rel)
-		}
-	}
-	return filepath.Dir(abs), filepath.Base(abs)
 }
 
-// readDataFromDisk reads a root-relative data file from the working tree,
-// refusing symbolic links that leave the root.
-func (d *Doc) readDataFromDisk(rel string) ([]byte, error) {
-	root, _ := d.dataRoot()
-	full := filepath.Join(root, filepath.FromSlash(rel))
-	real, err := filepath.EvalSymlinks(full)
-	if err != nil {
-		if errors.Is(err, os.ErrNotExist) {
-			return nil, fmt.Errorf("%s does not exist", rel)
-		}
-		return nil, err
-	}
-	realRoot, _ := filepath.EvalSymlinks(root)
-	if r, err := filepath.Rel(realRoot, real); err != nil || strings.HasPrefix(r, "..") {
-		return nil, fmt.Errorf("%s leads outside the repository", rel)
-	}
-	return os.ReadFile(real)
+// DataPath is the path on disk of a data file the calc read.
+func (d *Doc) DataPath(f DataFile) string {
+	return filepath.Join(d.Root, filepath.FromSlash(f.Path))
 }
 
 // valuesReader returns the reader yaml() uses: the same path rules and

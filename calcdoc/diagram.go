@@ -253,15 +253,15 @@ func (d *Doc) sweepPlot(sw *Sweep, col int) ([]byte, error) {
 		}
 		s.X, s.Y = append(s.X, xv), append(s.Y, yv)
 	}
-	p := &svgplot.Plot{Title: PlainName(c.Name) + " against " + PlainName(sw.Var), XLabel: axisLabel(sw.Var, sw.XUnit), YLabel: axisLabel(c.Name, yu), Series: []svgplot.Series{s}}
+	p := &svgplot.Plot{Title: plainName(c.Name) + " against " + plainName(sw.Var), XLabel: axisLabel(sw.Var, sw.XUnit), YLabel: axisLabel(c.Name, yu), Series: []svgplot.Series{s}}
 	return p.SVG()
 }
 
 func axisLabel(name string, u units.Unit) string {
-	if t := UnitText(u); t != "" {
-		return PlainName(name) + " [" + t + "]"
+	if t := unitText(u); t != "" {
+		return plainName(name) + " [" + t + "]"
 	}
-	return PlainName(name)
+	return plainName(name)
 }
 
 // entropyAxis starts the entropy axis at zero when no point lies left of it,

@@ -21,8 +21,33 @@ type Error struct {
 	Msg string
 }
 
-// ErrorList gathers every error of a file.
+// Error returns "line:col: message".
+func (e *Error) Error() string {
+	return fmt.Sprintf("%d:%d: %s", e.Pos.Line, e.Pos.Col, e.Msg)
+}
+
+// ErrorList gathers every error of a file. Like go/scanner's list it is an
+// error itself; Err returns nil for an empty list.
 type ErrorList []*Error
+
+// Error returns the first error and the number of others.
+func (l ErrorList) Error() string {
+	switch len(l) {
+	case 0:
+		return "no errors"
+	case 1:
+		return l[0].Error()
+	}
+	return fmt.Sprintf("%s (and %d more errors)", l[0], len(l)-1)
+}
+
+// Err returns the list as an error, or nil when it is empty.
+func (l ErrorList) Err() error {
+	if len(l) == 0 {
+		return nil
+	}
+	return l
+}
 
 // Sort orders the errors by position.
 func (l ErrorList) Sort() {
@@ -98,3 +123,14 @@ func (x lineIndex) text(src []byte, n int) string {
 	}
 	return strings.TrimRight(string(src[start:end]), "\r")
 }
+
+// UsageError is a command that cannot start: a file that cannot be read,
+// a bad allowed-signers file, a role or key that cannot be used, an
+// unknown revision. The CLI exits with its usage code.
+type UsageError struct{ Err error }
+
+// Error returns the underlying error's message.
+func (e *UsageError) Error() string { return e.Err.Error() }
+
+// Unwrap returns the underlying error.
+func (e *UsageError) Unwrap() error { return e.Err }

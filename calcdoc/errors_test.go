@@ -38,6 +38,12 @@ var errorCases = []struct {
 	{"disabled builtin", "a = now()", "1:5: unknown function now"},
 	{"field of a number", "a = 1 m\nb = a.h", "2:7: a quantity of length (m) has no fields; .h needs a state"},
 	{"number too large", "a = 2 * 1e400", "1:9: the number 1e400 is beyond the range of numbers (about ±1.8e308)"},
+	{"integer too large", "a = 99999999999999999999 + 1", "1:5: the whole number 99999999999999999999 is beyond the range of whole numbers (about ±9.2e18); write it with an exponent, such as 9e19"},
+	{"unterminated text", "a = \"abc", "1:9: literal not terminated"},
+	{"open bracket", "a = (1 + 2", "1:10: the expression is incomplete"},
+	{"open condition", "a = 1 > 0 ? 2", "1:13: the expression is incomplete"},
+	{"stray bracket", "a = 1 )", "1:7: unexpected token Bracket(\")\")"},
+	{"more parts than the limit", "a = " + strings.Repeat("1+", 1100) + "1", "1:2006: expression has more than 2000 parts"},
 	{"literal too large", "a = 1e400 m", "1:5: the number 1e400 is beyond the range of numbers (about ±1.8e308)"},
 	{"literal too large in SI", "a = 1e308 MPa", "1:5: 1e308 MPa is beyond the range of numbers in SI units"},
 	{"power of a base unit", "a = 2 m^12\nb = a * 1 m", "2:7: the result would hold m^13; the power of a base unit is at most 12"},
@@ -59,6 +65,24 @@ func TestErrorMessages(t *testing.T) {
 				t.Errorf("got  %s\nwant %s", got, c.want)
 			}
 		})
+	}
+}
+
+// TestErrorListIsError holds the go/scanner idiom: the list is an error,
+// Err is nil for an empty list, and each error prints its position.
+func TestErrorListIsError(t *testing.T) {
+	var none ErrorList
+	if none.Err() != nil {
+		t.Fatal("empty list: Err is not nil")
+	}
+	d := Read("t.calc.md", []byte("---\ntitle: t\n---\n```calc\na = 1 +\nb = sqr(4)\n```\n"))
+	d.Evaluate()
+	err := d.Errors.Err()
+	if err == nil {
+		t.Fatal("no error")
+	}
+	if want := "5:7: the expression is incomplete (and 1 more errors)"; err.Error() != want {
+		t.Errorf("got %q, want %q", err, want)
 	}
 }
 

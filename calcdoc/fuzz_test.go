@@ -72,7 +72,7 @@ func FuzzRender(f *testing.F) {
 		if len(d.Errors) > 0 {
 			return
 		}
-		out, err := d.Render(RenderOptions{Engine: "test"})
+		out, err := renderHTML(d)
 		if err != nil {
 			t.Fatalf("render: %v", err)
 		}

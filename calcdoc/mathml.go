@@ -115,7 +115,7 @@ func (m *mathml) name(name string) {
 			return
 		}
 	}
-	m.w(NameMathML(name))
+	m.w(nameMathML(name))
 }
 
 // value writes a substituted value with its unit (the default unit when u
@@ -245,7 +245,7 @@ func (m *mathml) field(v *eval.Field) {
 	if ofCall && eval.Node(v) == m.root && m.values != nil {
 		// The whole line is a field of a property call: show the call with
 		// its arguments' values; the result follows.
-		m.w("<mrow>" + NameMathML(v.Name) + "<mo>(</mo>")
+		m.w("<mrow>" + nameMathML(v.Name) + "<mo>(</mo>")
 		m.node(v.X)
 		m.w("<mo>)</mo></mrow>")
 		return
@@ -258,7 +258,7 @@ func (m *mathml) field(v *eval.Field) {
 	}
 	k := m.kelvin
 	m.kelvin = false
-	m.w("<mrow>" + NameMathML(v.Name) + "<mo>(</mo>")
+	m.w("<mrow>" + nameMathML(v.Name) + "<mo>(</mo>")
 	m.symbols(v.X)
 	m.w("<mo>)</mo></mrow>")
 	m.kelvin = k
@@ -308,7 +308,7 @@ func (m *mathml) solve(v *eval.Call) {
 	m.w("<mrow><mtext>solve\u2002</mtext>")
 	m.node(v.Args[0])
 	m.w("<mtext>\u2002for\u2002</mtext>")
-	m.w(NameMathML(m.stmt.Name))
+	m.w(nameMathML(m.stmt.Name))
 	m.w("<mo>∈</mo><mo>[</mo>")
 	m.node(v.Args[1])
 	m.w("<mo separator=\"true\">,</mo>")

@@ -1,10 +1,9 @@
-// Package calcdoc reads a calc file — YAML front matter, Markdown prose,
-// calc blocks and inline values — evaluates it, and renders the package.
-// It is the only importer of goldmark.
 package calcdoc
 
 import (
 	"bytes"
+	"errors"
+	"io/fs"
 	"sort"
 	"strings"
 	"unicode/utf8"
@@ -14,6 +13,7 @@ import (
 	"github.com/yuin/goldmark/extension"
 	"github.com/yuin/goldmark/parser"
 	"github.com/yuin/goldmark/text"
+	"github.com/yuin/goldmark/util"
 
 	"github.com/vouchcalc/vouch/eval"
 )
@@ -41,9 +41,13 @@ type Doc struct {
 	Sweeps []*Sweep
 	// DataFiles are the data files the calc read, in order of first use.
 	DataFiles []DataFile
-	// ReadData, when set, reads a root-relative data file instead of the
-	// working tree (verify reads them at the recorded commit).
-	ReadData func(rel string) ([]byte, error)
+	// Files is the tree data files and images are read from: the work tree
+	// (the work tree) or a commit's tree (verify, diff). Root is its folder on
+	// disk and Rel the calc's slash path inside it. When Files is nil,
+	// Evaluate reads from the work tree that holds Path (locate).
+	Files fs.FS
+	Root  string
+	Rel   string
 
 	diagramBlocks []*diagramBlock
 	images        []*image         // the images of the prose, embedded when rendered
@@ -55,25 +59,29 @@ type Doc struct {
 	SweepLimit int
 	// Progress, when set, is told how far a sweep has come.
 	Progress func(name string, done, total int)
-	MD       gast.Node // the Markdown tree, for rendering
+	mdTree   gast.Node // the Markdown tree, for rendering
 	md       goldmark.Markdown
 	lines    lineIndex
 	body     []byte // Src with the front matter blanked, as goldmark parsed it
+	fences   fences // the nodes vouch reads, found while parsing
 }
 
 // newMarkdown returns the Markdown reader: CommonMark with GitHub tables
 // and strikethrough; raw HTML stays off.
-func newMarkdown() goldmark.Markdown {
+// Its transformer records the nodes vouch reads in f.
+func newMarkdown(f *fences) goldmark.Markdown {
 	return goldmark.New(
 		goldmark.WithExtensions(extension.Table, extension.Strikethrough),
-		goldmark.WithParserOptions(parser.WithAutoHeadingID()),
+		goldmark.WithParserOptions(parser.WithAutoHeadingID(),
+			parser.WithASTTransformers(util.Prioritized(fenceFinder{f}, 1000))),
 	)
 }
 
 // Read parses a calc file's bytes. It never fails: problems are gathered in
 // Doc.Errors.
 func Read(path string, src []byte) *Doc {
-	d := &Doc{Path: path, Src: src, lines: newLineIndex(src), md: newMarkdown()}
+	d := &Doc{Path: path, Src: src, lines: newLineIndex(src)}
+	d.md = newMarkdown(&d.fences)
 	if len(src) > MaxFileBytes {
 		d.errorf(0, "file is %d bytes; a calc file may be at most %d bytes", len(src), MaxFileBytes)
 		return d
@@ -83,7 +91,7 @@ func Read(path string, src []byte) *Doc {
 		return d
 	}
 	d.readFront()
-	d.MD = d.md.Parser().Parse(text.NewReader(d.body))
+	d.mdTree = d.md.Parser().Parse(text.NewReader(d.body))
 	d.collect()
 	return d
 }
@@ -134,41 +142,23 @@ func (d *Doc) readFront() {
 	}
 }
 
-// collect walks the Markdown tree for calc blocks and inline values.
+// collect reads the calc blocks, inline values, sweeps, diagrams and
+// images the parser's transformer found.
 func (d *Doc) collect() {
-	var blocks, sweeps, diagrams []*gast.FencedCodeBlock
-	var spans []*gast.CodeSpan
-	gast.Walk(d.MD, func(n gast.Node, entering bool) (gast.WalkStatus, error) {
-		if !entering {
-			return gast.WalkContinue, nil
-		}
-		switch v := n.(type) {
-		case *gast.FencedCodeBlock:
-			switch string(v.Language(d.body)) {
-			case "calc":
-				blocks = append(blocks, v)
-			case "sweep":
-				sweeps = append(sweeps, v)
-			case "diagram":
-				diagrams = append(diagrams, v)
-			}
-		case *gast.CodeSpan:
-			spans = append(spans, v)
-		case *gast.Image:
-			d.readImage(v)
-		}
-		return gast.WalkContinue, nil
-	})
-	for i, b := range blocks {
+	f := &d.fences
+	for _, im := range f.images {
+		d.readImage(im)
+	}
+	for i, b := range f.calcs {
 		d.readBlock(i, b)
 	}
-	for _, s := range spans {
+	for _, s := range f.spans {
 		d.readInline(s)
 	}
-	for _, s := range sweeps {
+	for _, s := range f.sweeps {
 		d.readSweep(s)
 	}
-	for _, s := range diagrams {
+	for _, s := range f.diagrams {
 		d.readDiagram(s)
 	}
 	sortItems(d.Items)
@@ -234,6 +224,25 @@ func (d *Doc) readInline(s *gast.CodeSpan) {
 	if st != nil && len(errs) == 0 {
 		d.Items = append(d.Items, &Item{Stmt: st, Inline: true})
 	}
+}
+
+// evalError adds an error of the evaluator at its own offset, or at off
+// when it carries none.
+func (d *Doc) evalError(err error, off int) {
+	var e *eval.Error
+	if errors.As(err, &e) {
+		off = e.Off
+	}
+	d.errorf(off, "%s", evalMsg(err))
+}
+
+// evalMsg is the message of an evaluator error, without a position.
+func evalMsg(err error) string {
+	var e *eval.Error
+	if errors.As(err, &e) {
+		return e.Msg
+	}
+	return err.Error()
 }
 
 func (d *Doc) addEvalErrors(errs []*eval.Error) {

@@ -20,9 +20,17 @@ const Caution = "This package records calculations. It is no substitute for the 
 // RenderOptions are what the package records beyond the calc itself.
 type RenderOptions struct {
 	Engine string // engine version
-	// Record is the calc's provenance and signatures. When nil, Render
-	// takes it from the work tree and git (Doc.Provenance), unsigned.
-	Record *Record
+	// Stamp is the calc's provenance and the verdicts on its signatures,
+	// built by the caller (audit.Provenance for a calc in git). When nil,
+	// the package is unversioned (Doc.Unversioned).
+	Stamp *Stamp
+}
+
+// Package is a rendered calculation package: the HTML file and the
+// manifest it embeds, for the manifest file written beside it.
+type Package struct {
+	HTML     []byte
+	Manifest *provenance.Manifest
 }
 
 type view struct {
@@ -89,38 +97,46 @@ func trusted(s string) template.HTML { return template.HTML(s) }
 
 var packageTemplate = template.Must(templates.Package(template.FuncMap{"trusted": trusted}))
 
-// Render writes the package of an evaluated calc without errors.
-func (d *Doc) Render(opt RenderOptions) ([]byte, error) {
+// Render renders the package of an evaluated calc without errors. It
+// reads nothing and runs no git: the stamp comes with the options.
+func (d *Doc) Render(opt RenderOptions) (*Package, error) {
+	body, err := d.renderBody()
+	if err != nil {
+		return nil, err
+	}
+	st := opt.Stamp
+	if st == nil {
+		if st, err = d.Unversioned(opt.Engine); err != nil {
+			return nil, err
+		}
+	}
+	v := d.view(opt)
+	if err := v.setStamp(d, st); err != nil {
+		return nil, err
+	}
+	v.Body = body
+	var out bytes.Buffer
+	out.Grow(len(body) + 64<<10)
+	if err := packageTemplate.Execute(&out, v); err != nil {
+		return nil, err
+	}
+	return &Package{HTML: out.Bytes(), Manifest: st.Manifest}, nil
+}
+
+// renderBody renders the Markdown body, calc blocks as MathML.
+func (d *Doc) renderBody() (string, error) {
 	if !d.prepared {
 		d.replaceCalcNodes()
-		demoteHeadings(d.MD)
+		demoteHeadings(d.mdTree)
 		d.md.Renderer().AddOptions(renderer.WithNodeRenderers(util.Prioritized(&bodyRenderer{d: d}, 100)))
 		d.prepared = true
 	}
 	var body bytes.Buffer
 	body.Grow(8 * len(d.body)) // MathML is several times the size of its source
-	md := d.md
-	if err := md.Renderer().Render(&body, d.body, d.MD); err != nil {
-		return nil, err
+	if err := d.md.Renderer().Render(&body, d.body, d.mdTree); err != nil {
+		return "", err
 	}
-	rec := opt.Record
-	if rec == nil {
-		var err error
-		if rec, err = d.Provenance(opt.Engine); err != nil {
-			return nil, err
-		}
-	}
-	v := d.view(opt)
-	if err := v.setRecord(d, rec); err != nil {
-		return nil, err
-	}
-	v.Body = body.String()
-	var out bytes.Buffer
-	out.Grow(body.Len() + 64<<10)
-	if err := packageTemplate.Execute(&out, v); err != nil {
-		return nil, err
-	}
-	return out.Bytes(), nil
+	return body.String(), nil
 }
 
 func (d *Doc) view(opt RenderOptions) *view {
@@ -143,7 +159,7 @@ func (d *Doc) summaryRows() []rowView {
 		if it == nil {
 			continue
 		}
-		rows = append(rows, rowView{Name: NameText(name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
+		rows = append(rows, rowView{Name: nameText(name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
 	}
 	return rows
 }
@@ -173,7 +189,7 @@ func (d *Doc) inputRows() []rowView {
 		if _, ok := it.Outcome.Value.(eval.Record); ok {
 			continue
 		}
-		rows = append(rows, rowView{Name: NameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
+		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
 	}
 	return rows
 }

@@ -17,7 +17,7 @@ func renderSrc(t testing.TB, src string) []byte {
 	if len(d.Errors) > 0 {
 		t.Fatalf("errors:\n%s", d.Errors.Format("t.calc.md", d.Src))
 	}
-	out, err := d.Render(RenderOptions{Engine: "test"})
+	out, err := renderHTML(d)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -25,6 +25,15 @@ func renderSrc(t testing.TB, src string) []byte {
 }
 
 // tempDir is a folder outside any repository.
+// renderHTML renders an evaluated calc, unversioned, and returns its HTML.
+func renderHTML(d *Doc) ([]byte, error) {
+	p, err := d.Render(RenderOptions{Engine: "test"})
+	if err != nil {
+		return nil, err
+	}
+	return p.HTML, nil
+}
+
 func tempDir(t testing.TB) string {
 	if tt, ok := t.(*testing.T); ok {
 		return tt.TempDir()
@@ -107,7 +116,7 @@ func TestSelfContained(t *testing.T) {
 	}
 	d := Read(filepath.Join(t.TempDir(), "rankine-simple.calc.md"), src)
 	d.Evaluate()
-	out, err := d.Render(RenderOptions{Engine: "test"})
+	out, err := renderHTML(d)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -130,7 +139,7 @@ func TestRenderDeterministic(t *testing.T) {
 	for i := 0; i < 3; i++ {
 		d := Read(filepath.Join(dir, "x.calc.md"), src)
 		d.Evaluate()
-		out, err := d.Render(RenderOptions{Engine: "test"})
+		out, err := renderHTML(d)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -157,7 +166,7 @@ func BenchmarkGoldmark2000(b *testing.B) {
 	src := []byte(generatedCalc(2000))
 	for b.Loop() {
 		var out bytes.Buffer
-		if err := newMarkdown().Convert(src, &out); err != nil {
+		if err := newMarkdown(&fences{}).Convert(src, &out); err != nil {
 			b.Fatal(err)
 		}
 	}

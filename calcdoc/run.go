@@ -2,7 +2,9 @@ package calcdoc
 
 import (
 	"fmt"
+	"io/fs"
 	"os"
+	"path/filepath"
 	"slices"
 	"strings"
 
@@ -24,9 +26,20 @@ func ReadFile(path string) (*Doc, error) {
 	return d, nil
 }
 
+// ReadIn reads and evaluates a calc from its bytes at rel inside files, a
+// tree whose folder on disk is root (a commit's tree for verify and diff):
+// its data files and images are read from files, not from the work tree.
+func ReadIn(files fs.FS, root, rel string, src []byte) *Doc {
+	d := Read(filepath.Join(root, filepath.FromSlash(rel)), src)
+	d.Files, d.Root, d.Rel = files, root, rel
+	d.Evaluate()
+	return d
+}
+
 // Evaluate runs every calc line and inline value in file order, gathering
 // errors; a line that fails does not stop the lines after it.
 func (d *Doc) Evaluate() {
+	d.useWorkTree()
 	eng := eval.NewEngine(d.Front.Ctx)
 	eng.Data, eng.YAML = d.dataReader(), d.valuesReader()
 	for _, it := range d.Items {
@@ -39,7 +52,7 @@ func (d *Doc) Evaluate() {
 		out, err := eng.Exec(it.Stmt)
 		if err != nil {
 			it.Err = true
-			d.errorf(err.Off, "%s", err.Msg)
+			d.evalError(err, it.Stmt.ExprOff)
 			continue
 		}
 		if rec, isRecord := out.Value.(eval.Record); it.Inline && isRecord {

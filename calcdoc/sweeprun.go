@@ -106,7 +106,7 @@ func (d *Doc) runTextSweep(eng *eval.Engine, sw *Sweep) {
 	for _, b := range sw.bounds {
 		out, err := eng.Exec(b)
 		if err != nil {
-			d.errorf(err.Off, "%s", err.Msg)
+			d.evalError(err, b.ExprOff)
 			return
 		}
 		s, ok := out.Value.(string)
@@ -134,7 +134,7 @@ func (d *Doc) sweepValues(eng *eval.Engine, sw *Sweep, input *Item) ([]units.Qua
 	for _, b := range sw.bounds {
 		out, err := eng.Exec(b)
 		if err != nil {
-			d.errorf(err.Off, "%s", err.Msg)
+			d.evalError(err, b.ExprOff)
 			return nil, false
 		}
 		q, isQ := out.Value.(units.Quantity)
@@ -178,7 +178,7 @@ func (d *Doc) sweepPoint(eng *eval.Engine, sw *Sweep, redo map[string]bool, item
 	for _, it := range items {
 		out, err := f.Exec(it.Stmt)
 		if err != nil {
-			d.errorf(sw.VarOff, "sweep point %s = %s: line %d: %s", sw.Var, d.SweepX(sw, i), it.Stmt.Line, err.Msg)
+			d.errorf(sw.VarOff, "sweep point %s = %s: line %d: %s", sw.Var, d.SweepX(sw, i), it.Stmt.Line, evalMsg(err))
 			return false
 		}
 		if it.Stmt.Kind == eval.Check && !out.Pass {

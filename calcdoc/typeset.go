@@ -17,11 +17,11 @@ var greek = map[string]string{
 	"Phi": "Φ", "Psi": "Ψ", "Omega": "Ω",
 }
 
-// NameMathML typesets a calc name: the part before the first _ is the
+// nameMathML typesets a calc name: the part before the first _ is the
 // symbol (a Greek letter when it names one), the rest its subscript, with
 // further _ shown as commas; "dot" right after the symbol puts a dot over
 // it (m_dot → ṁ).
-func NameMathML(name string) string {
+func nameMathML(name string) string {
 	base, sub, _ := strings.Cut(name, "_")
 	sym := greekOr(base)
 	if rest, ok := cutWord(sub, "dot"); ok {
@@ -68,9 +68,9 @@ func greekText(s string) string {
 	return s
 }
 
-// NameText is a name typeset as plain HTML text with a subscript, for
+// nameText is a name typeset as plain HTML text with a subscript, for
 // tables outside MathML.
-func NameText(name string) string {
+func nameText(name string) string {
 	base, sub, _ := strings.Cut(name, "_")
 	sym := html.EscapeString(greekText(base))
 	if rest, ok := cutWord(sub, "dot"); ok {
@@ -112,10 +112,10 @@ func groupDigits(s string) string {
 	return sign + intPart
 }
 
-// NumberText formats a number with significant figures as an engineer
+// numberText formats a number with significant figures as an engineer
 // writes it: grouped digits, and "1.234 × 10⁻⁵" where fixed notation would
 // be unreadable. It returns HTML.
-func NumberText(v float64, digits int) string {
+func numberText(v float64, digits int) string {
 	s := units.FormatSig(v, digits)
 	mant, exp, sci := strings.Cut(s, "e")
 	if !sci {
@@ -151,9 +151,9 @@ func parseNum(s string) float64 {
 
 var superscripts = strings.NewReplacer("-", "⁻", "0", "⁰", "1", "¹", "2", "²", "3", "³", "4", "⁴", "5", "⁵", "6", "⁶", "7", "⁷", "8", "⁸", "9", "⁹")
 
-// UnitText typesets a unit as text: kJ/(kg·K), m³/kg, °C. It returns plain
+// unitText typesets a unit as text: kJ/(kg·K), m³/kg, °C. It returns plain
 // text (escape it for HTML).
-func UnitText(u units.Unit) string {
+func unitText(u units.Unit) string {
 	syms, pows := u.Symbols()
 	var num, den []string
 	for i, s := range syms {
@@ -179,7 +179,7 @@ func UnitText(u units.Unit) string {
 
 // unitMathML writes a unit after a number.
 func unitMathML(u units.Unit) string {
-	t := UnitText(u)
+	t := unitText(u)
 	if t == "" {
 		return ""
 	}
@@ -199,23 +199,23 @@ func quantityMathML(q units.Quantity, u units.Unit, digits int, ctx units.Contex
 	return "<mrow>" + numberMathML(v, digits, false) + unitMathML(u) + "</mrow>"
 }
 
-// QuantityText formats a quantity in a unit as HTML text: "3449 kJ/kg".
-func QuantityText(q units.Quantity, u units.Unit, digits int, ctx units.Context) string {
+// quantityText formats a quantity in a unit as HTML text: "3449 kJ/kg".
+func quantityText(q units.Quantity, u units.Unit, digits int, ctx units.Context) string {
 	v, err := q.In(u, ctx)
 	if err != nil {
 		return html.EscapeString(err.Error())
 	}
-	s := NumberText(v, digits)
-	if t := UnitText(u); t != "" {
+	s := numberText(v, digits)
+	if t := unitText(u); t != "" {
 		s += "\u2009" + html.EscapeString(t)
 	}
 	return s
 }
 
-// PlainName writes a calc name as plain text for places without markup
+// plainName writes a calc name as plain text for places without markup
 // (plot titles and axes): the symbol as a Greek letter when it names one,
 // the subscript after an underscore: "η_th".
-func PlainName(name string) string {
+func plainName(name string) string {
 	base, sub, ok := strings.Cut(name, "_")
 	if r, isDot := cutWord(sub, "dot"); ok && isDot {
 		base, sub, ok = greekText(base)+"\u0307", r, r != ""

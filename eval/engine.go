@@ -65,7 +65,8 @@ func (e *Engine) Value(name string) (any, bool) {
 
 // Exec evaluates a statement. A definition that fails leaves its name
 // marked failed, so lines that read it are skipped without a second error.
-func (e *Engine) Exec(s *Stmt) (*Outcome, *Error) {
+// An error is an *Error, with the offset of the node that caused it.
+func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
 	if s.Kind == Def {
 		if prev, ok := e.defs[s.Name]; ok {
 			e.failed[s.Name] = true

@@ -20,7 +20,7 @@ func run(t *testing.T, lines ...string) *Engine {
 			t.Fatalf("line %d %q: %v", i+1, l, errs[0].Msg)
 		}
 		if _, err := e.Exec(s); err != nil {
-			t.Fatalf("line %d %q: %v", i+1, l, err.Msg)
+			t.Fatalf("line %d %q: %v", i+1, l, err)
 		}
 		off += len(l) + 1
 	}
@@ -71,7 +71,7 @@ func TestDisplayUnit(t *testing.T) {
 		}
 		out, err := e.Exec(s)
 		if err != nil {
-			t.Fatal(err.Msg)
+			t.Fatal(err)
 		}
 		want := []string{"degC", "kJ/kg", "kW", "1"}[i]
 		if got := out.Display.String(); got != want {
@@ -142,7 +142,7 @@ func BenchmarkEvaluate2000(b *testing.B) {
 				b.Fatal(errs[0].Msg)
 			}
 			if _, err := e.Exec(s); err != nil {
-				b.Fatal(err.Msg)
+				b.Fatal(err)
 			}
 		}
 	}
@@ -210,7 +210,7 @@ func TestSolveKnownRoots(t *testing.T) {
 		}
 		out, err := e.Exec(s)
 		if err != nil {
-			t.Fatalf("%s: %s", c.line, err.Msg)
+			t.Fatalf("%s: %s", c.line, err)
 		}
 		got := out.Value.(units.Quantity).V
 		if math.Abs(got-c.want) > 1e-9*math.Abs(c.want) {
@@ -242,7 +242,7 @@ func TestSolveErrors(t *testing.T) {
 			t.Fatalf("%s: %s", line, errs[0].Msg)
 		}
 		_, err := e.Exec(s)
-		if err == nil || err.Msg != want {
+		if err == nil || err.Error() != want {
 			t.Errorf("%s:\n got %v\nwant %s", line, err, want)
 		}
 	}

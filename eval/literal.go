@@ -13,6 +13,7 @@ import (
 	"github.com/expr-lang/expr/conf"
 	"github.com/expr-lang/expr/file"
 	"github.com/expr-lang/expr/parser"
+	"github.com/expr-lang/expr/parser/lexer"
 
 	"github.com/vouchcalc/vouch/units"
 )
@@ -51,51 +52,91 @@ func (s *Stmt) compile(ctx units.Context) *Error {
 	return nil
 }
 
-// exprError converts an expr parse error to a file position.
+// exprError converts an expr parse error to a file position. The error is
+// classified from positions and tokens, never from expr's wording: where a
+// parse without the node limit gets further, it hit the limit; on a number
+// token that does not fit, the number is too large; where the parser ran
+// out of input, the expression is incomplete.
 func (s *Stmt) exprError(err error) *Error {
 	fe, ok := err.(*file.Error)
 	if !ok {
 		return &Error{Off: s.ExprOff, Msg: err.Error()}
 	}
-	msg := fe.Message
-	if msg == "unexpected token EOF" || msg == "unexpected end of expression" {
-		msg = "the expression is incomplete"
-	}
-	if strings.HasPrefix(msg, "compilation failed: ") {
-		msg = sprintf("expression has more than %d parts", MaxNodes)
-	}
 	off := s.offOfRune(fe.From)
-	if strings.Contains(msg, "value out of range") {
-		start, end := numberAround(s.src, off-s.ExprOff)
-		off = s.ExprOff + start
-		msg = numberTooLarge(s.src[start:end])
+	toks, lexErr := lexer.Lex(file.NewSource(s.src))
+	switch {
+	case lexErr != nil:
+		return &Error{Off: off, Msg: fe.Message}
+	case overNodeLimit(s.src, fe.From):
+		return &Error{Off: off, Msg: sprintf("expression has more than %d parts", MaxNodes)}
 	}
-	return &Error{Off: off, Msg: msg}
+	if tk, ok := numberNear(toks, fe.From); ok {
+		if msg := numberRange(tk.Value); msg != "" {
+			return &Error{Off: s.offOfRune(tk.From), Msg: msg}
+		}
+	}
+	if incomplete(s.src) {
+		return &Error{Off: off, Msg: "the expression is incomplete"}
+	}
+	return &Error{Off: off, Msg: fe.Message}
+}
+
+// overNodeLimit reports whether a parse that failed at rune index at gets
+// further without the node limit. The line's length and nesting are
+// already bounded, so the second parse is too.
+func overNodeLimit(src string, at int) bool {
+	c := *parserConfig
+	c.MaxNodes = 0
+	_, err := parser.ParseWithConfig(src, &c)
+	var fe *file.Error
+	return err == nil || errors.As(err, &fe) && fe.From > at
+}
+
+// numberNear returns the number token at rune index at or just before it:
+// expr reports a bad literal at the token that holds it or at the next.
+func numberNear(toks []lexer.Token, at int) (lexer.Token, bool) {
+	k := -1
+	for i, tk := range toks {
+		if tk.Kind != lexer.EOF && tk.From <= at {
+			k = i
+		}
+	}
+	for i := k; i >= 0 && i >= k-1; i-- {
+		if toks[i].Kind == lexer.Number {
+			return toks[i], true
+		}
+	}
+	return lexer.Token{}, false
+}
+
+// numberRange says why a number token does not fit, or "" when it does: a
+// float beyond ±1.8e308, or a whole number beyond int64, as expr reads
+// whole numbers.
+func numberRange(num string) string {
+	if _, err := strconv.ParseFloat(num, 64); errors.Is(err, strconv.ErrRange) {
+		return numberTooLarge(num)
+	}
+	if strings.Trim(num, "0123456789_") != "" {
+		return ""
+	}
+	if _, err := strconv.ParseInt(strings.ReplaceAll(num, "_", ""), 10, 64); errors.Is(err, strconv.ErrRange) {
+		return sprintf("the whole number %s is beyond the range of whole numbers (about ±9.2e18); write it with an exponent, such as %se%d", num, num[:1], len(num)-1)
+	}
+	return ""
+}
+
+// incomplete reports whether the parser runs out of input: with a blank
+// after the expression, the error then lies at or beyond its end (without
+// it, expr puts its end-of-input token on the last token).
+func incomplete(src string) bool {
+	_, err := parser.ParseWithConfig(src+" ", parserConfig)
+	var fe *file.Error
+	return errors.As(err, &fe) && fe.From >= utf8.RuneCountInString(src)
 }
 
 // numberTooLarge says that a written number does not fit in a float64.
 func numberTooLarge(num string) string {
 	return sprintf("the number %s is beyond the range of numbers (about ±1.8e308)", num)
-}
-
-// numberAround returns the bounds of the decimal number in src that holds
-// byte i (or ends just before it).
-func numberAround(src string, i int) (start, end int) {
-	i = min(max(i, 0), len(src))
-	in := func(k int) bool {
-		c := src[k]
-		return isDigit(c) || c == '.' || c == 'e' || c == 'E' ||
-			(c == '+' || c == '-') && k > 0 && (src[k-1] == 'e' || src[k-1] == 'E')
-	}
-	start = i
-	for start > 0 && in(start-1) {
-		start--
-	}
-	end = i
-	for end < len(src) && in(end) {
-		end++
-	}
-	return start, end
 }
 
 // offOfRune converts a rune index into the rewritten expression to a file

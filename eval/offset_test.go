@@ -37,7 +37,7 @@ func TestGaugeAndAbsoluteInCalcLines(t *testing.T) {
 		if len(errs) > 0 {
 			msg = errs[0].Msg
 		} else if _, err := e.Exec(s); err != nil {
-			msg = err.Msg
+			msg = err.Error()
 		}
 		switch {
 		case c.want == "" && msg != "":

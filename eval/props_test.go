@@ -37,7 +37,7 @@ func TestCriticalPointLines(t *testing.T) {
 			t.Fatal(errs[0].Msg)
 		}
 		_, err := e.Exec(s)
-		if err == nil || !strings.Contains(err.Msg, "is not defined here") || !strings.Contains(err.Msg, "critical point") {
+		if err == nil || !strings.Contains(err.Error(), "is not defined here") || !strings.Contains(err.Error(), "critical point") {
 			t.Errorf("%s: %v, want an error at the critical point", l, err)
 		}
 	}

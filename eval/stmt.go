@@ -70,9 +70,6 @@ type Literal struct {
 // Deps returns the names the line reads, in order of first use.
 func (s *Stmt) Deps() []string { return s.deps }
 
-// Tree returns the expression tree (placeholders stand for unit literals).
-func (s *Stmt) Tree() ast.Node { return s.tree }
-
 // Literal returns the unit literal a placeholder identifier stands for.
 func (s *Stmt) Literal(ident string) (*Literal, bool) {
 	l, ok := s.lits[ident]

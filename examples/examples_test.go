@@ -48,11 +48,11 @@ func TestExamplesRun(t *testing.T) {
 					}
 				}
 			}
-			html, err := d.Render(calcdoc.RenderOptions{Engine: "test"})
+			pkg, err := d.Render(calcdoc.RenderOptions{Engine: "test"})
 			if err != nil {
 				t.Fatalf("render: %v", err)
 			}
-			if worked(f) && !bytes.Contains(html, []byte("<svg")) {
+			if worked(f) && !bytes.Contains(pkg.HTML, []byte("<svg")) {
 				t.Errorf("%s: the package has no T-s diagram", f)
 			}
 		})

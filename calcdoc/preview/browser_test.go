@@ -3,9 +3,9 @@ package preview
 import (
 	"context"
 	"fmt"
+	"github.com/vouchcalc/vouch/internal/testkit"
 	"io/fs"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -34,33 +34,14 @@ check P_pump < 5 MW                  // motor frame limit (fictional)
 ` + "```" + `
 `
 
-// gitDir makes a repository holding the calc, committed, and returns the
-// calc's path.
+// gitDir makes a repository (internal/testkit) holding the calc,
+// committed, and returns the calc's path.
 func gitDir(t testing.TB, name, src string) string {
 	t.Helper()
-	if _, err := exec.LookPath("git"); err != nil {
-		if os.Getenv("CI") != "" {
-			t.Fatal("CI must have git")
-		}
-		t.Skip("git is not installed")
-	}
-	dir := t.TempDir()
-	file := filepath.Join(dir, name)
-	if err := os.WriteFile(file, []byte(src), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	for _, args := range [][]string{{"init", "-q", "-b", "main"}, {"add", "-A"}, {"commit", "-q", "-m", "Feed pump power"}} {
-		cmd := exec.Command("git", args...)
-		cmd.Dir = dir
-		cmd.Env = append(os.Environ(), "GIT_CONFIG_GLOBAL=/dev/null", "GIT_CONFIG_NOSYSTEM=1",
-			"GIT_AUTHOR_NAME=P. Writer (fictional)", "GIT_AUTHOR_EMAIL=preparer@example.com",
-			"GIT_COMMITTER_NAME=P. Writer (fictional)", "GIT_COMMITTER_EMAIL=preparer@example.com",
-			"GIT_AUTHOR_DATE=2031-03-02T10:00:00Z", "GIT_COMMITTER_DATE=2031-03-02T10:00:00Z")
-		if out, err := cmd.CombinedOutput(); err != nil {
-			t.Fatalf("git %v: %v\n%s", args, err, out)
-		}
-	}
-	return file
+	r := testkit.NewRepo(t)
+	r.Write(name, src)
+	r.Commit("Feed pump power")
+	return r.Path(name)
 }
 
 // startServer serves path on a free loopback port until the test ends.

@@ -17,6 +17,7 @@ import (
 	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 )
 
 // Timings of the live reload.
@@ -152,11 +153,15 @@ func (s *Server) render(rel string) ([]byte, map[string][]byte) {
 	if len(d.Errors) > 0 {
 		return errorPage(rel, d), inputs
 	}
-	html, err := d.Render(calcdoc.RenderOptions{Engine: s.opt.Engine})
+	st, err := audit.Provenance(d, s.opt.Engine)
 	if err != nil {
 		return problemPage(rel, err.Error()), inputs
 	}
-	return html, inputs
+	pkg, err := d.Render(calcdoc.RenderOptions{Engine: s.opt.Engine, Stamp: st})
+	if err != nil {
+		return problemPage(rel, err.Error()), inputs
+	}
+	return pkg.HTML, inputs
 }
 
 // watch refreshes, every poll interval, the pages a browser has open or

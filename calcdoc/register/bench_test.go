@@ -22,7 +22,7 @@ func exampleTree(b *testing.B, n int) *tree {
 	for a := 0; a < 10; a++ {
 		for _, d := range data {
 			src, _ := os.ReadFile(d)
-			r.write(fmt.Sprintf("area-%d/data/%s", a, filepath.Base(d)), string(src))
+			r.Write(fmt.Sprintf("area-%d/data/%s", a, filepath.Base(d)), string(src))
 		}
 	}
 	for i := 0; i < n; i++ {
@@ -31,9 +31,9 @@ func exampleTree(b *testing.B, n int) *tree {
 			b.Fatal(err)
 		}
 		s := strings.Replace(string(src), "\nnumber: ", fmt.Sprintf("\nnumber: X%03d-", i), 1)
-		r.write(fmt.Sprintf("area-%d/calc-%03d.calc.md", i%10, i), s)
+		r.Write(fmt.Sprintf("area-%d/calc-%03d.calc.md", i%10, i), s)
 	}
-	r.commit("Calcs copied from the examples")
+	r.Commit("Calcs copied from the examples")
 	return r
 }
 
@@ -47,16 +47,16 @@ func BenchmarkRegister200(b *testing.B) {
 	b.Run("first", func(b *testing.B) {
 		for i := 0; i < b.N; i++ {
 			out := b.TempDir()
-			if sum := registerTree(b, r.dir, out, nil); sum.Rendered != 200 {
+			if sum := registerTree(b, r.Dir, out, nil); sum.Rendered != 200 {
 				b.Fatalf("rendered %d", sum.Rendered)
 			}
 		}
 	})
 	out := b.TempDir()
-	registerTree(b, r.dir, out, nil)
+	registerTree(b, r.Dir, out, nil)
 	b.Run("unchanged", func(b *testing.B) {
 		for i := 0; i < b.N; i++ {
-			if sum := registerTree(b, r.dir, out, nil); sum.Rendered != 0 {
+			if sum := registerTree(b, r.Dir, out, nil); sum.Rendered != 0 {
 				b.Fatalf("rendered %d", sum.Rendered)
 			}
 		}

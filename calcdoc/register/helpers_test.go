@@ -9,78 +9,24 @@ import (
 	"testing"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
+	"github.com/vouchcalc/vouch/internal/testkit"
 )
 
 // engine is the engine version the tests register with.
 const engine = "0.1.0-test"
 
-// needTool skips the test when an executable is missing, unless CI is set,
-// where a missing tool is a failure.
-func needTool(t testing.TB, name string) {
-	t.Helper()
-	if _, err := exec.LookPath(name); err != nil {
-		if os.Getenv("CI") != "" {
-			t.Fatalf("%s is required when CI is set: %v", name, err)
-		}
-		t.Skipf("%s not found: %v", name, err)
-	}
-}
+var needTool = testkit.NeedTool
 
-// tree is a scratch repository of generated calcs, with a fictional
-// identity and dates one day apart per commit.
-type tree struct {
-	t    testing.TB
-	dir  string
-	tick int
-}
+// tree is a scratch repository of generated calcs (internal/testkit) that
+// ignores packages.
+type tree = testkit.Repo
 
 func newTree(t testing.TB) *tree {
 	t.Helper()
-	needTool(t, "git")
-	dir, err := filepath.EvalSymlinks(t.TempDir())
-	if err != nil {
-		t.Fatal(err)
-	}
-	r := &tree{t: t, dir: dir}
-	r.git("init", "-q", "-b", "main")
-	r.write(".gitignore", "*.html\n*.manifest.json\n")
+	r := testkit.NewRepo(t)
+	r.Write(".gitignore", "*.html\n*.manifest.json\n")
 	return r
-}
-
-func (r *tree) git(args ...string) string {
-	r.t.Helper()
-	cmd := exec.Command("git", args...)
-	date := fmt.Sprintf("@%d +0000", 1900000000+86400*r.tick)
-	cmd.Dir = r.dir
-	cmd.Env = append(os.Environ(), "GIT_CONFIG_GLOBAL=/dev/null", "GIT_CONFIG_NOSYSTEM=1",
-		"GIT_AUTHOR_NAME=P. Writer (fictional)", "GIT_AUTHOR_EMAIL=preparer@example.com",
-		"GIT_COMMITTER_NAME=P. Writer (fictional)", "GIT_COMMITTER_EMAIL=preparer@example.com",
-		"GIT_AUTHOR_DATE="+date, "GIT_COMMITTER_DATE="+date)
-	out, err := cmd.CombinedOutput()
-	if err != nil {
-		r.t.Fatalf("git %s: %v\n%s", strings.Join(args, " "), err, out)
-	}
-	return strings.TrimSpace(string(out))
-}
-
-func (r *tree) path(rel string) string { return filepath.Join(r.dir, filepath.FromSlash(rel)) }
-
-func (r *tree) write(rel, content string) {
-	r.t.Helper()
-	p := r.path(rel)
-	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
-		r.t.Fatal(err)
-	}
-	if err := os.WriteFile(p, []byte(content), 0o644); err != nil {
-		r.t.Fatal(err)
-	}
-}
-
-func (r *tree) commit(msg string) {
-	r.t.Helper()
-	r.git("add", "-A")
-	r.tick++
-	r.git("commit", "-q", "-m", msg)
 }
 
 // genCalc is a generated feed-pump calc of a fictional plant; kind adds a
@@ -130,29 +76,29 @@ func renderBeside(t testing.TB, calc string) string {
 	if err != nil || len(d.Errors) > 0 {
 		t.Fatalf("%v %v", err, d.Errors)
 	}
-	html, err := d.Render(calcdoc.RenderOptions{Engine: engine})
+	st, err := audit.Provenance(d, engine)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := d.Render(calcdoc.RenderOptions{Engine: engine, Stamp: st})
 	if err != nil {
 		t.Fatal(err)
 	}
 	pkg := strings.TrimSuffix(calc, ".calc.md") + ".html"
-	writePackage(t, pkg, html)
+	writePackage(t, pkg, p)
 	return pkg
 }
 
-func writePackage(t testing.TB, pkg string, html []byte) {
+func writePackage(t testing.TB, pkg string, p *calcdoc.Package) {
 	t.Helper()
-	m, err := calcdoc.ManifestOf(html)
+	file, err := audit.ManifestFile(p.Manifest)
 	if err != nil {
 		t.Fatal(err)
 	}
-	file, err := calcdoc.ManifestFile(m)
-	if err != nil {
+	if err := os.WriteFile(audit.ManifestPath(pkg), file, 0o644); err != nil {
 		t.Fatal(err)
 	}
-	if err := os.WriteFile(calcdoc.ManifestPath(pkg), file, 0o644); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(pkg, html, 0o644); err != nil {
+	if err := os.WriteFile(pkg, p.HTML, 0o644); err != nil {
 		t.Fatal(err)
 	}
 }
@@ -165,10 +111,10 @@ func signAsPreparer(t testing.TB, pkg string) {
 	if out, err := exec.Command("ssh-keygen", "-q", "-t", "ed25519", "-N", "", "-C", "preparer@example.com", "-f", key).CombinedOutput(); err != nil {
 		t.Fatalf("ssh-keygen: %v\n%s", err, out)
 	}
-	signed, rep, err := calcdoc.Sign(pkg, calcdoc.SignOptions{VerifyOptions: calcdoc.VerifyOptions{Engine: engine}, Role: "preparer", Key: key})
+	signed, rep, err := audit.Sign(pkg, audit.SignOptions{VerifyOptions: audit.VerifyOptions{Engine: engine}, Role: "preparer", Key: key})
 	if err != nil {
 		t.Fatalf("sign: %v\n%v", err, rep)
 	}
-	os.WriteFile(calcdoc.ManifestPath(pkg), signed.ManifestFile, 0o644)
+	os.WriteFile(audit.ManifestPath(pkg), signed.ManifestFile, 0o644)
 	os.WriteFile(pkg, signed.HTML, 0o644)
 }

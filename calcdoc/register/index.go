@@ -1,13 +1,19 @@
 package register
 
 import (
+	"bytes"
+	"html/template"
 	"path/filepath"
 	"sort"
 	"strings"
 	"unicode"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/templates"
 )
+
+// indexTemplate is the template of index.html; the register owns it.
+var indexTemplate = template.Must(templates.Register(nil))
 
 // maxErrors is the number of errors the index shows for a broken calc.
 const maxErrors = 3
@@ -39,12 +45,12 @@ type rowView struct {
 
 // writeIndex writes index.html for the whole register.
 func (r *run) writeIndex() (string, error) {
-	page, err := calcdoc.RenderRegisterIndex(r.view())
-	if err != nil {
+	var page bytes.Buffer
+	if err := indexTemplate.Execute(&page, r.view()); err != nil {
 		return "", err
 	}
 	dest := filepath.Join(r.opt.Out, "index.html")
-	return dest, calcdoc.WriteFileAtomic(dest, page)
+	return dest, calcdoc.WriteFileAtomic(dest, page.Bytes())
 }
 
 // view builds the index from the entries, in register order.

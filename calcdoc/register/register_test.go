@@ -10,6 +10,7 @@ import (
 	"testing"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 )
 
 // kinds of the generated calcs, by index: most are plain, a few fail a
@@ -30,16 +31,16 @@ func kindOf(i int) string {
 // a data file; FP-000 has a current signed package, FP-001 a stale one.
 func fiftyCalcs(t *testing.T) *tree {
 	r := newTree(t)
-	r.write("data/pump-curve.csv", pumpCurve)
+	r.Write("data/pump-curve.csv", pumpCurve)
 	for i := 0; i < 50; i++ {
-		r.write(calcName(i), genCalc(i, kindOf(i)))
+		r.Write(calcName(i), genCalc(i, kindOf(i)))
 	}
-	r.commit("Fifty feed pump calcs")
+	r.Commit("Fifty feed pump calcs")
 	for i := 0; i < 2; i++ {
-		signAsPreparer(t, renderBeside(t, r.path(calcName(i))))
+		signAsPreparer(t, renderBeside(t, r.Path(calcName(i))))
 	}
-	r.write(calcName(1), strings.Replace(genCalc(1, ""), "m_dot = 151 kg/s", "m_dot = 152 kg/s", 1))
-	r.commit("FP-001: more flow")
+	r.Write(calcName(1), strings.Replace(genCalc(1, ""), "m_dot = 151 kg/s", "m_dot = 152 kg/s", 1))
+	r.Commit("FP-001: more flow")
 	return r
 }
 
@@ -62,7 +63,7 @@ func TestRegisterFiftyCalcs(t *testing.T) {
 	r := fiftyCalcs(t)
 	out := t.TempDir()
 	var progress []int
-	sum := registerTree(t, r.dir, out, func(o *Options) { o.Progress = func(done, _ int) { progress = append(progress, done) } })
+	sum := registerTree(t, r.Dir, out, func(o *Options) { o.Progress = func(done, _ int) { progress = append(progress, done) } })
 	if len(sum.Entries) != 50 || sum.Rendered != 50 || len(progress) != 50 || progress[49] != 50 {
 		t.Fatalf("%d entries, %d rendered, progress %v", len(sum.Entries), sum.Rendered, progress)
 	}
@@ -90,10 +91,10 @@ func TestRegisterFiftyCalcs(t *testing.T) {
 			t.Errorf("index.html lacks %q", want)
 		}
 	}
-	if bytes.Contains(index, []byte(r.dir)) || bytes.Contains(index, []byte(out)) {
+	if bytes.Contains(index, []byte(r.Dir)) || bytes.Contains(index, []byte(out)) {
 		t.Error("index.html names an absolute path")
 	}
-	again := registerTree(t, r.dir, out, nil)
+	again := registerTree(t, r.Dir, out, nil)
 	if again.Rendered != 0 || again.Cached != 50 {
 		t.Errorf("second run rendered %d, cached %d; want 0 and 50", again.Rendered, again.Cached)
 	}
@@ -125,27 +126,27 @@ func readFile(t *testing.T, p string) []byte {
 // engine in turn and counts what the next run renders.
 func TestRegisterRendersWhatChanged(t *testing.T) {
 	r := newTree(t)
-	r.write("data/pump-curve.csv", pumpCurve)
+	r.Write("data/pump-curve.csv", pumpCurve)
 	for i := 0; i < 8; i++ {
-		r.write(calcName(i), genCalc(i, kindOf(i)))
+		r.Write(calcName(i), genCalc(i, kindOf(i)))
 	}
-	r.commit("Eight calcs")
+	r.Commit("Eight calcs")
 	out := t.TempDir()
-	registerTree(t, r.dir, out, nil)
+	registerTree(t, r.Dir, out, nil)
 	cases := []struct {
 		name   string
 		change func(o *Options)
 		want   int
 	}{
 		{"nothing", func(*Options) {}, 0},
-		{"one source", func(*Options) { r.write(calcName(4), genCalc(4, "failing")) }, 1},
-		{"the data file", func(*Options) { r.write("data/pump-curve.csv", pumpCurve+"400,0.75\n") }, 1},
+		{"one source", func(*Options) { r.Write(calcName(4), genCalc(4, "failing")) }, 1},
+		{"the data file", func(*Options) { r.Write("data/pump-curve.csv", pumpCurve+"400,0.75\n") }, 1},
 		{"a package deleted", func(*Options) { os.Remove(filepath.Join(out, "unit1/fp-000.html")) }, 1},
 		{"the engine", func(o *Options) { o.Engine = "0.2.0-test" }, 8},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
-			sum := registerTree(t, r.dir, out, c.change)
+			sum := registerTree(t, r.Dir, out, c.change)
 			if sum.Rendered != c.want {
 				t.Errorf("rendered %d, want %d", sum.Rendered, c.want)
 			}
@@ -157,20 +158,24 @@ func TestRegisterRendersWhatChanged(t *testing.T) {
 // one vouch render makes from the same work tree.
 func TestRegisterPackageAsRendered(t *testing.T) {
 	r := newTree(t)
-	r.write("data/pump-curve.csv", pumpCurve)
-	r.write(calcName(2), genCalc(2, "data"))
-	r.commit("One calc")
+	r.Write("data/pump-curve.csv", pumpCurve)
+	r.Write(calcName(2), genCalc(2, "data"))
+	r.Commit("One calc")
 	out := t.TempDir()
-	registerTree(t, r.dir, out, nil)
-	d, err := calcdoc.ReadFile(r.path(calcName(2)))
+	registerTree(t, r.Dir, out, nil)
+	d, err := calcdoc.ReadFile(r.Path(calcName(2)))
 	if err != nil {
 		t.Fatal(err)
 	}
-	want, err := d.Render(calcdoc.RenderOptions{Engine: engine})
+	st, err := audit.Provenance(d, engine)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if got := readFile(t, filepath.Join(out, "unit1/fp-002.html")); !bytes.Equal(got, want) {
+	want, err := d.Render(calcdoc.RenderOptions{Engine: engine, Stamp: st})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := readFile(t, filepath.Join(out, "unit1/fp-002.html")); !bytes.Equal(got, want.HTML) {
 		t.Error("the register's package differs from vouch render's")
 	}
 }
@@ -178,15 +183,15 @@ func TestRegisterPackageAsRendered(t *testing.T) {
 func TestRegisterShards(t *testing.T) {
 	r := newTree(t)
 	for i := 0; i < 12; i++ {
-		r.write(calcName(i), genCalc(i, ""))
+		r.Write(calcName(i), genCalc(i, ""))
 	}
-	r.commit("Twelve calcs")
-	whole := registerTree(t, r.dir, t.TempDir(), func(o *Options) { o.Workers = 1 })
+	r.Commit("Twelve calcs")
+	whole := registerTree(t, r.Dir, t.TempDir(), func(o *Options) { o.Workers = 1 })
 	merged := t.TempDir()
 	total := 0
 	for i := 1; i <= 3; i++ {
 		out := t.TempDir()
-		sum := registerTree(t, r.dir, out, func(o *Options) { o.Shard, o.Shards = i, 3 })
+		sum := registerTree(t, r.Dir, out, func(o *Options) { o.Shard, o.Shards = i, 3 })
 		if sum.Index != "" {
 			t.Errorf("shard %d wrote an index", i)
 		}
@@ -196,7 +201,7 @@ func TestRegisterShards(t *testing.T) {
 	if total != 12 {
 		t.Errorf("the shards rendered %d calcs, want 12", total)
 	}
-	sum := registerTree(t, r.dir, merged, func(o *Options) { o.Workers = 4 })
+	sum := registerTree(t, r.Dir, merged, func(o *Options) { o.Workers = 4 })
 	if sum.Rendered != 0 {
 		t.Errorf("the run over the merged shards rendered %d", sum.Rendered)
 	}
@@ -224,12 +229,12 @@ func copyTree(t *testing.T, from, to string) {
 func TestRegisterPrunesRemovedCalcs(t *testing.T) {
 	r := newTree(t)
 	for i := 0; i < 3; i++ {
-		r.write(calcName(i), genCalc(i, ""))
+		r.Write(calcName(i), genCalc(i, ""))
 	}
 	out := t.TempDir()
-	registerTree(t, r.dir, out, nil)
-	os.Remove(r.path(calcName(1)))
-	sum := registerTree(t, r.dir, out, nil)
+	registerTree(t, r.Dir, out, nil)
+	os.Remove(r.Path(calcName(1)))
+	sum := registerTree(t, r.Dir, out, nil)
 	if len(sum.Entries) != 2 {
 		t.Errorf("%d entries after removing a calc", len(sum.Entries))
 	}

@@ -7,6 +7,7 @@ import (
 	"sync"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
@@ -22,12 +23,12 @@ type CalcError struct {
 type lazyWorkspace struct {
 	dir   string
 	once  sync.Once
-	space *calcdoc.Workspace
+	space *audit.Workspace
 	err   error
 }
 
-func (l *lazyWorkspace) get() (*calcdoc.Workspace, error) {
-	l.once.Do(func() { l.space, l.err = calcdoc.OpenWorkspace(l.dir) })
+func (l *lazyWorkspace) get() (*audit.Workspace, error) {
+	l.once.Do(func() { l.space, l.err = audit.OpenWorkspace(l.dir) })
 	return l.space, l.err
 }
 
@@ -35,7 +36,7 @@ func (l *lazyWorkspace) get() (*calcdoc.Workspace, error) {
 // repository.
 type worker struct {
 	run   *run
-	space *calcdoc.Workspace
+	space *audit.Workspace
 }
 
 // do brings one calc's entry up to date: from the cache when the engine,
@@ -142,11 +143,15 @@ func (w *worker) renderDoc(d *calcdoc.Doc) ([]byte, error) {
 			return nil, err
 		}
 	}
-	rec, err := d.RecordIn(w.space, w.run.opt.Engine)
+	st, err := w.space.Stamp(d, w.run.opt.Engine)
 	if err != nil {
 		return nil, err
 	}
-	return d.Render(calcdoc.RenderOptions{Engine: w.run.opt.Engine, Record: rec})
+	pkg, err := d.Render(calcdoc.RenderOptions{Engine: w.run.opt.Engine, Stamp: st})
+	if err != nil {
+		return nil, err
+	}
+	return pkg.HTML, nil
 }
 
 // clone copies an entry, so that a run never changes the cached one.

@@ -6,9 +6,12 @@ import (
 	"encoding/hex"
 	"io/fs"
 	"os"
+	"path"
 	"path/filepath"
 	"sort"
 	"strings"
+
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // calcSuffix names a calc file.
@@ -80,7 +83,7 @@ func DefaultOut(dir string) (string, error) {
 }
 
 // packagePath is where the register writes a calc's package, relative to
-// the output folder: the calc's path with .html for .calc.md.
+// the output folder: the calc's folder and calcdoc.PackageName.
 func packagePath(calc string) string {
-	return strings.TrimSuffix(calc, calcSuffix) + ".html"
+	return path.Join(path.Dir(calc), calcdoc.PackageName(calc))
 }

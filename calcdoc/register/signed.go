@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 )
 
 // Signed is the state of the signed package kept beside a calc
@@ -54,7 +55,7 @@ func (w *worker) signedStatus(e *Entry, path string, src []byte, old *Entry) {
 // and the engine.
 func (w *worker) signedKey(html []byte, pkg string) string {
 	h := sha256.New()
-	manifest, _ := os.ReadFile(calcdoc.ManifestPath(pkg))
+	manifest, _ := os.ReadFile(audit.ManifestPath(pkg))
 	var signers []byte
 	if w.run.opt.Signers != "" {
 		signers, _ = os.ReadFile(w.run.opt.Signers)
@@ -69,7 +70,7 @@ func (w *worker) signedKey(html []byte, pkg string) string {
 // verify runs vouch verify on the package.
 func (w *worker) verify(pkg, key string) *Signed {
 	s := &Signed{Package: filepath.Base(pkg), Key: key, Status: "DRAFT"}
-	rep, err := calcdoc.Verify(pkg, calcdoc.VerifyOptions{Engine: w.run.opt.Engine, Signers: w.run.opt.Signers})
+	rep, err := audit.Verify(pkg, audit.VerifyOptions{Engine: w.run.opt.Engine, Signers: w.run.opt.Signers})
 	if err != nil {
 		s.Problem = err.Error()
 		return s

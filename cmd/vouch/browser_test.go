@@ -32,6 +32,9 @@ func needBrowser(t *testing.T) string {
 // the equations are laid out as MathML, no request leaves the page, and the
 // package prints to a PDF with a sensible page count.
 func TestPackageInBrowser(t *testing.T) {
+	if testing.Short() {
+		t.Skip("the slow browser test: it runs without -short, as CI does")
+	}
 	browser := needBrowser(t)
 	fractions := 0
 	for _, f := range examples(t) {
@@ -125,9 +128,6 @@ func printPages(t *testing.T, browser, htmlPath string) int {
 // TestDeterministicAcrossEnvironments renders the same calc with other time
 // zones, locales and core counts and compares the bytes.
 func TestDeterministicAcrossEnvironments(t *testing.T) {
-	if testing.Short() {
-		t.Skip("builds the command")
-	}
 	bin := filepath.Join(t.TempDir(), "vouch")
 	if out, err := exec.Command("go", "build", "-o", bin, ".").CombinedOutput(); err != nil {
 		t.Fatalf("build: %v\n%s", err, out)

@@ -5,6 +5,7 @@ import (
 	"io"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/diff"
 )
 
 // cmdDiff compares a calc at two revisions from git and prints what
@@ -25,7 +26,7 @@ func cmdDiff(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "usage: vouch diff FILE [--from REV] [--to REV] [--all] [-o REPORT.html]")
 		return exitUsage
 	}
-	df, err := calcdoc.DiffRevisions(files[0], calcdoc.DiffOptions{From: *from, To: *to})
+	df, err := diff.Revisions(files[0], diff.Options{From: *from, To: *to})
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return errorCode(err)
@@ -40,7 +41,7 @@ func cmdDiff(args []string, stdout, stderr io.Writer) int {
 }
 
 // writeDiffReport writes the HTML report atomically.
-func writeDiffReport(df *calcdoc.Diff, dest string, all bool, stdout, stderr io.Writer) int {
+func writeDiffReport(df *diff.Diff, dest string, all bool, stdout, stderr io.Writer) int {
 	html, err := df.HTML(all)
 	if err == nil {
 		err = calcdoc.WriteFileAtomic(dest, html)
@@ -54,7 +55,7 @@ func writeDiffReport(df *calcdoc.Diff, dest string, all bool, stdout, stderr io.
 }
 
 // diffCode prints the errors of either revision and returns the exit code.
-func diffCode(df *calcdoc.Diff, stderr io.Writer) int {
+func diffCode(df *diff.Diff, stderr io.Writer) int {
 	if df.HasErrors() {
 		fmt.Fprint(stderr, df.ErrorText())
 		return exitErrors

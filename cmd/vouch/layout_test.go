@@ -17,15 +17,18 @@ import (
 // internal/engine, the build's identity, imports nothing of ours). Standard-library imports are free,
 // except for the numerics packages, which may import only math.
 var allowed = map[string][]string{
-	"cmd/vouch":          {"calcdoc", "calcdoc/provenance", "calcdoc/register", "calcdoc/preview", "calcdoc/settings", "calcdoc/starter", "eval", "units", "props", "qualify", "internal/engine"},
+	"cmd/vouch":          {"calcdoc", "calcdoc/audit", "calcdoc/diff", "calcdoc/provenance", "calcdoc/register", "calcdoc/preview", "calcdoc/settings", "calcdoc/starter", "eval", "units", "props", "qualify", "internal/engine"},
+	"calcdoc/audit":      {"calcdoc", "calcdoc/provenance"},
+	"calcdoc/diff":       {"calcdoc", "calcdoc/provenance", "eval", "units", "templates"},
+	"internal/testkit":   {},
 	"calcdoc":            {"calcdoc/provenance", "eval", "props", "units", "templates", "svgplot", "github.com/yuin/goldmark", "go.yaml.in/yaml/v3"},
 	"qualify":            {"calcdoc", "props/if97", "props/helmholtz", "units", "internal/engine", "go.yaml.in/yaml/v3"},
 	"internal/engine":    {},
 	"calcdoc/provenance": {"github.com/go-git/go-git/v5", "golang.org/x/crypto"},
 	"calcdoc/settings":   {"go.yaml.in/yaml/v3"},
 	"calcdoc/starter":    {"calcdoc/settings", "templates", "go.yaml.in/yaml/v3"},
-	"calcdoc/register":   {"calcdoc", "calcdoc/provenance"},
-	"calcdoc/preview":    {"calcdoc"},
+	"calcdoc/register":   {"calcdoc", "calcdoc/audit", "calcdoc/provenance", "templates"},
+	"calcdoc/preview":    {"calcdoc", "calcdoc/audit"},
 	"eval":               {"props", "units", "github.com/expr-lang/expr"},
 	"props":              {"props/if97", "props/helmholtz", "units"},
 	"props/if97":         {},
@@ -103,4 +106,29 @@ func permitted(pkg, im string, ok []string) bool {
 		}
 	}
 	return false
+}
+
+// TestCalcdocRunsNoGit holds calcdoc to reading, evaluating and rendering:
+// it takes from calcdoc/provenance only the manifest's types and the blob
+// hash, never a repository, and runs no program. Git and signatures are
+// calcdoc/audit's and calcdoc/diff's.
+func TestCalcdocRunsNoGit(t *testing.T) {
+	files, err := filepath.Glob(filepath.Join("..", "..", "calcdoc", "*.go"))
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no calcdoc files: %v", err)
+	}
+	for _, f := range files {
+		if strings.HasSuffix(f, "_test.go") {
+			continue
+		}
+		src, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, bad := range []string{"provenance.Open", "provenance.Repo", `"os/exec"`, "VerifySignature"} {
+			if strings.Contains(string(src), bad) {
+				t.Errorf("%s uses %s; git and signature checks belong in calcdoc/audit", filepath.Base(f), bad)
+			}
+		}
+	}
 }

@@ -4,9 +4,9 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
-	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 )
 
 func cmdRender(args []string, stdout, stderr io.Writer) int {
@@ -42,13 +42,18 @@ func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "vouch: %s has errors; no package written\n", path)
 		return exitErrors
 	}
-	html, err := d.Render(calcdoc.RenderOptions{Engine: Version})
+	st, err := audit.Provenance(d, Version)
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %s: %v\n", path, err)
+		return exitErrors
+	}
+	pkg, err := d.Render(calcdoc.RenderOptions{Engine: Version, Stamp: st})
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %s: %v\n", path, err)
 		return exitErrors
 	}
 	dest := packagePath(path, outDir)
-	if err := writePackage(dest, html); err != nil {
+	if err := writePackage(dest, pkg); err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors
 	}
@@ -69,7 +74,7 @@ func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
 
 // packagePath is NAME.html for NAME.calc.md, in outDir or beside the calc.
 func packagePath(path, outDir string) string {
-	base := strings.TrimSuffix(strings.TrimSuffix(filepath.Base(path), ".md"), ".calc") + ".html"
+	base := calcdoc.PackageName(path)
 	if outDir == "" {
 		return filepath.Join(filepath.Dir(path), base)
 	}

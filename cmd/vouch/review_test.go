@@ -3,9 +3,9 @@ package main
 import (
 	"bytes"
 	"context"
+	"github.com/vouchcalc/vouch/internal/testkit"
 	"net"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -16,25 +16,15 @@ import (
 // committed and tagged v1, with fictional identities and dates.
 func reviewRepo(t *testing.T) string {
 	t.Helper()
-	needTools(t, "git")
-	dir := t.TempDir()
 	src, err := os.ReadFile(filepath.Join("..", "..", "examples", "rankine-simple.calc.md"))
 	if err != nil {
 		t.Fatal(err)
 	}
-	os.WriteFile(filepath.Join(dir, "hb.calc.md"), src, 0o644)
-	for _, args := range [][]string{{"init", "-q", "-b", "main"}, {"add", "-A"}, {"commit", "-q", "-m", "Unit 1 heat balance"}, {"tag", "v1"}} {
-		cmd := exec.Command("git", args...)
-		cmd.Dir = dir
-		cmd.Env = append(os.Environ(), "GIT_CONFIG_GLOBAL=/dev/null", "GIT_CONFIG_NOSYSTEM=1",
-			"GIT_AUTHOR_NAME=P. Writer (fictional)", "GIT_AUTHOR_EMAIL=preparer@example.com",
-			"GIT_COMMITTER_NAME=P. Writer (fictional)", "GIT_COMMITTER_EMAIL=preparer@example.com",
-			"GIT_AUTHOR_DATE=2031-03-02T10:00:00Z", "GIT_COMMITTER_DATE=2031-03-02T10:00:00Z")
-		if out, err := cmd.CombinedOutput(); err != nil {
-			t.Fatalf("git %v: %v\n%s", args, err, out)
-		}
-	}
-	return dir
+	r := testkit.NewRepo(t)
+	r.Write("hb.calc.md", string(src))
+	r.Commit("Unit 1 heat balance")
+	r.Git("tag", "v1")
+	return r.Dir
 }
 
 func replaceIn(t *testing.T, file, old, new string) {

@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 )
 
 func cmdSign(args []string, stdout, stderr io.Writer) int {
@@ -25,8 +26,8 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "usage: vouch sign PACKAGE.html --role preparer|checker|approver [--key KEYFILE] [--signers FILE] [--repo DIR]")
 		return exitUsage
 	}
-	opt := calcdoc.SignOptions{Role: *role, Key: *key,
-		VerifyOptions: calcdoc.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers}}
+	opt := audit.SignOptions{Role: *role, Key: *key,
+		VerifyOptions: audit.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers}}
 	if *sigFile != "" {
 		if opt.Signature, err = os.ReadFile(*sigFile); err != nil {
 			fmt.Fprintf(stderr, "vouch: %v\n", err)
@@ -38,10 +39,10 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 
 // signOne signs a package and writes it back with its manifest file; a
 // package that does not verify is left untouched.
-func signOne(path string, opt calcdoc.SignOptions, stdout, stderr io.Writer) int {
-	signed, rep, err := calcdoc.Sign(path, opt)
+func signOne(path string, opt audit.SignOptions, stdout, stderr io.Writer) int {
+	signed, rep, err := audit.Sign(path, opt)
 	if err != nil {
-		if rep != nil && errors.Is(err, calcdoc.ErrNotVerified) {
+		if rep != nil && errors.Is(err, audit.ErrNotVerified) {
 			fmt.Fprint(stderr, rep.String())
 		}
 		fmt.Fprintf(stderr, "vouch: %s: %v\n", path, err)
@@ -63,31 +64,27 @@ func errorCode(err error) int {
 	switch {
 	case errors.As(err, &usage):
 		return exitUsage
-	case errors.Is(err, calcdoc.ErrNotVerified):
+	case errors.Is(err, audit.ErrNotVerified):
 		return exitFailed
 	}
 	return exitErrors
 }
 
-// writePackage writes a rendered package and, beside it, the manifest
-// file taken from the package itself.
-func writePackage(dest string, html []byte) error {
-	m, err := calcdoc.ManifestOf(html)
+// writePackage writes a rendered package and, beside it, its manifest
+// file, from the manifest Render returned with the HTML.
+func writePackage(dest string, pkg *calcdoc.Package) error {
+	file, err := audit.ManifestFile(pkg.Manifest)
 	if err != nil {
 		return err
 	}
-	file, err := calcdoc.ManifestFile(m)
-	if err != nil {
-		return err
-	}
-	return writePackageFiles(dest, html, file)
+	return writePackageFiles(dest, pkg.HTML, file)
 }
 
 // writePackageFiles writes the package and its manifest file, each through
 // a temporary file renamed into place: the manifest first, so that a
 // package on disk never has an older manifest beside it.
 func writePackageFiles(dest string, html, manifest []byte) error {
-	if err := calcdoc.WriteFileAtomic(calcdoc.ManifestPath(dest), manifest); err != nil {
+	if err := calcdoc.WriteFileAtomic(audit.ManifestPath(dest), manifest); err != nil {
 		return fmt.Errorf("manifest of %s: %w", filepath.Base(dest), err)
 	}
 	return calcdoc.WriteFileAtomic(dest, html)

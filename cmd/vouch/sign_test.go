@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"github.com/vouchcalc/vouch/internal/testkit"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -28,25 +29,15 @@ func needTools(t *testing.T, names ...string) {
 func signRepo(t *testing.T) string {
 	t.Helper()
 	needTools(t, "git", "ssh-keygen")
-	dir := t.TempDir()
 	src, err := os.ReadFile(filepath.Join("..", "..", "examples", "rankine-simple.calc.md"))
 	if err != nil {
 		t.Fatal(err)
 	}
-	os.WriteFile(filepath.Join(dir, "hb.calc.md"), src, 0o644)
-	os.WriteFile(filepath.Join(dir, ".gitignore"), []byte("*.html\n*.manifest.json\n"), 0o644)
-	for _, args := range [][]string{{"init", "-q", "-b", "main"}, {"add", "-A"}, {"commit", "-q", "-m", "Unit 1 heat balance"}} {
-		cmd := exec.Command("git", args...)
-		cmd.Dir = dir
-		cmd.Env = append(os.Environ(), "GIT_CONFIG_GLOBAL=/dev/null", "GIT_CONFIG_NOSYSTEM=1",
-			"GIT_AUTHOR_NAME=P. Writer (fictional)", "GIT_AUTHOR_EMAIL=preparer@example.com",
-			"GIT_COMMITTER_NAME=P. Writer (fictional)", "GIT_COMMITTER_EMAIL=preparer@example.com",
-			"GIT_AUTHOR_DATE=2026-03-02T10:00:00Z", "GIT_COMMITTER_DATE=2026-03-02T10:00:00Z")
-		if out, err := cmd.CombinedOutput(); err != nil {
-			t.Fatalf("git %v: %v\n%s", args, err, out)
-		}
-	}
-	return dir
+	r := testkit.NewRepo(t)
+	r.Write("hb.calc.md", string(src))
+	r.Write(".gitignore", "*.html\n*.manifest.json\n")
+	r.Commit("Unit 1 heat balance")
+	return r.Dir
 }
 
 // sshKey makes an Ed25519 key and returns its path and public key text.

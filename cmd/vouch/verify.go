@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"io"
 
-	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 )
 
 func cmdVerify(args []string, stdout, stderr io.Writer) int {
@@ -19,7 +19,7 @@ func cmdVerify(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "usage: vouch verify PACKAGE.html [--signers FILE] [--repo DIR]")
 		return exitUsage
 	}
-	rep, err := calcdoc.Verify(files[0], calcdoc.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers})
+	rep, err := audit.Verify(files[0], audit.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers})
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return errorCode(err)

@@ -1,4 +1,4 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
@@ -9,10 +9,11 @@ import (
 	"testing"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/internal/testkit"
 )
 
 func TestRecordOutsideRepository(t *testing.T) {
-	dir := tempDir(t)
+	dir := testkit.TempDir(t)
 	calc := filepath.Join(dir, "fp.calc.md")
 	if err := os.WriteFile(calc, []byte(signCalc), 0o644); err != nil {
 		t.Fatal(err)
@@ -43,14 +44,14 @@ func TestRecordOutsideRepository(t *testing.T) {
 
 func TestRecordInRepository(t *testing.T) {
 	r := calcRepo(t)
-	head := r.git("rev-parse", "HEAD")
-	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
-	html := r.read("calcs/fp.html")
+	head := r.Git("rev-parse", "HEAD")
+	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
+	html := r.Read("calcs/fp.html")
 	m, err := ManifestOf(html)
 	if err != nil {
 		t.Fatal(err)
 	}
-	blob := r.git("rev-parse", "HEAD:calcs/fp.calc.md")
+	blob := r.Git("rev-parse", "HEAD:calcs/fp.calc.md")
 	if m.Source != "calcs/fp.calc.md" || m.Commit != head || !m.Clean || m.SourceHash != blob {
 		t.Errorf("manifest = source %q commit %s clean %v hash %s; want calcs/fp.calc.md %s true %s", m.Source, m.Commit, m.Clean, m.SourceHash, head, blob)
 	}
@@ -69,14 +70,14 @@ func TestRecordInRepository(t *testing.T) {
 			t.Errorf("package lacks %q", want)
 		}
 	}
-	file, err := provenance.ParseManifest(r.read("calcs/fp.manifest.json"))
+	file, err := provenance.ParseManifest(r.Read("calcs/fp.manifest.json"))
 	if err != nil {
 		t.Fatal(err)
 	}
 	if a, b := canonical(t, file), canonical(t, m); !bytes.Equal(a, b) {
 		t.Error("the manifest file differs from the embedded manifest")
 	}
-	if again := renderFile(t, r.path("calcs/fp.calc.md")); !bytes.Equal(html, r.read("calcs/fp.html")) || again != pkg {
+	if again := renderFile(t, r.Path("calcs/fp.calc.md")); !bytes.Equal(html, r.Read("calcs/fp.html")) || again != pkg {
 		t.Error("two renders at the same commit differ")
 	}
 }
@@ -99,15 +100,15 @@ func TestRecordDirty(t *testing.T) {
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			r := calcRepo(t)
-			r.write("README.md", "Test plant calcs (fictional).\n")
-			r.commit("readme")
+			r.Write("README.md", "Test plant calcs (fictional).\n")
+			r.Commit("readme")
 			content := signCalc + "\nA note.\n"
 			if c.file == "README.md" {
 				content = "changed\n"
 			}
-			r.write(c.file, content)
-			pkg := renderFile(t, r.path("calcs/fp.calc.md"))
-			html := r.read("calcs/fp.html")
+			r.Write(c.file, content)
+			pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
+			html := r.Read("calcs/fp.html")
 			m, _ := ManifestOf(html)
 			if m.Clean {
 				t.Error("manifest says clean")
@@ -133,21 +134,21 @@ func TestRecordDirty(t *testing.T) {
 // the commit, so a later edit in the work tree changes nothing.
 func TestRecordDataFiles(t *testing.T) {
 	r := newGitRepo(t)
-	r.write("calcs/data/cw.csv", "# cooling-water curve (fictional)\nT_cw [degC],p [kPa]\n10,4.5\n20,6.5\n30,9.8\n")
-	r.write("calcs/cw.calc.md", "---\ntitle: condenser pressure (fictional)\n---\n```calc\ncw = csv(\"data/cw.csv\")\np_c [kPa] = interp(cw, \"T_cw\", 25 degC, \"p\")\n```\n")
-	r.commit("condenser curve")
-	pkg := renderFile(t, r.path("calcs/cw.calc.md"))
-	m, _ := ManifestOf(r.read("calcs/cw.html"))
-	blob := r.git("rev-parse", "HEAD:calcs/data/cw.csv")
+	r.Write("calcs/data/cw.csv", "# cooling-water curve (fictional)\nT_cw [degC],p [kPa]\n10,4.5\n20,6.5\n30,9.8\n")
+	r.Write("calcs/cw.calc.md", "---\ntitle: condenser pressure (fictional)\n---\n```calc\ncw = csv(\"data/cw.csv\")\np_c [kPa] = interp(cw, \"T_cw\", 25 degC, \"p\")\n```\n")
+	r.Commit("condenser curve")
+	pkg := renderFile(t, r.Path("calcs/cw.calc.md"))
+	m, _ := ManifestOf(r.Read("calcs/cw.html"))
+	blob := r.Git("rev-parse", "HEAD:calcs/data/cw.csv")
 	if len(m.Data) != 1 || m.Data[0].Path != "calcs/data/cw.csv" || m.Data[0].Hash != blob || !m.Clean {
 		t.Fatalf("data = %+v, clean %v; want calcs/data/cw.csv %s", m.Data, m.Clean, blob)
 	}
-	r.write("calcs/data/cw.csv", "T_cw [degC],p [kPa]\n10,5\n30,10\n")
+	r.Write("calcs/data/cw.csv", "T_cw [degC],p [kPa]\n10,5\n30,10\n")
 	if rep := verifyPkg(t, pkg, ""); !rep.OK() {
 		t.Fatalf("verify after a work-tree edit of the data:\n%s", rep)
 	}
-	renderFile(t, r.path("calcs/cw.calc.md"))
-	if m, _ := ManifestOf(r.read("calcs/cw.html")); m.Clean {
+	renderFile(t, r.Path("calcs/cw.calc.md"))
+	if m, _ := ManifestOf(r.Read("calcs/cw.html")); m.Clean {
 		t.Error("a modified data file left the manifest clean")
 	}
 }

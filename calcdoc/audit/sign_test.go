@@ -1,8 +1,10 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"errors"
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/internal/testkit"
 	stdhtml "html"
 	"net"
 	"os"
@@ -21,10 +23,10 @@ func TestSignAndVerify(t *testing.T) {
 	for _, typ := range []string{"ed25519", "rsa"} {
 		t.Run(typ, func(t *testing.T) {
 			r := calcRepo(t)
-			pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+			pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 			prep, chk, appr := newKey(t, typ), newKey(t, typ), newKey(t, typ)
 			signers := allowedSigners(t, preparerEmail, prep, checkerEmail, chk, approverEmail, appr)
-			date := r.git("log", "-1", "--format=%cd", "--date=iso-strict-local", "HEAD")
+			date := r.Git("log", "-1", "--format=%cd", "--date=iso-strict-local", "HEAD")
 			for i, step := range []struct {
 				role string
 				k    key
@@ -37,12 +39,12 @@ func TestSignAndVerify(t *testing.T) {
 				if !rep.OK() || rep.Status != stamps[i] {
 					t.Fatalf("verify after %s: status %s\n%s", step.role, rep.Status, rep)
 				}
-				m, _ := ManifestOf(r.read("calcs/fp.html"))
+				m, _ := ManifestOf(r.Read("calcs/fp.html"))
 				if len(m.Signatures) != i+1 {
 					t.Errorf("after %s: %d signatures", step.role, len(m.Signatures))
 				}
 			}
-			html := stdhtml.UnescapeString(string(r.read("calcs/fp.html")))
+			html := stdhtml.UnescapeString(string(r.Read("calcs/fp.html")))
 			for _, want := range []string{`<div class="stamp">APPROVED</div>`, "C. Reader", day(date), fingerprint(t, chk)} {
 				if !strings.Contains(html, want) {
 					t.Errorf("cover lacks %q", want)
@@ -66,12 +68,12 @@ func fingerprint(t *testing.T, k key) string {
 // keeps the others.
 func TestSignReplacesRole(t *testing.T) {
 	r := calcRepo(t)
-	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 	prep, chk, chk2 := newKey(t, "ed25519"), newKey(t, "ed25519"), newKey(t, "ed25519")
 	signPkg(t, pkg, "preparer", prep, "")
 	signPkg(t, pkg, "checker", chk, "")
 	signPkg(t, pkg, "checker", chk2, "")
-	m, _ := ManifestOf(r.read("calcs/fp.html"))
+	m, _ := ManifestOf(r.Read("calcs/fp.html"))
 	if len(m.Signatures) != 2 || m.Signatures[0].Role != "preparer" || m.Signatures[1].Role != "checker" {
 		t.Fatalf("signatures = %+v", m.Signatures)
 	}
@@ -88,14 +90,14 @@ func TestSignReplacesRole(t *testing.T) {
 // both.
 func TestSignOrder(t *testing.T) {
 	r := calcRepo(t)
-	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 	k := newKey(t, "ed25519")
 	_, _, err := Sign(pkg, SignOptions{Role: "checker", Key: k.path, VerifyOptions: VerifyOptions{Engine: "test"}})
 	if !errors.Is(err, ErrNotVerified) || !strings.Contains(err.Error(), "the checker signs after the preparer") {
 		t.Fatalf("checker before preparer: %v", err)
 	}
 	_, _, err = Sign(pkg, SignOptions{Role: "reviewer", Key: k.path, VerifyOptions: VerifyOptions{Engine: "test"}})
-	var usage *UsageError
+	var usage *calcdoc.UsageError
 	if !errors.As(err, &usage) {
 		t.Fatalf("unknown role: %v, want a usage error", err)
 	}
@@ -108,12 +110,12 @@ func TestSignatureInteroperability(t *testing.T) {
 	for _, typ := range []string{"ed25519", "rsa"} {
 		t.Run(typ, func(t *testing.T) {
 			r := calcRepo(t)
-			pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+			pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 			prep, chk := newKey(t, typ), newKey(t, typ)
 			signers := allowedSigners(t, preparerEmail, prep, checkerEmail, chk)
 			signPkg(t, pkg, "preparer", prep, signers)
 
-			m, _ := ManifestOf(r.read("calcs/fp.html"))
+			m, _ := ManifestOf(r.Read("calcs/fp.html"))
 			payload, err := m.Payload("preparer")
 			if err != nil {
 				t.Fatal(err)
@@ -177,7 +179,7 @@ func TestSignWithAgent(t *testing.T) {
 	needTool(t, "ssh-agent")
 	needTool(t, "ssh-add")
 	r := calcRepo(t)
-	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 	prep, other := newKey(t, "ed25519"), newKey(t, "ed25519")
 	sock := startAgent(t)
 	for _, k := range []key{prep, other} {
@@ -241,7 +243,7 @@ func startAgent(t *testing.T) string {
 // verify, and the report says which engine to verify it with.
 func TestVerifyOtherEngine(t *testing.T) {
 	r := calcRepo(t)
-	pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 	rep, err := Verify(pkg, VerifyOptions{Engine: "test-2"})
 	if err != nil {
 		t.Fatal(err)
@@ -251,5 +253,33 @@ func TestVerifyOtherEngine(t *testing.T) {
 	}
 	if s := rep.String(); !strings.Contains(s, "the package was made by vouch test and this is vouch test-2") {
 		t.Errorf("the report does not name the engines:\n%s", s)
+	}
+}
+
+// TestVerifyWithImage: a package with an embedded image reproduces from
+// the recorded commit, and a later change of the image is reported as a
+// later change, not as tampering.
+func TestVerifyWithImage(t *testing.T) {
+	r := calcRepo(t)
+	r.Write("calcs/fig.png", string(testkit.TinyPNG))
+	src := string(r.Read("calcs/fp.calc.md"))
+	r.Write("calcs/fp.calc.md", strings.Replace(src, "\n```calc", "\n![Feed pump](fig.png)\n\n```calc", 1))
+	r.Commit("Feed pump sketch")
+	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
+	rep, err := Verify(pkg, VerifyOptions{Engine: "test"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !rep.OK() {
+		t.Fatalf("a package with an image does not verify:\n%s", rep)
+	}
+	r.Write("calcs/fig.png", string(append(append([]byte(nil), testkit.TinyPNG...), 0)))
+	r.Commit("Sketch redrawn")
+	rep, err = Verify(pkg, VerifyOptions{Engine: "test"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !rep.OK() || !strings.Contains(rep.String(), "has moved on") {
+		t.Errorf("after a later change of the image:\n%s", rep)
 	}
 }

@@ -1,8 +1,9 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -12,10 +13,11 @@ import (
 // Verdict grades one finding of a verification.
 type Verdict int
 
-// The verdicts. Only Fail makes a verification fail.
+// The verdicts. Only Fails makes a verification fail. (Holds and Fails,
+// not Pass and Fail: a calc check's PASS is eval.Outcome.Pass.)
 const (
-	Pass     Verdict = iota // the check holds
-	Fail                    // the check does not hold
+	Holds    Verdict = iota // the check holds
+	Fails                   // the check does not hold
 	Note                    // information, such as a role not yet signed
 	Unsigned                // a role without a signature
 )
@@ -52,7 +54,7 @@ func (r *Report) OK() bool { return len(r.Failures()) == 0 }
 func (r *Report) Failures() []Finding {
 	var out []Finding
 	for _, f := range r.Findings {
-		if f.Verdict == Fail {
+		if f.Verdict == Fails {
 			out = append(out, f)
 		}
 	}
@@ -120,7 +122,7 @@ func (r *Report) result() string {
 	}
 	var topics []string
 	for _, f := range fails {
-		if !contains(topics, f.Topic) {
+		if !slices.Contains(topics, f.Topic) {
 			topics = append(topics, f.Topic)
 		}
 	}

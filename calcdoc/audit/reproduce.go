@@ -1,11 +1,11 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"errors"
 	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
 	"html"
-	"path/filepath"
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
@@ -58,9 +58,9 @@ type reproduction struct {
 	repo     *provenance.Repo
 	commit   string
 	src      []byte
-	doc      *Doc
-	record   *Record // the rebuilt record, with the package's clean flag and signatures
-	rendered bool    // doc's Markdown tree has been rendered
+	doc      *calcdoc.Doc
+	record   *calcdoc.Stamp // the rebuilt record, with the package's clean flag and signatures
+	rendered bool           // doc's Markdown tree has been rendered
 }
 
 // reproduce reads the manifest's source at its commit, evaluates it and
@@ -71,41 +71,60 @@ func reproduce(repo *provenance.Repo, m *provenance.Manifest, engine string) (*r
 	if err != nil {
 		return nil, err
 	}
-	path := filepath.Join(repo.Root(), filepath.FromSlash(m.Source))
-	d := evaluateAt(repo, m.Commit, path, src)
+	d := evaluateAt(repo, m.Commit, m.Source, src)
 	if len(d.Errors) > 0 {
 		return nil, fmt.Errorf("%s at commit %s has errors:\n%s", m.Source, shortHash(m.Commit), d.Errors.Format(m.Source, src))
 	}
-	rm, err := d.baseManifest(engine)
+	rm, err := d.Manifest(engine)
 	if err != nil {
 		return nil, err
 	}
 	rm.Source, rm.SourceHash, rm.Commit, rm.Clean = m.Source, provenance.BlobHash(src), m.Commit, m.Clean
 	rm.Signatures = append([]provenance.Signature{}, m.Signatures...)
-	rec := &Record{Manifest: rm, Committed: true}
-	if err := rec.addHistory(repo); err != nil {
+	rec := &calcdoc.Stamp{Manifest: rm, Committed: true}
+	if err := addHistory(repo, rec); err != nil {
 		return nil, err
 	}
+	check(d, rec)
 	return &reproduction{repo: repo, commit: m.Commit, src: src, doc: d, record: rec}, nil
 }
 
-// evaluateAt reads and evaluates a calc from its bytes at a commit: path
-// is where the calc lies in the work tree, and data files are read from
-// the commit, not from the work tree.
-func evaluateAt(repo *provenance.Repo, commit, path string, src []byte) *Doc {
-	d := Read(path, src)
-	d.ReadData = func(rel string) ([]byte, error) { return repo.ReadAt(commit, rel) }
-	d.Evaluate()
-	return d
+// evaluateAt reads and evaluates a calc from its bytes at a commit: rel is
+// its path in the repository, and data files are read from the commit,
+// not from the work tree.
+func evaluateAt(repo *provenance.Repo, commit, rel string, src []byte) *calcdoc.Doc {
+	return calcdoc.ReadIn(repo.CommitFS(commit), repo.Root(), rel, src)
 }
 
-// render renders the reproduction with a record. Rendering changes a
-// Doc's Markdown tree, so each later call evaluates the source afresh.
-func (r *reproduction) render(engine string, rec *Record) ([]byte, error) {
+// render renders the reproduction with a stamp, whose verdicts it sets
+// first. Rendering changes a Doc's Markdown tree, so each later call
+// evaluates the source afresh.
+func (r *reproduction) render(engine string, rec *calcdoc.Stamp) ([]byte, error) {
 	d := r.doc
 	if r.rendered {
-		d = evaluateAt(r.repo, r.commit, r.doc.Path, r.src)
+		d = evaluateAt(r.repo, r.commit, r.doc.Rel, r.src)
 	}
 	r.rendered = true
-	return d.Render(RenderOptions{Engine: engine, Record: rec})
+	check(d, rec)
+	pkg, err := d.Render(calcdoc.RenderOptions{Engine: engine, Stamp: rec})
+	if err != nil {
+		return nil, err
+	}
+	return pkg.HTML, nil
+}
+
+// shortHash abbreviates a commit hash to 12 hex digits, as reports show it.
+func shortHash(h string) string {
+	if len(h) > 12 {
+		return h[:12]
+	}
+	return h
+}
+
+// day is the date part of an RFC 3339 time.
+func day(t string) string {
+	if len(t) >= 10 {
+		return t[:10]
+	}
+	return t
 }

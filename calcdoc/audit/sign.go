@@ -1,11 +1,13 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"errors"
 	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 
@@ -49,8 +51,8 @@ type Signed struct {
 // other roles are kept. The package is rendered again from the source at
 // the commit, so its cover shows the signature.
 func Sign(pkgPath string, opt SignOptions) (*Signed, *Report, error) {
-	if !contains(Roles, opt.Role) {
-		return nil, nil, usageErr("role %q: the roles are %s", opt.Role, strings.Join(Roles, ", "))
+	if !slices.Contains(calcdoc.Roles, opt.Role) {
+		return nil, nil, usageErr("role %q: the roles are %s", opt.Role, strings.Join(calcdoc.Roles, ", "))
 	}
 	v, err := newVerifier(pkgPath, opt.VerifyOptions)
 	if err != nil {
@@ -80,8 +82,8 @@ func blocked(rep *Report, role string) bool {
 // checkOrder refuses a signature whose earlier roles are not validly
 // signed: the checker signs after the preparer, the approver after both.
 func (v *verifier) checkOrder(role string) error {
-	states := v.repro.doc.checkSignatures(v.repro.record)
-	for _, r := range Roles {
+	states := v.repro.record.Signatures
+	for _, r := range calcdoc.Roles {
 		if r == role {
 			return nil
 		}
@@ -92,7 +94,7 @@ func (v *verifier) checkOrder(role string) error {
 	return nil
 }
 
-func validRole(states []sigState, role string) bool {
+func validRole(states []calcdoc.SignatureState, role string) bool {
 	for _, st := range states {
 		if st.Sig.Role == role && st.Valid {
 			return true
@@ -104,7 +106,7 @@ func validRole(states []sigState, role string) bool {
 // sign makes the signature and renders the signed package.
 func (v *verifier) sign(opt SignOptions) (*Signed, error) {
 	d := v.repro.doc
-	p := d.person(opt.Role)
+	p := d.Person(opt.Role)
 	if p.Email == "" {
 		return nil, usageErr("%s names no %s under people: in the front matter; add one, commit, render and sign again", v.m.Source, opt.Role)
 	}
@@ -125,7 +127,7 @@ func (v *verifier) sign(opt SignOptions) (*Signed, error) {
 	if err != nil {
 		return nil, err
 	}
-	return &Signed{HTML: html, ManifestFile: file, Signature: s, Status: stamp(d.checkSignatures(&rec))}, nil
+	return &Signed{HTML: html, ManifestFile: file, Signature: s, Status: rec.Status}, nil
 }
 
 // withSignature replaces the signatures of s's role by s and orders the
@@ -142,12 +144,12 @@ func withSignature(sigs []provenance.Signature, s provenance.Signature) []proven
 }
 
 func roleIndex(role string) int {
-	for i, r := range Roles {
+	for i, r := range calcdoc.Roles {
 		if r == role {
 			return i
 		}
 	}
-	return len(Roles)
+	return len(calcdoc.Roles)
 }
 
 // signWith signs with the key file, or with the ssh-agent when there is
@@ -160,7 +162,7 @@ func (v *verifier) signWith(m *provenance.Manifest, s provenance.Signature, opt 
 	if key := opt.Key; key != "" {
 		signer, err := provenance.LoadSigner(key)
 		if err != nil {
-			return s, &UsageError{Err: err}
+			return s, &calcdoc.UsageError{Err: err}
 		}
 		if v.opt.Signers != "" && !v.allowed.Allows(s.Principal, signer.PublicKey()) {
 			return s, usageErr("%s does not list key %s (%s) for %s", v.opt.Signers, provenance.Fingerprint(signer.PublicKey()), key, s.Principal)
@@ -178,7 +180,7 @@ func (v *verifier) agentSign(m *provenance.Manifest, s provenance.Signature) (pr
 	}
 	signers, err := provenance.AgentSigners()
 	if err != nil {
-		return s, &UsageError{Err: err}
+		return s, &calcdoc.UsageError{Err: err}
 	}
 	var fps []string
 	pick := -1

@@ -1,9 +1,10 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"errors"
 	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -12,18 +13,8 @@ import (
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
-// UsageError is a verify or sign that cannot start: a file that cannot be
-// read, a bad allowed-signers file, a role or key that cannot be used.
-type UsageError struct{ Err error }
-
-// Error returns the underlying error's message.
-func (e *UsageError) Error() string { return e.Err.Error() }
-
-// Unwrap returns the underlying error.
-func (e *UsageError) Unwrap() error { return e.Err }
-
 func usageErr(format string, args ...any) error {
-	return &UsageError{Err: fmt.Errorf(format, args...)}
+	return &calcdoc.UsageError{Err: fmt.Errorf(format, args...)}
 }
 
 // VerifyOptions say where and how to verify a package.
@@ -45,7 +36,7 @@ type VerifyOptions struct {
 // role and, given an allowed-signers file, with that person's key. The
 // source is read from git at the manifest's commit, never from the work
 // tree. Problems with the package are findings in the report; the error
-// is for a verification that cannot start (a *UsageError).
+// is for a verification that cannot start (a *calcdoc.UsageError).
 func Verify(pkgPath string, opt VerifyOptions) (*Report, error) {
 	v, err := newVerifier(pkgPath, opt)
 	if err != nil {
@@ -103,15 +94,15 @@ func (v *verifier) run() {
 func (v *verifier) readManifest() bool {
 	m, err := ManifestOf(v.pkg)
 	if err != nil {
-		v.rep.add(Fail, "manifest", "%v", err)
+		v.rep.add(Fails, "manifest", "%v", err)
 		return false
 	}
 	v.m, v.rep.Manifest = m, m
 	if err := m.Validate(); err != nil {
-		v.rep.add(Fail, "manifest", "%v: a result in the package's manifest was changed", err)
+		v.rep.add(Fails, "manifest", "%v: a result in the package's manifest was changed", err)
 		return true
 	}
-	v.rep.add(Pass, "manifest", "results digest matches the manifest's %d results", len(m.Results))
+	v.rep.add(Holds, "manifest", "results digest matches the manifest's %d results", len(m.Results))
 	return true
 }
 
@@ -129,7 +120,7 @@ func (v *verifier) checkManifestFile() bool {
 		file, err = provenance.ParseManifest(data)
 	}
 	if err != nil {
-		v.rep.add(Fail, "manifest", "%s: %v", filepath.Base(path), err)
+		v.rep.add(Fails, "manifest", "%s: %v", filepath.Base(path), err)
 		return true
 	}
 	a, errA := v.m.Canonical()
@@ -139,10 +130,10 @@ func (v *verifier) checkManifestFile() bool {
 		if len(file.Signatures) != len(v.m.Signatures) {
 			diffs = append(diffs, fmt.Sprintf("%d signatures in the file, %d in the package", len(file.Signatures), len(v.m.Signatures)))
 		}
-		v.rep.add(Fail, "manifest", "%s differs from the manifest in the package: %s", filepath.Base(path), joinOr(diffs, "a signature differs"))
+		v.rep.add(Fails, "manifest", "%s differs from the manifest in the package: %s", filepath.Base(path), joinOr(diffs, "a signature differs"))
 		return true
 	}
-	v.rep.add(Pass, "manifest", "%s matches the manifest in the package", filepath.Base(path))
+	v.rep.add(Holds, "manifest", "%s matches the manifest in the package", filepath.Base(path))
 	return true
 }
 
@@ -156,7 +147,7 @@ func joinOr(list []string, none string) string {
 func (v *verifier) openRepo() bool {
 	m := v.m
 	if m.Commit == "" {
-		v.rep.add(Fail, "source", "the calc was not under version control when the package was rendered: it cannot be reproduced or signed")
+		v.rep.add(Fails, "source", "the calc was not under version control when the package was rendered: it cannot be reproduced or signed")
 		return false
 	}
 	dir := v.opt.Repo
@@ -165,11 +156,11 @@ func (v *verifier) openRepo() bool {
 	}
 	repo, err := provenance.Open(dir)
 	if err != nil {
-		v.rep.add(Fail, "source", "%v: run verify in a clone of the calc's repository, or give --repo DIR", err)
+		v.rep.add(Fails, "source", "%v: run verify in a clone of the calc's repository, or give --repo DIR", err)
 		return false
 	}
 	if _, err := repo.Resolve(m.Commit); err != nil {
-		v.rep.add(Fail, "source", "commit %s is not in the repository at %s: fetch it, or give --repo DIR", m.Commit, repo.Root())
+		v.rep.add(Fails, "source", "commit %s is not in the repository at %s: fetch it, or give --repo DIR", m.Commit, repo.Root())
 		return false
 	}
 	if date, err := repo.CommitDate(m.Commit); err == nil {
@@ -185,18 +176,18 @@ func (v *verifier) checkSource() bool {
 	m := v.m
 	b, err := v.repo.ReadAt(m.Commit, m.Source)
 	if err != nil {
-		v.rep.add(Fail, "source", "%v", err)
+		v.rep.add(Fails, "source", "%v", err)
 		return false
 	}
 	if got := provenance.BlobHash(b); got != m.SourceHash {
-		v.rep.add(Fail, "source", "the manifest records blob %s for %s, but commit %s holds blob %s: the package was rendered from uncommitted changes, or the repository's objects were altered",
+		v.rep.add(Fails, "source", "the manifest records blob %s for %s, but commit %s holds blob %s: the package was rendered from uncommitted changes, or the repository's objects were altered",
 			m.SourceHash, m.Source, shortHash(m.Commit), got)
 		return false
 	}
-	v.rep.add(Pass, "source", "%s at commit %s is blob %s, as recorded", m.Source, shortHash(m.Commit), m.SourceHash)
+	v.rep.add(Holds, "source", "%s at commit %s is blob %s, as recorded", m.Source, shortHash(m.Commit), m.SourceHash)
 	ok := v.checkData()
 	if !m.Clean {
-		v.rep.add(Fail, "source", "the work tree had uncommitted changes when the package was rendered (clean: false): commit them and render again")
+		v.rep.add(Fails, "source", "the work tree had uncommitted changes when the package was rendered (clean: false): commit them and render again")
 	}
 	return ok
 }
@@ -207,13 +198,13 @@ func (v *verifier) checkData() bool {
 		b, err := v.repo.ReadAt(v.m.Commit, f.Path)
 		switch {
 		case err != nil:
-			v.rep.add(Fail, "data", "%v", err)
+			v.rep.add(Fails, "data", "%v", err)
 			ok = false
 		case provenance.BlobHash(b) != f.Hash:
-			v.rep.add(Fail, "data", "the manifest records blob %s for %s, but commit %s holds blob %s", f.Hash, f.Path, shortHash(v.m.Commit), provenance.BlobHash(b))
+			v.rep.add(Fails, "data", "the manifest records blob %s for %s, but commit %s holds blob %s", f.Hash, f.Path, shortHash(v.m.Commit), provenance.BlobHash(b))
 			ok = false
 		default:
-			v.rep.add(Pass, "data", "%s at the commit is blob %s, as recorded", f.Path, f.Hash)
+			v.rep.add(Holds, "data", "%s at the commit is blob %s, as recorded", f.Path, f.Hash)
 		}
 	}
 	return ok
@@ -222,7 +213,7 @@ func (v *verifier) checkData() bool {
 func (v *verifier) reproduce() bool {
 	r, err := reproduce(v.repo, v.m, v.opt.Engine)
 	if err != nil {
-		v.rep.add(Fail, "results", "cannot evaluate the calc again: %v", err)
+		v.rep.add(Fails, "results", "cannot evaluate the calc again: %v", err)
 		return false
 	}
 	v.repro = r
@@ -238,14 +229,14 @@ func (v *verifier) compareResults() bool {
 	got := v.repro.record.Manifest
 	diffs := resultDiffs(v.m.Results, got.Results, "the package", "the reproduction", 5)
 	if len(diffs) > 0 {
-		v.rep.add(Fail, "results", "the results do not reproduce: %s", strings.Join(diffs, "; "))
+		v.rep.add(Fails, "results", "the results do not reproduce: %s", strings.Join(diffs, "; "))
 		return true
 	}
 	if got.ResultsDigest != v.m.ResultsDigest {
-		v.rep.add(Fail, "results", "results digest %s in the package, %s reproduced", v.m.ResultsDigest, got.ResultsDigest)
+		v.rep.add(Fails, "results", "results digest %s in the package, %s reproduced", v.m.ResultsDigest, got.ResultsDigest)
 		return true
 	}
-	v.rep.add(Pass, "results", "all %d results reproduce bit for bit from the commit; results digest %s", len(got.Results), got.ResultsDigest)
+	v.rep.add(Holds, "results", "all %d results reproduce bit for bit from the commit; results digest %s", len(got.Results), got.ResultsDigest)
 	return true
 }
 
@@ -253,29 +244,29 @@ func (v *verifier) compareManifest() bool {
 	want, err1 := v.m.Digest()
 	got, err2 := v.repro.record.Manifest.Digest()
 	if err := errors.Join(err1, err2); err != nil {
-		v.rep.add(Fail, "manifest", "%v", err)
+		v.rep.add(Fails, "manifest", "%v", err)
 		return true
 	}
 	if want != got {
 		diffs := manifestDiffs(v.m, v.repro.record.Manifest, "the package", "the reproduction")
-		v.rep.add(Fail, "manifest", "the manifest does not reproduce: %s", joinOr(diffs, "the results differ"))
+		v.rep.add(Fails, "manifest", "the manifest does not reproduce: %s", joinOr(diffs, "the results differ"))
 		return true
 	}
-	v.rep.add(Pass, "manifest", "the manifest reproduces; digest %s", got)
+	v.rep.add(Holds, "manifest", "the manifest reproduces; digest %s", got)
 	return true
 }
 
 func (v *verifier) comparePackage() bool {
 	html, err := v.repro.render(v.opt.Engine, v.repro.record)
 	if err != nil {
-		v.rep.add(Fail, "package", "cannot render the reproduction: %v", err)
+		v.rep.add(Fails, "package", "cannot render the reproduction: %v", err)
 		return true
 	}
 	if !bytes.Equal(html, v.pkg) {
 		line, got, want := firstDifference(v.pkg, html)
-		v.rep.add(Fail, "package", "the package differs from its reproduction at line %d:\n  package:      %s\n  reproduction: %s", line, got, want)
+		v.rep.add(Fails, "package", "the package differs from its reproduction at line %d:\n  package:      %s\n  reproduction: %s", line, got, want)
 		return true
 	}
-	v.rep.add(Pass, "package", "the package re-rendered from the commit is byte-identical (%d bytes)", len(html))
+	v.rep.add(Holds, "package", "the package re-rendered from the commit is byte-identical (%d bytes)", len(html))
 	return true
 }

@@ -1,8 +1,9 @@
-package calcdoc
+package diff
 
 import (
 	"bytes"
 	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
 	"html/template"
 	"io"
 	"sort"
@@ -40,7 +41,7 @@ func (df *Diff) view(all bool) *diffView {
 		FromRevision: df.From.Doc.Front.Revision, ToRevision: f.Revision,
 		FromPath: df.From.Path, ToPath: df.To.Path, Renamed: df.Renamed(),
 		All: all, Unchanged: df.Unchanged(), Front: df.Front, Files: df.Files, Prose: df.Prose,
-		Errors: df.ErrorText(), Caution: Caution,
+		Errors: df.ErrorText(), Caution: calcdoc.Caution,
 	}
 	for _, vc := range df.Values {
 		list, total := &v.Results, &v.ResultsTotal
@@ -225,7 +226,7 @@ func (v *diffView) proseText(b *strings.Builder) {
 	if len(v.Prose) == 0 {
 		return
 	}
-	fmt.Fprintf(b, "\nprose (%d %s)\n", len(v.Prose), plural(len(v.Prose), "change"))
+	fmt.Fprintf(b, "\nprose (%d %s)\n", len(v.Prose), changes(len(v.Prose)))
 	for _, h := range v.Prose {
 		fmt.Fprintf(b, "  @@ line %d -> line %d @@\n", h.OldStart(), h.NewStart())
 		for _, l := range h.Lines {
@@ -276,4 +277,12 @@ func (df *Diff) HTML(all bool) ([]byte, error) {
 		return nil, err
 	}
 	return out.Bytes(), nil
+}
+
+// changes is "change" or "changes" for n changes.
+func changes(n int) string {
+	if n == 1 {
+		return "change"
+	}
+	return "changes"
 }

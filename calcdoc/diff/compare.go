@@ -1,6 +1,7 @@
-package calcdoc
+package diff
 
 import (
+	"github.com/vouchcalc/vouch/calcdoc"
 	"math"
 	"strconv"
 	"strings"
@@ -11,12 +12,12 @@ import (
 
 // Side is one of the two revisions a diff compares.
 type Side struct {
-	Label  string // how the report names it: "v1 (1a2b3c4d5e6f, 2031-05-02)" or "work tree"
-	Rev    string // the revision as given; "" for the work tree
-	Commit string // the full commit hash; "" for the work tree
-	Path   string // the calc's path in the repository at this revision
-	Doc    *Doc   // the calc read and evaluated at this revision
-	Shown  string // the file as the user named it, for the work tree's errors
+	Label  string       // how the report names it: "v1 (1a2b3c4d5e6f, 2031-05-02)" or "work tree"
+	Rev    string       // the revision as given; "" for the work tree
+	Commit string       // the full commit hash; "" for the work tree
+	Path   string       // the calc's path in the repository at this revision
+	Doc    *calcdoc.Doc // the calc read and evaluated at this revision
+	Shown  string       // the file as the user named it, for the work tree's errors
 }
 
 // Diff is what changed in a calc between two revisions: front matter,
@@ -78,19 +79,19 @@ type CheckChange struct {
 func (c CheckChange) Flipped() bool { return c.Evaluated && c.OldPass != c.NewPass }
 
 // Compare compares two evaluated calcs: the old one first.
-func Compare(old, new *Doc) *Diff {
+func Compare(old, new *calcdoc.Doc) *Diff {
 	df := &Diff{From: Side{Doc: old}, To: Side{Doc: new}}
 	df.Front = frontChanges(old.Front, new.Front)
 	df.compareDefs(old, new)
 	df.compareChecks(old, new)
 	df.Files = fileChanges(old.DataFiles, new.DataFiles)
-	df.Prose = proseHunks(old.prose(), new.prose())
+	df.Prose = proseHunks(old.Prose(), new.Prose())
 	return df
 }
 
 // fileChanges compares the data files and images two revisions read, by
 // path: the new revision's in its order, then those only the old one read.
-func fileChanges(old, new []DataFile) []FileChange {
+func fileChanges(old, new []calcdoc.DataFile) []FileChange {
 	was := map[string]string{}
 	for _, f := range old {
 		was[f.Path] = f.Hash
@@ -133,7 +134,7 @@ func (df *Diff) Unchanged() bool {
 }
 
 // frontChanges lists the front-matter fields that differ.
-func frontChanges(a, b Front) []FieldChange {
+func frontChanges(a, b calcdoc.Front) []FieldChange {
 	fields := []FieldChange{
 		{"title", a.Title, b.Title},
 		{"number", a.Number, b.Number},
@@ -156,9 +157,9 @@ func frontChanges(a, b Front) []FieldChange {
 }
 
 // definitions maps each defined name to its item, in file order.
-func definitions(d *Doc) (map[string]*Item, []*Item) {
-	byName := map[string]*Item{}
-	var order []*Item
+func definitions(d *calcdoc.Doc) (map[string]*calcdoc.Item, []*calcdoc.Item) {
+	byName := map[string]*calcdoc.Item{}
+	var order []*calcdoc.Item
 	for _, it := range d.Items {
 		if it.Inline || it.Stmt == nil || it.Stmt.Kind != eval.Def || it.Stmt.Name == "" {
 			continue
@@ -173,7 +174,7 @@ func definitions(d *Doc) (map[string]*Item, []*Item) {
 
 // compareDefs compares the definitions by name: values of names defined at
 // both sides, and lines added, removed or rewritten.
-func (df *Diff) compareDefs(old, new *Doc) {
+func (df *Diff) compareDefs(old, new *calcdoc.Doc) {
 	oldDefs, oldOrder := definitions(old)
 	newDefs, newOrder := definitions(new)
 	for _, it := range oldOrder {
@@ -199,8 +200,8 @@ func (df *Diff) compareDefs(old, new *Doc) {
 
 // sourceLine is the calc line of an item as written, without its line
 // break.
-func sourceLine(d *Doc, it *Item) string {
-	return strings.TrimSpace(d.lines.text(d.Src, it.Stmt.Line))
+func sourceLine(d *calcdoc.Doc, it *calcdoc.Item) string {
+	return d.SourceLine(it.Stmt.Line)
 }
 
 // normalise collapses runs of blanks, so that re-aligning a line is no
@@ -208,7 +209,7 @@ func sourceLine(d *Doc, it *Item) string {
 func normalise(s string) string { return strings.Join(strings.Fields(s), " ") }
 
 // valueText is an item's value as the package shows it, or what stopped it.
-func valueText(d *Doc, it *Item) string {
+func valueText(d *calcdoc.Doc, it *calcdoc.Item) string {
 	switch {
 	case it.Outcome == nil || it.Outcome.Skipped:
 		return "(not evaluated)"
@@ -230,7 +231,7 @@ func verdictText(pass bool) string {
 
 // comparable reports whether an item's value is one a diff lists: a
 // quantity, a truth value or a text, or no value because the line failed.
-func comparable(it *Item) bool {
+func comparable(it *calcdoc.Item) bool {
 	if it.Outcome == nil || it.Outcome.Skipped {
 		return true
 	}
@@ -242,7 +243,7 @@ func comparable(it *Item) bool {
 }
 
 // compareValue compares the values of one name at both sides.
-func compareValue(old *Doc, a *Item, new *Doc, b *Item) (ValueChange, bool) {
+func compareValue(old *calcdoc.Doc, a *calcdoc.Item, new *calcdoc.Doc, b *calcdoc.Item) (ValueChange, bool) {
 	if !comparable(a) || !comparable(b) {
 		return ValueChange{}, false
 	}
@@ -265,7 +266,7 @@ func compareValue(old *Doc, a *Item, new *Doc, b *Item) (ValueChange, bool) {
 	return vc, true
 }
 
-func quantityOf(it *Item) (units.Quantity, bool) {
+func quantityOf(it *calcdoc.Item) (units.Quantity, bool) {
 	if it.Outcome == nil || it.Outcome.Skipped {
 		return units.Quantity{}, false
 	}
@@ -276,7 +277,7 @@ func quantityOf(it *Item) (units.Quantity, bool) {
 // quantityChange formats new minus old in the new display unit (a
 // temperature change in K or Fdeg, since a change is a difference)
 // and the change relative to the old value, in per cent.
-func quantityChange(a, b units.Quantity, d *Doc, display units.Unit) (change, rel string) {
+func quantityChange(a, b units.Quantity, d *calcdoc.Doc, display units.Unit) (change, rel string) {
 	if a.D != b.D {
 		return "dimension changed", ""
 	}
@@ -315,8 +316,8 @@ func signed(s string) string {
 }
 
 // checkItems lists the checks of a calc that parsed, in file order.
-func checkItems(d *Doc) []*Item {
-	var out []*Item
+func checkItems(d *calcdoc.Doc) []*calcdoc.Item {
+	var out []*calcdoc.Item
 	for _, it := range d.Items {
 		if it.Stmt != nil && it.Stmt.Kind == eval.Check && !it.Inline {
 			out = append(out, it)
@@ -328,14 +329,14 @@ func checkItems(d *Doc) []*Item {
 // compareChecks pairs the checks of both sides — first those with the same
 // expression, then those with the same description — and lists the rest as
 // added or removed.
-func (df *Diff) compareChecks(old, new *Doc) {
+func (df *Diff) compareChecks(old, new *calcdoc.Doc) {
 	a, b := checkItems(old), checkItems(new)
 	pair := make([]int, len(b)) // index into a, or -1
 	used := make([]bool, len(a))
 	for i := range pair {
 		pair[i] = -1
 	}
-	match := func(same func(x, y *Item) bool) {
+	match := func(same func(x, y *calcdoc.Item) bool) {
 		for i, y := range b {
 			for j, x := range a {
 				if pair[i] < 0 && !used[j] && same(x, y) {
@@ -344,13 +345,13 @@ func (df *Diff) compareChecks(old, new *Doc) {
 			}
 		}
 	}
-	match(func(x, y *Item) bool { return normalise(x.Stmt.Expr) == normalise(y.Stmt.Expr) })
-	match(func(x, y *Item) bool { return x.Stmt.Desc != "" && x.Stmt.Desc == y.Stmt.Desc })
+	match(func(x, y *calcdoc.Item) bool { return normalise(x.Stmt.Expr) == normalise(y.Stmt.Expr) })
+	match(func(x, y *calcdoc.Item) bool { return x.Stmt.Desc != "" && x.Stmt.Desc == y.Stmt.Desc })
 	df.addCheckLines(old, new, a, b, pair, used)
 }
 
 // addCheckLines records the paired checks and the lines of the others.
-func (df *Diff) addCheckLines(old, new *Doc, a, b []*Item, pair []int, used []bool) {
+func (df *Diff) addCheckLines(old, new *calcdoc.Doc, a, b []*calcdoc.Item, pair []int, used []bool) {
 	for j, x := range a {
 		if !used[j] {
 			df.Lines = append(df.Lines, LineChange{Kind: "removed", Name: "check", OldLine: x.Stmt.Line, Old: sourceLine(old, x)})
@@ -369,7 +370,7 @@ func (df *Diff) addCheckLines(old, new *Doc, a, b []*Item, pair []int, used []bo
 	}
 }
 
-func checkChange(x, y *Item) CheckChange {
+func checkChange(x, y *calcdoc.Item) CheckChange {
 	c := CheckChange{Old: x.Stmt.Expr, New: y.Stmt.Expr, Desc: y.Stmt.Desc, OldLine: x.Stmt.Line, NewLine: y.Stmt.Line}
 	ex := x.Outcome != nil && !x.Outcome.Skipped
 	ey := y.Outcome != nil && !y.Outcome.Skipped

@@ -1,8 +1,10 @@
-package calcdoc
+package audit
 
 import (
 	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
 	"path/filepath"
+	"slices"
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
@@ -13,26 +15,26 @@ import (
 // and, with an allowed-signers file, with that person's key. The status is
 // the stamp the signatures that hold reach.
 func (v *verifier) checkSignatures() bool {
-	states := v.repro.doc.checkSignatures(v.repro.record)
+	states := slices.Clone(v.repro.record.Signatures)
 	for i := range states {
 		if states[i].Valid {
 			v.checkKey(&states[i])
 		}
 	}
-	for _, role := range Roles {
+	for _, role := range calcdoc.Roles {
 		v.reportRole(role, states)
 	}
 	for _, st := range states {
-		if !contains(Roles, st.Sig.Role) {
-			v.rep.addRole(Fail, st.Sig.Role, st.Reason)
+		if !slices.Contains(calcdoc.Roles, st.Sig.Role) {
+			v.rep.addRole(Fails, st.Sig.Role, st.Reason)
 		}
 	}
-	v.rep.Status = stamp(states)
+	v.rep.Status = status(states)
 	return true
 }
 
 // checkKey checks a signature's key against the allowed-signers file.
-func (v *verifier) checkKey(st *sigState) {
+func (v *verifier) checkKey(st *calcdoc.SignatureState) {
 	if v.opt.Signers == "" {
 		return
 	}
@@ -57,8 +59,8 @@ func (v *verifier) checkKey(st *sigState) {
 }
 
 // reportRole adds the findings of one role.
-func (v *verifier) reportRole(role string, states []sigState) {
-	p := v.repro.doc.person(role)
+func (v *verifier) reportRole(role string, states []calcdoc.SignatureState) {
+	p := v.repro.doc.Person(role)
 	signed := false
 	for _, st := range states {
 		if st.Sig.Role != role {
@@ -66,7 +68,7 @@ func (v *verifier) reportRole(role string, states []sigState) {
 		}
 		signed = true
 		if !st.Valid {
-			v.rep.addRole(Fail, role, st.Reason)
+			v.rep.addRole(Fails, role, st.Reason)
 			continue
 		}
 		s := st.Sig
@@ -76,7 +78,7 @@ func (v *verifier) reportRole(role string, states []sigState) {
 		} else {
 			text += "; key not checked (no allowed-signers file)"
 		}
-		v.rep.addRole(Pass, role, text)
+		v.rep.addRole(Holds, role, text)
 	}
 	if !signed {
 		who := "the front matter names no " + role

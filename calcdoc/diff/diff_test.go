@@ -1,4 +1,4 @@
-package calcdoc
+package diff
 
 import (
 	"bytes"
@@ -6,6 +6,9 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/internal/testkit"
 )
 
 // diffRepo builds a repository whose history exercises vouch diff:
@@ -14,25 +17,25 @@ import (
 //	v2  an input changed (discharge pressure 12.5 -> 14 MPa), revision B
 //	v3  a line added (motor power) and the check tightened so it fails
 //	v4  the calc renamed to pumps/fp-001.calc.md, with a prose edit
-func diffRepo(t *testing.T) *gitRepo {
-	r := newGitRepo(t)
-	r.write("calcs/fp.calc.md", signCalc)
-	r.commit("Feed pump power, first issue")
-	r.git("tag", "v1")
-	src := strings.Replace(signCalc, "p_out = 12.5 MPa", "p_out = 14 MPa", 1)
+func diffRepo(t *testing.T) *testkit.Repo {
+	r := testkit.NewRepo(t)
+	r.Write("calcs/fp.calc.md", testkit.SignCalc)
+	r.Commit("Feed pump power, first issue")
+	r.Git("tag", "v1")
+	src := strings.Replace(testkit.SignCalc, "p_out = 12.5 MPa", "p_out = 14 MPa", 1)
 	src = strings.Replace(src, "revision: A", "revision: B", 1)
-	r.write("calcs/fp.calc.md", src)
-	r.commit("Raise the discharge pressure")
-	r.git("tag", "v2")
+	r.Write("calcs/fp.calc.md", src)
+	r.Commit("Raise the discharge pressure")
+	r.Git("tag", "v2")
 	src = strings.Replace(src, "check P_pump < 5 MW", "P_motor [MW] = P_pump / 95 %    // motor input\ncheck P_pump < 3 MW", 1)
-	r.write("calcs/fp.calc.md", src)
-	r.commit("Motor power; tighter frame limit")
-	r.git("tag", "v3")
-	r.git("mv", "calcs/fp.calc.md", "calcs/fp-001.calc.md")
+	r.Write("calcs/fp.calc.md", src)
+	r.Commit("Motor power; tighter frame limit")
+	r.Git("tag", "v3")
+	r.Git("mv", "calcs/fp.calc.md", "calcs/fp-001.calc.md")
 	src = strings.Replace(src, "# Feed pump\n", "# Boiler feed pump\n", 1)
-	r.write("calcs/fp-001.calc.md", src)
-	r.commit("Rename by calc number")
-	r.git("tag", "v4")
+	r.Write("calcs/fp-001.calc.md", src)
+	r.Commit("Rename by calc number")
+	r.Git("tag", "v4")
 	return r
 }
 
@@ -61,7 +64,7 @@ func TestDiffRevisions(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
-			df, err := DiffRevisions(r.path(c.file), DiffOptions{From: c.from, To: c.to})
+			df, err := Revisions(r.Path(c.file), Options{From: c.from, To: c.to})
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -120,8 +123,8 @@ func lineKinds(df *Diff) []string {
 
 func TestDiffBadInput(t *testing.T) {
 	r := diffRepo(t)
-	r.write("calcs/new.calc.md", "---\ntitle: Condenser duty (fictional)\nnumber: CD-001\n---\n# Duty\n\n```calc\nQ = 400 MW // duty\n```\n")
-	r.commit("A second calc")
+	r.Write("calcs/new.calc.md", "---\ntitle: Condenser duty (fictional)\nnumber: CD-001\n---\n# Duty\n\n```calc\nQ = 400 MW // duty\n```\n")
+	r.Commit("A second calc")
 	cases := []struct {
 		name, file, from, to string
 		want                 []string
@@ -135,8 +138,8 @@ func TestDiffBadInput(t *testing.T) {
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
-			_, err := DiffRevisions(r.path(c.file), DiffOptions{From: c.from, To: c.to})
-			var usage *UsageError
+			_, err := Revisions(r.Path(c.file), Options{From: c.from, To: c.to})
+			var usage *calcdoc.UsageError
 			if !errors.As(err, &usage) {
 				t.Fatalf("error %v, want a usage error", err)
 			}
@@ -148,7 +151,7 @@ func TestDiffBadInput(t *testing.T) {
 		})
 	}
 	t.Run("outside a repository", func(t *testing.T) {
-		_, err := DiffRevisions(writeTemp(t, signCalc), DiffOptions{})
+		_, err := Revisions(writeTemp(t, testkit.SignCalc), Options{})
 		if err == nil || !strings.Contains(err.Error(), "not in a git repository") {
 			t.Errorf("error %v, want not in a git repository", err)
 		}
@@ -157,18 +160,18 @@ func TestDiffBadInput(t *testing.T) {
 
 // writeTemp writes a calc to a fresh directory outside any repository.
 func writeTemp(t *testing.T, src string) string {
-	r := &gitRepo{t: t, dir: t.TempDir()}
-	r.write("c.calc.md", src)
-	return r.path("c.calc.md")
+	r := testkit.Folder(t)
+	r.Write("c.calc.md", src)
+	return r.Path("c.calc.md")
 }
 
 // TestDiffErrorsInRevision keeps going when one revision has errors: the
 // errors name the revision and the line.
 func TestDiffErrorsInRevision(t *testing.T) {
 	r := diffRepo(t)
-	src := string(r.read("calcs/fp-001.calc.md"))
-	r.write("calcs/fp-001.calc.md", strings.Replace(src, "p_out = 14 MPa", "p_out = 14 MPa + 3 kg", 1))
-	df, err := DiffRevisions(r.path("calcs/fp-001.calc.md"), DiffOptions{From: "v4"})
+	src := string(r.Read("calcs/fp-001.calc.md"))
+	r.Write("calcs/fp-001.calc.md", strings.Replace(src, "p_out = 14 MPa", "p_out = 14 MPa + 3 kg", 1))
+	df, err := Revisions(r.Path("calcs/fp-001.calc.md"), Options{From: "v4"})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -187,7 +190,7 @@ func TestDiffReportDeterministic(t *testing.T) {
 	r := diffRepo(t)
 	var first []byte
 	for i := 0; i < 2; i++ {
-		df, err := DiffRevisions(r.path("calcs/fp-001.calc.md"), DiffOptions{From: "v1", To: "v4"})
+		df, err := Revisions(r.Path("calcs/fp-001.calc.md"), Options{From: "v1", To: "v4"})
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -195,7 +198,7 @@ func TestDiffReportDeterministic(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		if !bytes.Contains(html, []byte(ContentPolicyTag)) {
+		if !bytes.Contains(html, []byte(calcdoc.ContentPolicyTag)) {
 			t.Error("the report lacks the content policy")
 		}
 		for _, bad := range []string{"<script", "http://", "https://"} {
@@ -219,8 +222,8 @@ func TestDiffReportDeterministic(t *testing.T) {
 }
 
 func TestCompareValues(t *testing.T) {
-	calc := func(body string) *Doc {
-		d := Read("t.calc.md", []byte("---\ntitle: Test (fictional)\n---\n```calc\n"+body+"\n```\n"))
+	calc := func(body string) *calcdoc.Doc {
+		d := calcdoc.Read("t.calc.md", []byte("---\ntitle: Test (fictional)\n---\n```calc\n"+body+"\n```\n"))
 		d.Evaluate()
 		if len(d.Errors) > 0 {
 			t.Fatalf("%s", d.Errors.Format("t", d.Src))
@@ -303,17 +306,17 @@ func apply(a, b []string, ops []editOp) string {
 // a data file no longer read are listed, with their blob hashes, in the
 // terminal text and the HTML report.
 func TestDiffDataFiles(t *testing.T) {
-	r := newGitRepo(t)
-	r.write("c/cw.csv", "T [degC],p [kPa]\n10,1.2\n30,4.2\n")
-	r.write("c/old.yaml", "a: 1 m\n")
-	r.write("c/x.calc.md", "```calc\ncw = csv(\"cw.csv\")\np = interp(cw, \"T\", 20 degC, \"p\")\nd = yaml(\"old.yaml\")\n```\n")
-	r.commit("first")
-	r.git("tag", "v1")
-	r.write("c/cw.csv", "T [degC],p [kPa]\n10,1.2\n30,4.3\n")
-	r.write("c/fig.png", string(tinyPNG))
-	r.write("c/x.calc.md", "![sketch](fig.png)\n\n```calc\ncw = csv(\"cw.csv\")\np = interp(cw, \"T\", 20 degC, \"p\")\n```\n")
-	r.commit("second")
-	df, err := DiffRevisions(r.path("c/x.calc.md"), DiffOptions{From: "v1", To: "HEAD"})
+	r := testkit.NewRepo(t)
+	r.Write("c/cw.csv", "T [degC],p [kPa]\n10,1.2\n30,4.2\n")
+	r.Write("c/old.yaml", "a: 1 m\n")
+	r.Write("c/x.calc.md", "```calc\ncw = csv(\"cw.csv\")\np = interp(cw, \"T\", 20 degC, \"p\")\nd = yaml(\"old.yaml\")\n```\n")
+	r.Commit("first")
+	r.Git("tag", "v1")
+	r.Write("c/cw.csv", "T [degC],p [kPa]\n10,1.2\n30,4.3\n")
+	r.Write("c/fig.png", string(testkit.TinyPNG))
+	r.Write("c/x.calc.md", "![sketch](fig.png)\n\n```calc\ncw = csv(\"cw.csv\")\np = interp(cw, \"T\", 20 degC, \"p\")\n```\n")
+	r.Commit("second")
+	df, err := Revisions(r.Path("c/x.calc.md"), Options{From: "v1", To: "HEAD"})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -389,10 +392,10 @@ func FuzzCompare(f *testing.F) {
 	f.Add([]byte("---\ntitle: A\nrevision: A\n---\n# T\n"), []byte("---\ntitle: B\nrevision: B\n---\n# T\n```calc\nx = water(1 bar, 300 K).h\n```\n"))
 	dir := f.TempDir()
 	f.Fuzz(func(t *testing.T, x, y []byte) {
-		a := Read(filepath.Join(dir, "a.calc.md"), x)
+		a := calcdoc.Read(filepath.Join(dir, "a.calc.md"), x)
 		a.SweepLimit = 20
 		a.Evaluate()
-		b := Read(filepath.Join(dir, "b.calc.md"), y)
+		b := calcdoc.Read(filepath.Join(dir, "b.calc.md"), y)
 		b.SweepLimit = 20
 		b.Evaluate()
 		df := Compare(a, b)

@@ -1,8 +1,9 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -28,12 +29,12 @@ func buildBenchRepo(b *testing.B) *gitRepo {
 		writeBenchCommit(&s, c)
 	}
 	cmd := exec.Command("git", "fast-import", "--quiet")
-	cmd.Dir, cmd.Env, cmd.Stdin = r.dir, r.env(), &s
+	cmd.Dir, cmd.Env, cmd.Stdin = r.Dir, r.Env(), &s
 	if out, err := cmd.CombinedOutput(); err != nil {
 		b.Fatalf("git fast-import: %v\n%s", err, out)
 	}
-	r.git("reset", "-q", "--hard", "main")
-	r.write(".git/info/exclude", "*.html\n*.manifest.json\n")
+	r.Git("reset", "-q", "--hard", "main")
+	r.Write(".git/info/exclude", "*.html\n*.manifest.json\n")
 	return r
 }
 
@@ -79,9 +80,9 @@ func benchFilesOf(c int) []string {
 // Doc.Provenance: Open, Rel, Head, FileState, Clean, History, CommitDate.
 func BenchmarkRenderProvenance(b *testing.B) {
 	r := buildBenchRepo(b)
-	inRepo := r.path(benchCalc)
+	inRepo := r.Path(benchCalc)
 	outside := filepath.Join(b.TempDir(), "fp.calc.md")
-	if err := os.WriteFile(outside, r.read(benchCalc), 0o644); err != nil {
+	if err := os.WriteFile(outside, r.Read(benchCalc), 0o644); err != nil {
 		b.Fatal(err)
 	}
 	b.Run("render-outside", func(b *testing.B) {
@@ -94,10 +95,10 @@ func BenchmarkRenderProvenance(b *testing.B) {
 			renderQuiet(b, inRepo)
 		}
 	})
-	d, _ := ReadFile(inRepo)
+	d, _ := calcdoc.ReadFile(inRepo)
 	b.Run("provenance", func(b *testing.B) {
 		for b.Loop() {
-			rec, err := d.Provenance("test")
+			rec, err := Provenance(d, "test")
 			if err != nil || !rec.Versioned || !rec.Manifest.Clean || len(rec.History) != 1+benchCommits/benchTouch {
 				b.Fatalf("provenance: %v, %+v", err, rec)
 			}
@@ -106,11 +107,15 @@ func BenchmarkRenderProvenance(b *testing.B) {
 }
 
 func renderQuiet(b *testing.B, calc string) {
-	d, err := ReadFile(calc)
+	d, err := calcdoc.ReadFile(calc)
 	if err != nil {
 		b.Fatal(err)
 	}
-	if _, err := d.Render(RenderOptions{Engine: "test"}); err != nil {
+	st, err := Provenance(d, "test")
+	if err != nil {
+		b.Fatal(err)
+	}
+	if _, err := d.Render(calcdoc.RenderOptions{Engine: "test", Stamp: st}); err != nil {
 		b.Fatal(err)
 	}
 }
@@ -119,9 +124,9 @@ func renderQuiet(b *testing.B, calc string) {
 // quarter of whose lines call water(), in the 5,000-file repository.
 func BenchmarkVerify200(b *testing.B) {
 	r := buildBenchRepo(b)
-	r.write("calcs/long.calc.md", propertyCalc(200))
-	r.commit("long calc", "calcs/long.calc.md")
-	pkg := renderFile(b, r.path("calcs/long.calc.md"))
+	r.Write("calcs/long.calc.md", propertyCalc(200))
+	r.Commit("long calc", "calcs/long.calc.md")
+	pkg := renderFile(b, r.Path("calcs/long.calc.md"))
 	k := newKey(b, "ed25519")
 	signers := allowedSigners(b, preparerEmail, k)
 	signPkg(b, pkg, "preparer", k, signers)

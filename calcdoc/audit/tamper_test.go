@@ -1,4 +1,4 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
@@ -23,7 +23,7 @@ type signedRepo struct {
 func newSignedRepo(t *testing.T) *signedRepo {
 	r := calcRepo(t)
 	s := &signedRepo{gitRepo: r, prep: newKey(t, "ed25519"), chk: newKey(t, "ed25519")}
-	s.pkg = renderFile(t, r.path("calcs/fp.calc.md"))
+	s.pkg = renderFile(t, r.Path("calcs/fp.calc.md"))
 	s.signers = allowedSigners(t, preparerEmail, s.prep, checkerEmail, s.chk)
 	signPkg(t, s.pkg, "preparer", s.prep, s.signers)
 	signPkg(t, s.pkg, "checker", s.chk, s.signers)
@@ -36,7 +36,7 @@ func newSignedRepo(t *testing.T) *signedRepo {
 // TestTamperResultInHTML: one digit of a result in the package's HTML.
 func TestTamperResultInHTML(t *testing.T) {
 	s := newSignedRepo(t)
-	html := string(s.read("calcs/fp.html"))
+	html := string(s.Read("calcs/fp.html"))
 	value := summaryValue(t, html, "P_pump")
 	replaceOnce(t, s.pkg, value, bumpDigit(value))
 	failsWith(t, verifyPkg(t, s.pkg, s.signers), "package", "differs from its reproduction at line", bumpDigit(value))
@@ -67,10 +67,10 @@ func bumpDigit(s string) string {
 // and in the manifest file beside the package.
 func TestTamperManifestValue(t *testing.T) {
 	s := newSignedRepo(t)
-	m, _ := ManifestOf(s.read("calcs/fp.html"))
+	m, _ := ManifestOf(s.Read("calcs/fp.html"))
 	si := num(m.Results[4].SI) // P_pump in W: 3.357...e+06
 	t.Run("embedded", func(t *testing.T) {
-		orig := s.read("calcs/fp.html")
+		orig := s.Read("calcs/fp.html")
 		defer os.WriteFile(s.pkg, orig, 0o644)
 		esc := strings.ReplaceAll(si, "+", "&#43;") // as html/template writes it
 		replaceOnce(t, s.pkg, `&#34;si&#34;:`+esc, `&#34;si&#34;:`+bumpDigit(esc))
@@ -88,9 +88,9 @@ func TestTamperManifestValue(t *testing.T) {
 // recorded commit with other content.
 func TestTamperSourceBlob(t *testing.T) {
 	s := newSignedRepo(t)
-	blob := s.git("rev-parse", "HEAD:calcs/fp.calc.md")
+	blob := s.Git("rev-parse", "HEAD:calcs/fp.calc.md")
 	forged := strings.Replace(signCalc, "m_dot = 213.2 kg/s", "m_dot = 203.2 kg/s", 1)
-	writeLooseBlob(t, s.path(".git/objects/"+blob[:2]+"/"+blob[2:]), forged)
+	writeLooseBlob(t, s.Path(".git/objects/"+blob[:2]+"/"+blob[2:]), forged)
 	failsWith(t, verifyPkg(t, s.pkg, s.signers), "source", "the manifest records blob "+blob+" for calcs/fp.calc.md",
 		"holds blob "+provenance.BlobHash([]byte(forged)))
 }
@@ -122,7 +122,7 @@ func TestWrongSigners(t *testing.T) {
 	})
 	t.Run("wrong role", func(t *testing.T) {
 		s := newSignedRepo(t)
-		m, _ := ManifestOf(s.read("calcs/fp.html"))
+		m, _ := ManifestOf(s.Read("calcs/fp.html"))
 		m.Signatures[1].Signature = m.Signatures[0].Signature // the preparer's signature, relabelled
 		m.Signatures[1].Fingerprint = m.Signatures[0].Fingerprint
 		rewriteManifest(t, s.pkg, m)
@@ -131,7 +131,7 @@ func TestWrongSigners(t *testing.T) {
 	})
 	t.Run("not the person named", func(t *testing.T) {
 		r := calcRepo(t)
-		pkg := renderFile(t, r.path("calcs/fp.calc.md"))
+		pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 		prep := newKey(t, "ed25519")
 		signers := allowedSigners(t, preparerEmail, prep)
 		signPkg(t, pkg, "preparer", prep, signers)
@@ -141,7 +141,7 @@ func TestWrongSigners(t *testing.T) {
 	})
 	t.Run("principal not in front matter", func(t *testing.T) {
 		s := newSignedRepo(t)
-		m, _ := ManifestOf(s.read("calcs/fp.html"))
+		m, _ := ManifestOf(s.Read("calcs/fp.html"))
 		m.Signatures[1].Principal = "someone@example.com"
 		rewriteManifest(t, s.pkg, m)
 		failsWith(t, verifyPkg(t, s.pkg, s.signers), "checker", "signed as C. Reader <someone@example.com>, but the front matter names C. Reader <checker@example.com>")
@@ -171,8 +171,8 @@ func rewriteManifest(t *testing.T, pkg string, m *provenance.Manifest) {
 // verifies against its recorded commit, and the report says HEAD moved.
 func TestHeadMovedOn(t *testing.T) {
 	s := newSignedRepo(t)
-	s.write("calcs/fp.calc.md", strings.Replace(signCalc, "213.2 kg/s", "220 kg/s", 1))
-	s.commit("Feed pump power at the new flow", "calcs/fp.calc.md")
+	s.Write("calcs/fp.calc.md", strings.Replace(signCalc, "213.2 kg/s", "220 kg/s", 1))
+	s.Commit("Feed pump power at the new flow", "calcs/fp.calc.md")
 	rep := verifyPkg(t, s.pkg, s.signers)
 	if !rep.OK() {
 		t.Fatalf("verify after a later commit:\n%s", rep)

@@ -1,11 +1,9 @@
 package calcdoc
 
 import (
-	"errors"
 	"path/filepath"
 	"strconv"
 	"strings"
-	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 	"github.com/vouchcalc/vouch/eval"
@@ -13,11 +11,13 @@ import (
 	"github.com/vouchcalc/vouch/units"
 )
 
-// Record is the provenance of a package: its manifest and what the cover
-// and the appendix print beside it. Everything in it comes from the calc,
-// the engine and git, never from the clock, so the same source at the same
-// commit gives the same record.
-type Record struct {
+// Stamp is what a package records and shows of its provenance: the
+// manifest, what the cover and the appendix print beside it, and the
+// verdict on each signature. Everything in it comes from the calc, the
+// engine and git, never from the clock, so the same source at the same
+// commit gives the same stamp. calcdoc only shows a stamp; the audit
+// package builds it from git and checks its signatures.
+type Stamp struct {
 	Manifest *provenance.Manifest
 	// Versioned reports a calc in a git repository with at least one
 	// commit; only a versioned calc can be signed or reproduced.
@@ -28,104 +28,45 @@ type Record struct {
 	// History is the calc file's revisions up to the commit, newest first.
 	History []provenance.Revision
 	// Date is the committer date of the commit, RFC 3339 in UTC. It is the
-	// date every signature of the package carries (see Sign).
+	// date every signature of the package carries.
 	Date string
+	// Signatures holds the verdict on each signature of the manifest, in
+	// manifest order.
+	Signatures []SignatureState
+	// Status is the cover stamp the valid signatures reach: DRAFT,
+	// PREPARED, CHECKED or APPROVED ("" shows as DRAFT).
+	Status string
 }
 
-// Provenance records where the evaluated calc comes from: the repository
-// that holds the file at d.Path, its HEAD commit, whether the file and the
-// tracked work tree match that commit, and the file's history. Outside a
-// repository (or in one without commits) the record is unversioned and
-// names the file by its base name. engine is the engine's version.
-func (d *Doc) Provenance(engine string) (*Record, error) {
-	m, err := d.baseManifest(engine)
+// SignatureState is a signature of a package and whether it holds.
+type SignatureState struct {
+	Sig    provenance.Signature
+	Valid  bool
+	Reason string // why it does not hold
+}
+
+// Unversioned is the stamp of an evaluated calc that no repository holds:
+// the manifest names the file by its base name, and nothing is signed. It
+// reads nothing: the stamp of a calc in git comes from audit.Provenance.
+func (d *Doc) Unversioned(engine string) (*Stamp, error) {
+	m, err := d.Manifest(engine)
 	if err != nil {
 		return nil, err
 	}
 	m.Source, m.SourceHash = filepath.Base(d.Path), provenance.BlobHash(d.Src)
-	rec := &Record{Manifest: m}
-	repo, err := provenance.Open(d.Path)
-	if errors.Is(err, provenance.ErrNotInRepo) {
-		return rec, nil
-	}
-	if err != nil {
-		return nil, err
-	}
-	head, err := repo.Head()
-	if errors.Is(err, provenance.ErrNoCommits) {
-		return rec, nil
-	}
-	if err != nil {
-		return nil, err
-	}
-	return rec, d.recordWorkTree(repo, head, rec)
+	return &Stamp{Manifest: m}, nil
 }
 
-// recordWorkTree fills the record of a calc read from the work tree of repo
-// whose HEAD is head.
-func (d *Doc) recordWorkTree(repo *provenance.Repo, head string, rec *Record) error {
-	rel, err := repo.Rel(d.Path)
-	if err != nil {
-		return err
-	}
-	_, committed, _, err := repo.FileState(rel)
-	if err != nil {
-		return err
-	}
-	clean, err := repo.Clean()
-	if err != nil {
-		return err
-	}
-	dataClean, err := d.dataCommitted(repo)
-	if err != nil {
-		return err
-	}
-	m := rec.Manifest
-	m.Source, m.Commit = rel, head
-	rec.Committed = committed == m.SourceHash
-	m.Clean = clean && rec.Committed && dataClean
-	return rec.addHistory(repo)
-}
-
-// dataCommitted reports whether every data file the calc read is the blob
-// HEAD holds for it.
-func (d *Doc) dataCommitted(repo *provenance.Repo) (bool, error) {
-	for _, f := range d.DataFiles {
-		_, committed, _, err := repo.FileState(f.Path)
-		if err != nil {
-			return false, err
-		}
-		if committed != f.Hash {
-			return false, nil
-		}
-	}
-	return true, nil
-}
-
-// addHistory sets the versioned record's history and date from git.
-func (rec *Record) addHistory(repo *provenance.Repo) error {
-	m := rec.Manifest
-	hist, err := repo.HistoryAt(m.Commit, m.Source)
-	if err != nil {
-		return err
-	}
-	date, err := repo.CommitDate(m.Commit)
-	if err != nil {
-		return err
-	}
-	rec.Versioned, rec.History, rec.Date = true, hist, date.Format(time.RFC3339)
-	return nil
-}
-
-// baseManifest is the part of the manifest that the evaluation alone
-// decides: engine, formulations, results and their digest.
-func (d *Doc) baseManifest(engine string) (*provenance.Manifest, error) {
+// Manifest is the part of the manifest that the evaluation alone decides:
+// engine, formulations, data files, results and their digest. The source,
+// commit and signatures are for the caller to add.
+func (d *Doc) Manifest(engine string) (*provenance.Manifest, error) {
 	m := &provenance.Manifest{
 		Engine:             "vouch " + engine,
 		Formulation:        strings.Join(d.formulationNames(), "; "),
 		FormulationVersion: props.IF97Version,
 		Data:               d.manifestData(),
-		Results:            d.ManifestResults(),
+		Results:            d.manifestResults(),
 		Signatures:         []provenance.Signature{},
 	}
 	digest, err := provenance.ResultsDigest(m.Results)
@@ -171,11 +112,11 @@ func contains(list []string, s string) bool {
 	return false
 }
 
-// ManifestResults lists every result of the evaluated calc for the
+// manifestResults lists every result of the evaluated calc for the
 // manifest, in file order: each definition that holds a quantity, with its
 // SI value and SI unit, and each check as "check:LINE" with 1 for PASS and
 // 0 for FAIL. The manifest's results digest covers all of them.
-func (d *Doc) ManifestResults() []provenance.Result {
+func (d *Doc) manifestResults() []provenance.Result {
 	out := []provenance.Result{}
 	for _, it := range d.Items {
 		o := it.Outcome

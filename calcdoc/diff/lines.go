@@ -1,4 +1,4 @@
-package calcdoc
+package diff
 
 // Line diff (Myers' O(ND) algorithm) for the prose of two revisions and for
 // the similarity of renamed calc files.

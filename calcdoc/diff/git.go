@@ -1,7 +1,9 @@
-package calcdoc
+package diff
 
 import (
 	"errors"
+	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
 	"os"
 	"path/filepath"
 	"strings"
@@ -13,20 +15,20 @@ import (
 // common with the calc to count as its earlier name.
 const renameSimilarity = 0.5
 
-// DiffOptions say which two revisions of a calc to compare.
-type DiffOptions struct {
+// Options say which two revisions of a calc to compare.
+type Options struct {
 	From string // a revision as git names it (tag, hash, HEAD~1); "" means HEAD
 	To   string // a revision; "" means the work tree
 }
 
-// DiffRevisions reads a calc at two revisions from git, evaluates each
+// Revisions reads a calc at two revisions from git, evaluates each
 // (data files are read at the same revision) and compares them. When the
 // file did not exist at the earlier revision under its present name, the
 // calc it was renamed from is found there: a file with the same content,
 // the same calc number, or at least half its lines. An unknown revision
-// or a file missing at a revision is a *UsageError; errors inside either
+// or a file missing at a revision is a *calcdoc.UsageError; errors inside either
 // calc are in Side.Doc.Errors.
-func DiffRevisions(path string, opt DiffOptions) (*Diff, error) {
+func Revisions(path string, opt Options) (*Diff, error) {
 	repo, err := provenance.Open(path)
 	if err != nil {
 		return nil, usageErr("%s: %v; diff reads revisions from git", path, err)
@@ -60,7 +62,7 @@ func readWorkTree(repo *provenance.Repo, rel, shown string) (Side, error) {
 	if err != nil {
 		return Side{}, usageErr("%s: %v", rel, err)
 	}
-	d := Read(path, src)
+	d := calcdoc.Read(path, src)
 	d.Evaluate()
 	return Side{Label: "work tree", Path: rel, Doc: d, Shown: shown}, nil
 }
@@ -87,7 +89,7 @@ func readNewSide(repo *provenance.Repo, rel, rev, shown string) (Side, error) {
 func resolve(repo *provenance.Repo, rev string) (string, error) {
 	commit, err := repo.Resolve(rev)
 	if err != nil {
-		return "", &UsageError{Err: err}
+		return "", &calcdoc.UsageError{Err: err}
 	}
 	return commit, nil
 }
@@ -108,8 +110,7 @@ func readAt(repo *provenance.Repo, rel, rev, commit string) (Side, error) {
 	if date, err := repo.CommitDate(commit); err == nil {
 		label += ", " + date.Format("2006-01-02")
 	}
-	path := filepath.Join(repo.Root(), filepath.FromSlash(rel))
-	d := evaluateAt(repo, commit, path, src)
+	d := calcdoc.ReadIn(repo.CommitFS(commit), repo.Root(), rel, src)
 	return Side{Label: label + ")", Rev: rev, Commit: commit, Path: rel, Doc: d}, nil
 }
 
@@ -121,7 +122,7 @@ func readRenamed(repo *provenance.Repo, rel, rev string, newer Side) (Side, erro
 		return Side{}, err
 	}
 	side, err := readAt(repo, rel, rev, commit)
-	var usage *UsageError
+	var usage *calcdoc.UsageError
 	if !errors.As(err, &usage) {
 		return side, err
 	}
@@ -165,24 +166,14 @@ func findRenamed(repo *provenance.Repo, commit string, to Side) (string, error) 
 // renameScore rates how likely src is an earlier version of the calc d:
 // 3 for the same bytes, 2 for the same calc number, otherwise the share of
 // lines in common.
-func renameScore(src []byte, d *Doc, newLines []string) float64 {
+func renameScore(src []byte, d *calcdoc.Doc, newLines []string) float64 {
 	if provenance.BlobHash(src) == provenance.BlobHash(d.Src) {
 		return 3
 	}
-	if n := frontNumber(src); n != "" && n == d.Front.Number {
+	if n := calcdoc.FrontNumber(src); n != "" && n == d.Front.Number {
 		return 2
 	}
 	return similarity(strings.Split(string(src), "\n"), newLines)
-}
-
-// frontNumber is the calc number in a file's front matter, or "".
-func frontNumber(src []byte) string {
-	yml, _, end, err := splitFront(src)
-	if err != nil || end == 0 {
-		return ""
-	}
-	f, _ := parseFront(yml)
-	return f.Number
 }
 
 // existsAt reports whether the new side has a file at rel.
@@ -219,4 +210,18 @@ func (df *Diff) ErrorText() string {
 // HasErrors reports whether either revision has errors.
 func (df *Diff) HasErrors() bool {
 	return len(df.From.Doc.Errors)+len(df.To.Doc.Errors) > 0
+}
+
+// usageErr is a diff that cannot start: an unknown revision or a missing
+// file. The CLI exits with its usage code.
+func usageErr(format string, args ...any) error {
+	return &calcdoc.UsageError{Err: fmt.Errorf(format, args...)}
+}
+
+// shortHash is the first 12 digits of a commit hash, as reports show it.
+func shortHash(h string) string {
+	if len(h) > 12 {
+		return h[:12]
+	}
+	return h
 }

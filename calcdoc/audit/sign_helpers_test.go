@@ -1,8 +1,10 @@
-package calcdoc
+package audit
 
 import (
 	"bytes"
 	"fmt"
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/internal/testkit"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -10,132 +12,28 @@ import (
 	"testing"
 )
 
-// The fictional people of the test calcs, as their front matter names them.
+// The fictional people and calc of the tests (internal/testkit).
 const (
-	preparerEmail = "preparer@example.com"
-	checkerEmail  = "checker@example.com"
-	approverEmail = "approver@example.com"
+	preparerEmail = testkit.PreparerEmail
+	checkerEmail  = testkit.CheckerEmail
+	approverEmail = testkit.ApproverEmail
+	signCalc      = testkit.SignCalc
 )
 
-// signCalc is a small calc with all three roles, a result and a check.
-const signCalc = `---
-title: Feed pump power (fictional test plant)
-number: FP-001
-project: Test plant (fictional)
-revision: A
-people:
-  preparer: P. Writer <preparer@example.com>
-  checker: C. Reader <checker@example.com>
-  approver: E. Record <approver@example.com>
-summary: [P_pump]
----
-# Feed pump
+var needTool = testkit.NeedTool
 
-` + "```calc" + `
-p_in = 8 kPa                         // pump suction pressure
-p_out = 12.5 MPa                     // pump discharge pressure
-m_dot = 213.2 kg/s                   // feedwater flow
-st_in = water(p_in, 0)               // saturated liquid at suction
-w_p [kJ/kg] = st_in.v * (p_out - p_in) / 80 %
-P_pump [MW] = m_dot * w_p            // pump power
-check P_pump < 5 MW                  // motor frame limit (fictional)
-` + "```" + `
-`
+// gitRepo is a scratch repository (internal/testkit).
+type gitRepo = testkit.Repo
 
-// needTool skips the test when an executable is missing, unless CI is set,
-// where a missing tool is a failure.
-func needTool(t testing.TB, name string) {
-	t.Helper()
-	if _, err := exec.LookPath(name); err != nil {
-		if os.Getenv("CI") != "" {
-			t.Fatalf("%s is required when CI is set: %v", name, err)
-		}
-		t.Skipf("%s not found: %v", name, err)
-	}
-}
-
-// gitRepo is a scratch repository built with the git executable, with
-// fictional identities and dates one day apart per commit.
-type gitRepo struct {
-	t    testing.TB
-	dir  string
-	tick int
-}
-
-func newGitRepo(t testing.TB) *gitRepo {
-	t.Helper()
-	needTool(t, "git")
-	dir, err := filepath.EvalSymlinks(t.TempDir())
-	if err != nil {
-		t.Fatal(err)
-	}
-	r := &gitRepo{t: t, dir: dir}
-	r.git("init", "-q", "-b", "main")
-	return r
-}
-
-func (r *gitRepo) env() []string {
-	date := fmt.Sprintf("@%d +0100", 1767000000+86400*r.tick)
-	return append(os.Environ(),
-		"GIT_CONFIG_GLOBAL=/dev/null", "GIT_CONFIG_NOSYSTEM=1",
-		"GIT_AUTHOR_NAME=P. Writer (fictional)", "GIT_AUTHOR_EMAIL="+preparerEmail,
-		"GIT_COMMITTER_NAME=P. Writer (fictional)", "GIT_COMMITTER_EMAIL="+preparerEmail,
-		"GIT_AUTHOR_DATE="+date, "GIT_COMMITTER_DATE="+date,
-	)
-}
-
-func (r *gitRepo) git(args ...string) string {
-	r.t.Helper()
-	cmd := exec.Command("git", args...)
-	cmd.Dir, cmd.Env = r.dir, r.env()
-	out, err := cmd.CombinedOutput()
-	if err != nil {
-		r.t.Fatalf("git %s: %v\n%s", strings.Join(args, " "), err, out)
-	}
-	return strings.TrimSpace(string(out))
-}
-
-func (r *gitRepo) path(rel string) string { return filepath.Join(r.dir, filepath.FromSlash(rel)) }
-
-func (r *gitRepo) write(rel, content string) {
-	r.t.Helper()
-	p := r.path(rel)
-	if err := os.MkdirAll(filepath.Dir(p), 0o755); err != nil {
-		r.t.Fatal(err)
-	}
-	if err := os.WriteFile(p, []byte(content), 0o644); err != nil {
-		r.t.Fatal(err)
-	}
-}
-
-func (r *gitRepo) read(rel string) []byte {
-	r.t.Helper()
-	b, err := os.ReadFile(r.path(rel))
-	if err != nil {
-		r.t.Fatal(err)
-	}
-	return b
-}
-
-// commit stages the given paths (all when none) and commits.
-func (r *gitRepo) commit(msg string, paths ...string) string {
-	r.t.Helper()
-	if len(paths) == 0 {
-		paths = []string{"-A"}
-	}
-	r.git(append([]string{"add"}, paths...)...)
-	r.tick++
-	r.git("commit", "-q", "-m", msg)
-	return r.git("rev-parse", "HEAD")
-}
+func newGitRepo(t testing.TB) *gitRepo { return testkit.NewRepo(t) }
 
 // calcRepo makes a repository holding calcs/fp.calc.md, committed, and
 // ignoring packages so that rendering leaves the tree clean.
 func calcRepo(t testing.TB) *gitRepo {
 	r := newGitRepo(t)
-	r.write(".gitignore", "*.html\n*.manifest.json\n")
-	r.write("calcs/fp.calc.md", signCalc)
-	r.commit("Feed pump power, first issue")
+	r.Write(".gitignore", "*.html\n*.manifest.json\n")
+	r.Write("calcs/fp.calc.md", signCalc)
+	r.Commit("Feed pump power, first issue")
 	return r
 }
 
@@ -143,19 +41,23 @@ func calcRepo(t testing.TB) *gitRepo {
 // the package and its manifest file beside it.
 func renderFile(t testing.TB, calc string) string {
 	t.Helper()
-	d, err := ReadFile(calc)
+	d, err := calcdoc.ReadFile(calc)
 	if err != nil {
 		t.Fatal(err)
 	}
 	if len(d.Errors) > 0 {
 		t.Fatalf("errors:\n%s", d.Errors.Format(calc, d.Src))
 	}
-	html, err := d.Render(RenderOptions{Engine: "test"})
+	st, err := Provenance(d, "test")
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := d.Render(calcdoc.RenderOptions{Engine: "test", Stamp: st})
 	if err != nil {
 		t.Fatal(err)
 	}
 	pkg := strings.TrimSuffix(strings.TrimSuffix(calc, ".md"), ".calc") + ".html"
-	writePkg(t, pkg, html)
+	writePkg(t, pkg, p.HTML)
 	return pkg
 }
 

@@ -1,0 +1,23 @@
+// Package calcdoc reads a calc file — YAML front matter, Markdown prose,
+// calc blocks and inline values — evaluates it, and renders the package.
+// It runs no git and checks no signature: data files and images come
+// through Doc.Files (an fs.FS the caller roots), and Render takes the
+// provenance stamp (Stamp) as a value. It is the only importer of
+// goldmark.
+//
+// Files:
+//   - reading: parse.go (Doc, Read), front.go (front matter), errors.go
+//     (Pos, Error, ErrorList, UsageError), prose.go (prose lines for the
+//     diff), files.go (the work tree as an fs.FS), data.go (csv and yaml readers,
+//     path rules), images.go (images of the prose).
+//   - evaluating: run.go (Evaluate, ReadFile, ReadIn), sweep.go and
+//     sweeprun.go (sweep blocks), diagram.go (T-s and h-s diagrams).
+//   - rendering: render.go (Render, Package), body.go (the Markdown body),
+//     mathml.go and typeset.go (formulas and values), cover.go (cover,
+//     signature block, history), manifest.go (Stamp, the evaluation's part
+//     of the manifest), writefile.go (atomic writes for the commands).
+//
+// Its neighbours: calcdoc/audit builds stamps from git and signs and
+// verifies packages; calcdoc/diff compares two revisions; calcdoc/register
+// and calcdoc/preview render many calcs or one live.
+package calcdoc
