@@ -32,4 +32,7 @@ var (
 	ErrNoAgent = errors.New("no ssh-agent")
 	// ErrAllowedSigners reports a malformed allowed-signers file.
 	ErrAllowedSigners = errors.New("invalid allowed-signers file")
+	// ErrNotAllowed reports a key that an allowed-signers file does not
+	// allow for a principal, namespace and time.
+	ErrNotAllowed = errors.New("key not allowed by the signers file")
 )

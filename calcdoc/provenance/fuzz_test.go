@@ -3,6 +3,9 @@ package provenance
 import (
 	"bytes"
 	"crypto/ed25519"
+	"errors"
+	"fmt"
+	"strings"
 	"testing"
 
 	"golang.org/x/crypto/ssh"
@@ -65,12 +68,67 @@ func FuzzParseManifest(f *testing.F) {
 	})
 }
 
-// FuzzParseAllowedSigners: any file is a list of signers or an error.
+// FuzzParseAllowedSigners: any file is a list of signers or an error at
+// lines that exist, in order; every signer read has a key; parsing is
+// deterministic.
 func FuzzParseAllowedSigners(f *testing.F) {
-	pub := string(ssh.MarshalAuthorizedKey(fuzzSigner(f).PublicKey()))
+	pub := strings.TrimSpace(string(ssh.MarshalAuthorizedKey(fuzzSigner(f).PublicKey())))
 	f.Add([]byte("checker@example.com " + pub))
 	f.Add([]byte("# comment\n\"a b\",c@example.com namespaces=\"vouch\" " + pub))
+	f.Add([]byte(`a@x valid-before="20300101Z",valid-before="20200101Z" ` + pub))
+	f.Add([]byte(`a@x ,cert-authority,valid-after="2030 1 1",namespaces="a\"b" ` + pub + " c\r\n"))
+	f.Add([]byte(`a"@x b"c valid-after="20240231235960UTC" ` + pub))
 	f.Fuzz(func(t *testing.T, data []byte) {
-		_, _ = ParseAllowedSigners(data)
+		signers, err := ParseAllowedSigners(data)
+		lines := bytes.Count(data, []byte("\n")) + 1
+		for _, s := range signers {
+			if s.Key == nil || s.Line < 1 || s.Line > lines || len(s.Principals) == 0 {
+				t.Fatalf("signer %+v read from %q", s, data)
+			}
+		}
+		if err != nil {
+			last := 0
+			for _, e := range err.(interface{ Unwrap() []error }).Unwrap() {
+				var le *AllowedSignersError
+				if !errors.As(e, &le) || le.Line <= last || le.Line > lines {
+					t.Fatalf("error %v is not at a line of the file after line %d", e, last)
+				}
+				last = le.Line
+			}
+		}
+		again, err2 := ParseAllowedSigners(data)
+		if len(again) != len(signers) || fmt.Sprint(err) != fmt.Sprint(err2) {
+			t.Fatal("parsing the same file twice differs")
+		}
 	})
+}
+
+// FuzzMatchPattern: the linear-time wildcard matcher agrees with the
+// plain recursive definition of * and ?.
+func FuzzMatchPattern(f *testing.F) {
+	f.Add("a@example.com", "*@*.com")
+	f.Add("aaaaaaaaab", "*a*a*a*b")
+	f.Add("", "*")
+	f.Fuzz(func(t *testing.T, s, p string) {
+		if len(s) > 64 || len(p) > 16 {
+			return
+		}
+		if got, want := matchPattern(s, p), matchRecursive(s, p); got != want {
+			t.Fatalf("matchPattern(%q, %q) = %v, want %v", s, p, got, want)
+		}
+	})
+}
+
+// matchRecursive is * and ? matching by definition.
+func matchRecursive(s, p string) bool {
+	if p == "" {
+		return s == ""
+	}
+	switch p[0] {
+	case '*':
+		return matchRecursive(s, p[1:]) || (s != "" && matchRecursive(s[1:], p))
+	case '?':
+		return s != "" && matchRecursive(s[1:], p[1:])
+	}
+	return s != "" && s[0] == p[0] && matchRecursive(s[1:], p[1:])
 }
