@@ -28,9 +28,9 @@ const (
 // parityKeys are the keys the parity cases name: the signing key (ed25519,
 // from a fixed seed) and keys of other types that never signed anything.
 type parityKeys struct {
-	signer                   ssh.Signer
-	ed, p256, p384, rsa string // "TYPE BASE64"
-	edB64, p256B64, rsaB64   string
+	signer                 ssh.Signer
+	ed, p256, p384, rsa    string // "TYPE BASE64"
+	edB64, p256B64, rsaB64 string
 }
 
 func newParityKeys(t *testing.T) parityKeys {

@@ -82,7 +82,7 @@ func TestParseAllowedSignersErrors(t *testing.T) {
 		`time@example.com valid-after="2024" ` + key,
 		`"unterminated@example.com ` + key,
 		`empty@example.com,,x@example.com ` + key, // read by ssh-keygen: the empty pattern matches nothing
-		`ns@example.com namespaces="" ` + key,      // read by ssh-keygen: no namespace matches
+		`ns@example.com namespaces="" ` + key,     // read by ssh-keygen: no namespace matches
 		`twice@example.com valid-before="20300101Z",valid-before="20200101Z" ` + key,
 		`unquoted@example.com valid-before=20300101 ` + key,
 		`order@example.com valid-after="20300101Z",valid-before="20200101Z" ` + key,
