@@ -1,6 +1,7 @@
 package provenance
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"os"
@@ -21,9 +22,10 @@ import (
 // A Repo is safe for concurrent use: its methods take a lock around go-git,
 // whose object storage is not meant to be shared between goroutines.
 type Repo struct {
-	mu   sync.Mutex
-	git  *git.Repository
-	root string // absolute work-tree root, symbolic links resolved
+	mu    sync.Mutex
+	git   *git.Repository
+	root  string    // absolute work-tree root, symbolic links resolved
+	blobs blobCache // contents ReadAt has read, by blob hash
 }
 
 // Open finds the repository whose work tree holds path (a file or a
@@ -200,7 +202,9 @@ func (r *Repo) committedHash(rel string) (string, error) {
 
 // ReadAt returns the content of rel at a commit. The commit may be any
 // revision Resolve accepts. When the file did not exist there the error
-// wraps ErrNotAtCommit and names both the file and the commit.
+// wraps ErrNotAtCommit and names both the file and the commit. Each blob
+// is read from the object store once while it stays in the Repo's cache
+// (BlobCacheBytes); every call returns its own copy.
 func (r *Repo) ReadAt(commit, rel string) ([]byte, error) {
 	if err := checkRel(rel); err != nil {
 		return nil, fmt.Errorf("file %s and repository %s: %w", rel, r.root, err)
@@ -218,11 +222,16 @@ func (r *Repo) ReadAt(commit, rel string) ([]byte, error) {
 	if err != nil {
 		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
 	}
+	if b, ok := r.blobs.get(f.Hash); ok {
+		return bytes.Clone(b), nil
+	}
 	s, err := f.Contents()
 	if err != nil {
 		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
 	}
-	return []byte(s), nil
+	b := []byte(s)
+	r.blobs.put(f.Hash, b)
+	return bytes.Clone(b), nil
 }
 
 // CommitDate returns the committer date of a commit (any revision Resolve

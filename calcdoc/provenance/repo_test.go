@@ -8,6 +8,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"github.com/go-git/go-git/v5/plumbing"
 )
 
 const calcFile = "calcs/hb-002.calc.md"
@@ -197,6 +199,57 @@ func TestReadAt(t *testing.T) {
 	}
 	if _, err := repo.ReadAt("HEAD", "../etc/passwd"); !errors.Is(err, ErrOutsideRepo) {
 		t.Fatalf("ReadAt of an escaping path: got %v, want ErrOutsideRepo", err)
+	}
+}
+
+// TestReadAtReadsEachBlobOnce is the provenance side of issue 11 item 11:
+// a committed file read again and again (or listed under several paths
+// with the same content) is inflated from the object store once, and each
+// caller still gets its own bytes.
+func TestReadAtReadsEachBlobOnce(t *testing.T) {
+	r := sampleRepo(t)
+	big := strings.Repeat("load,MW\n100,250\n", 20000) // 320 kB (fictional)
+	r.write("data/big.csv", big)
+	r.write("data/copy.csv", big)
+	r.write("data/other.csv", "x\n1\n")
+	r.commit("Add data")
+	repo := r.open(".")
+	for i := 0; i < 300; i++ {
+		for _, p := range []string{"data/big.csv", "data/copy.csv"} {
+			got, err := repo.ReadAt("HEAD", p)
+			if err != nil || string(got) != big {
+				t.Fatalf("ReadAt(%s) #%d: %d bytes, %v", p, i, len(got), err)
+			}
+			got[0] = 'X' // the caller's copy: the next read must not see it
+		}
+	}
+	if repo.blobs.reads != 1 {
+		t.Fatalf("the blob was read from the object store %d times, want once", repo.blobs.reads)
+	}
+	if got, err := repo.ReadAt("HEAD", "data/other.csv"); err != nil || string(got) != "x\n1\n" || repo.blobs.reads != 2 {
+		t.Fatalf("another blob: %q, %v, %d reads", got, err, repo.blobs.reads)
+	}
+}
+
+// TestBlobCacheBound: the cache drops its oldest blobs to stay within
+// BlobCacheBytes and never keeps a blob larger than that.
+func TestBlobCacheBound(t *testing.T) {
+	var c blobCache
+	third := make([]byte, BlobCacheBytes/3+1)
+	for i := byte(1); i <= 3; i++ {
+		c.put(plumbing.Hash{i}, third)
+	}
+	if _, ok := c.get(plumbing.Hash{1}); ok || c.size > BlobCacheBytes {
+		t.Fatalf("size %d: the oldest blob is kept or the bound is passed", c.size)
+	}
+	for _, h := range []plumbing.Hash{{2}, {3}} {
+		if _, ok := c.get(h); !ok {
+			t.Fatalf("blob %v dropped", h)
+		}
+	}
+	c.put(plumbing.Hash{4}, make([]byte, BlobCacheBytes+1))
+	if _, ok := c.get(plumbing.Hash{4}); ok || c.size > BlobCacheBytes {
+		t.Fatal("a blob larger than the bound is kept")
 	}
 }
 
