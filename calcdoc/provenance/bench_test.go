@@ -94,6 +94,31 @@ func BenchmarkProvenance(b *testing.B) {
 			}
 		}
 	})
+	b.Run("Open", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := Open(path); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+	b.Run("History-fresh", func(b *testing.B) {
+		for b.Loop() {
+			fresh, err := Open(path)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if _, err := fresh.History(calcFile); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+	b.Run("FileState", func(b *testing.B) {
+		for b.Loop() {
+			if _, _, _, err := repo.FileState(calcFile); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
 	b.Run("Clean-git", func(b *testing.B) {
 		for b.Loop() {
 			if _, err := repo.Clean(); err != nil {

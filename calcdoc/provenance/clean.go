@@ -65,8 +65,7 @@ func gitEnv() []string {
 // cleanGoGit is the fallback through go-git's Status, counting tracked files
 // only. Status must succeed: go-git reports a nil status as clean.
 func (r *Repo) cleanGoGit() (bool, error) {
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	wt, err := r.git.Worktree()
 	if err != nil {
 		return false, fmt.Errorf("work tree of %s: %w", r.root, err)

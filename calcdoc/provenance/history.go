@@ -58,8 +58,7 @@ func (r *Repo) HistoryAt(rev, rel string) ([]Revision, error) {
 	if err != nil {
 		return nil, err
 	}
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	w, err := newHistoryWalk(r, rel)
 	if err != nil {
 		return nil, err

@@ -5,6 +5,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"reflect"
+	"strings"
 	"testing"
 	"time"
 )
@@ -186,4 +187,46 @@ func TestSubject(t *testing.T) {
 			t.Errorf("subject(%q) = %q, want %q", tt.msg, got, tt.want)
 		}
 	}
+}
+
+// TestNoPackDescriptorOutlivesACall: the pack files go-git keeps open
+// during a history walk (issue 16 item 5: reopening them for every object
+// was most of the walk's time) are closed when the call returns.
+func TestNoPackDescriptorOutlivesACall(t *testing.T) {
+	if _, err := os.ReadDir("/proc/self/fd"); err != nil {
+		t.Skip("no /proc/self/fd to count descriptors")
+	}
+	r := sampleRepo(t)
+	r.git("gc", "-q") // pack the objects
+	repo := r.open(".")
+	if !strings.Contains(r.git("count-objects", "-v"), "packs: 1") || repo.store == nil {
+		t.Fatal("the objects are not packed, or the repository is not opened with kept descriptors")
+	}
+	for i := 0; i < 3; i++ {
+		if revs, err := repo.History(calcFile); err != nil || len(revs) != 2 {
+			t.Fatalf("History = %d revisions, %v", len(revs), err)
+		}
+		if _, err := repo.ReadAt("HEAD", calcFile); err != nil {
+			t.Fatal(err)
+		}
+		if n := openPacks(t); n != 0 {
+			t.Fatalf("%d pack files still open after the calls", n)
+		}
+	}
+}
+
+// openPacks counts this process's descriptors open on .pack files.
+func openPacks(t *testing.T) int {
+	t.Helper()
+	fds, err := os.ReadDir("/proc/self/fd")
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, fd := range fds {
+		if target, err := os.Readlink("/proc/self/fd/" + fd.Name()); err == nil && strings.HasSuffix(target, ".pack") {
+			n++
+		}
+	}
+	return n
 }

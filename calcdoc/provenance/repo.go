@@ -13,8 +13,10 @@ import (
 
 	"github.com/go-git/go-git/v5"
 	"github.com/go-git/go-git/v5/plumbing"
+	"github.com/go-git/go-git/v5/plumbing/cache"
 	"github.com/go-git/go-git/v5/plumbing/filemode"
 	"github.com/go-git/go-git/v5/plumbing/object"
+	"github.com/go-git/go-git/v5/storage/filesystem"
 )
 
 // Repo is a git repository opened from a path inside its work tree.
@@ -24,8 +26,42 @@ import (
 type Repo struct {
 	mu    sync.Mutex
 	git   *git.Repository
-	root  string    // absolute work-tree root, symbolic links resolved
-	blobs blobCache // contents ReadAt has read, by blob hash
+	store *filesystem.Storage // git's storage, pack files kept open during a call; nil if not on disk
+	root  string              // absolute work-tree root, symbolic links resolved
+	blobs blobCache           // contents ReadAt has read, by blob hash
+}
+
+// lock takes the Repo's mutex and returns the function that gives it back.
+// Within one call go-git keeps the pack files open (a history walk reads
+// hundreds of objects, and reopening the pack for each was most of its
+// time); unlocking closes them, so no descriptor outlives the call.
+func (r *Repo) lock() (unlock func()) {
+	r.mu.Lock()
+	return r.unlock
+}
+
+// unlock closes the pack files the call opened and releases the mutex.
+func (r *Repo) unlock() {
+	if r.store != nil {
+		_ = r.store.Close() // only closes read-only descriptors
+	}
+	r.mu.Unlock()
+}
+
+// keepPacksOpen reopens r on the same storage with go-git's KeepDescriptors
+// option, which PlainOpen does not offer. On any trouble it keeps r as it is.
+func keepPacksOpen(r *git.Repository, wt *git.Worktree) (*git.Repository, *filesystem.Storage) {
+	st, ok := r.Storer.(*filesystem.Storage)
+	if !ok {
+		return r, nil
+	}
+	kept := filesystem.NewStorageWithOptions(st.Filesystem(), cache.NewObjectLRUDefault(),
+		filesystem.Options{KeepDescriptors: true})
+	r2, err := git.Open(kept, wt.Filesystem)
+	if err != nil {
+		return r, nil
+	}
+	return r2, kept
 }
 
 // Open finds the repository whose work tree holds path (a file or a
@@ -55,7 +91,8 @@ func Open(path string) (*Repo, error) {
 	if err != nil {
 		return nil, fmt.Errorf("open work tree for %s: %w", path, err)
 	}
-	return &Repo{git: r, root: root}, nil
+	r, store := keepPacksOpen(r, wt)
+	return &Repo{git: r, store: store, root: root}, nil
 }
 
 // Root returns the absolute path of the work tree's top directory, with
@@ -127,8 +164,7 @@ func realPath(p string) (string, error) {
 // Head returns the full hash of the commit HEAD points at, or an error
 // wrapping ErrNoCommits when there is none yet.
 func (r *Repo) Head() (string, error) {
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	h, err := r.headHash()
 	if err != nil {
 		return "", err
@@ -180,8 +216,7 @@ func (r *Repo) FileState(rel string) (blobHash, committedHash string, dirty bool
 // committedHash returns the blob hash of rel at HEAD, or "" when HEAD does
 // not hold it or does not exist yet.
 func (r *Repo) committedHash(rel string) (string, error) {
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	head, err := r.headHash()
 	if errors.Is(err, ErrNoCommits) {
 		return "", nil
@@ -213,8 +248,7 @@ func (r *Repo) ReadAt(commit, rel string) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	f, err := c.File(rel)
 	if errors.Is(err, object.ErrFileNotFound) || errors.Is(err, object.ErrDirectoryNotFound) {
 		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrNotAtCommit)
@@ -250,8 +284,7 @@ func (r *Repo) commitAt(rev string) (*object.Commit, error) {
 	if err != nil {
 		return nil, err
 	}
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	c, err := r.git.CommitObject(plumbing.NewHash(h))
 	if err != nil {
 		return nil, fmt.Errorf("commit %s: %w", h, err)
