@@ -158,3 +158,37 @@ func provenanceOnce(b *testing.B, path string) {
 		b.Fatalf("Clean: %v, %v", clean, err)
 	}
 }
+
+// BenchmarkReadAtBigFile reads a committed 20 MB data file (fictional
+// readings): "first" opens the repository and reads it, as one read did
+// before blobs were cached; "again" reads it from a Repo that has read it
+// once. Issue 11 item 11 listed such a file 300 times in a manifest.
+func BenchmarkReadAtBigFile(b *testing.B) {
+	r := newTestRepo(b)
+	var big strings.Builder
+	for i := 0; big.Len() < 20<<20; i++ {
+		fmt.Fprintf(&big, "%d,%d.%03d,%d\n", i, 500+i*7919%1000, i*104729%1000, i*31%977)
+	}
+	r.write("data/big.csv", big.String())
+	r.commit("Add big data file")
+	r.git("gc", "-q")
+	b.Run("first", func(b *testing.B) {
+		for b.Loop() {
+			repo := r.open(".")
+			if got, err := repo.ReadAt("HEAD", "data/big.csv"); err != nil || len(got) != big.Len() {
+				b.Fatal(err)
+			}
+		}
+	})
+	repo := r.open(".")
+	if _, err := repo.ReadAt("HEAD", "data/big.csv"); err != nil {
+		b.Fatal(err)
+	}
+	b.Run("again", func(b *testing.B) {
+		for b.Loop() {
+			if got, err := repo.ReadAt("HEAD", "data/big.csv"); err != nil || len(got) != big.Len() {
+				b.Fatal(err)
+			}
+		}
+	})
+}
