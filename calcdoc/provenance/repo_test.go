@@ -143,6 +143,13 @@ func TestClean(t *testing.T) {
 		s.do()
 		for name, clean := range map[string]func() (bool, error){
 			"git": repo.Clean, "go-git": repo.cleanGoGit,
+			"StartClean, History meanwhile": func() (bool, error) {
+				wait := repo.StartClean()
+				if _, err := repo.History(calcFile); err != nil {
+					return false, err
+				}
+				return wait()
+			},
 		} {
 			got, err := clean()
 			if err != nil || got != s.clean {
