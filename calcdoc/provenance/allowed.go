@@ -80,6 +80,12 @@ func ParseAllowedSigners(data []byte) (AllowedSigners, error) {
 		if blankOrComment(text) {
 			continue
 		}
+		if strings.IndexByte(text, 0) >= 0 {
+			// OpenSSH reads a line only up to a NUL byte; refuse it rather
+			// than guess which part was meant.
+			errs = append(errs, &AllowedSignersError{Line: i + 1, Msg: "the line holds a NUL byte: an allowed-signers file is text"})
+			continue
+		}
 		s, err := parseAllowedLine(text)
 		if err != nil {
 			errs = append(errs, &AllowedSignersError{Line: i + 1, Msg: err.Error()})

@@ -87,6 +87,7 @@ func TestParseAllowedSignersErrors(t *testing.T) {
 		`unquoted@example.com valid-before=20300101 ` + key,
 		`order@example.com valid-after="20300101Z",valid-before="20200101Z" ` + key,
 		"type@example.com ssh-rsa " + strings.Fields(key)[1],
+		"nul@example.com " + key + " comment\x00 hidden", // ssh-keygen stops reading at the NUL
 	}, "\n")
 	got, err := ParseAllowedSigners([]byte(file))
 	var lines []int
@@ -109,6 +110,7 @@ func TestParseAllowedSignersErrors(t *testing.T) {
 		`line 10: the value of valid-before must be in double quotes, as valid-before="..."`,
 		`line 11: valid-before 2020-01-01T00:00:00Z is not later than valid-after 2030-01-01T00:00:00Z`,
 		`line 12: the line names a ssh-rsa key but the base64 holds a ssh-ed25519 key`,
+		`line 13: the line holds a NUL byte: an allowed-signers file is text`,
 	}
 	if got := strings.Split(err.Error(), "\n"); !reflect.DeepEqual(got, want) {
 		t.Fatalf("errors =\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
