@@ -3,6 +3,7 @@ package provenance
 import (
 	"bytes"
 	"fmt"
+	"os"
 	"os/exec"
 	"path/filepath"
 	"reflect"
@@ -130,6 +131,27 @@ func BenchmarkProvenance(b *testing.B) {
 		for b.Loop() {
 			if _, err := repo.cleanGoGit(); err != nil {
 				b.Fatal(err)
+			}
+		}
+	})
+	// With the commit-graph file git gc writes: commits are read from it.
+	r.git("commit-graph", "write", "--reachable")
+	defer os.Remove(filepath.Join(r.dir, ".git", "objects", "info", "commit-graph"))
+	b.Run("History-graph", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := repo.History(calcFile); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+	b.Run("History-fresh-graph", func(b *testing.B) {
+		for b.Loop() {
+			fresh, err := Open(path)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if _, err := fresh.History(calcFile); err != nil || fresh.graphReads == 0 {
+				b.Fatalf("History: %v, %d commits from the graph", err, fresh.graphReads)
 			}
 		}
 	})

@@ -24,7 +24,46 @@ func checkLikeGit(t *testing.T, r *testRepo, rel string, wantLen int) []Revision
 	if len(revs) != wantLen {
 		t.Fatalf("History(%s) has %d commits, want %d", rel, len(revs), wantLen)
 	}
+	// Again with a commit-graph file listing every commit: the walk reads
+	// commits from it. It stays behind, stale once the test commits again,
+	// so the next check walks partly from the graph, partly from objects.
+	r.git("commit-graph", "write", "--reachable")
+	repo := r.open(".")
+	withGraph, err := repo.History(rel)
+	if err != nil {
+		t.Fatalf("History(%s) with a commit-graph: %v", rel, err)
+	}
+	if !reflect.DeepEqual(withGraph, revs) || repo.graphReads == 0 {
+		t.Fatalf("History(%s) with a commit-graph (%d commits read from it) =\n%v\nwithout =\n%v",
+			rel, repo.graphReads, hashes(withGraph), hashes(revs))
+	}
 	return revs
+}
+
+// TestHistoryCorruptCommitGraph: a commit-graph file go-git cannot read
+// is not used; the history is read from the commit objects.
+func TestHistoryCorruptCommitGraph(t *testing.T) {
+	r := sampleRepo(t)
+	want := checkLikeGit(t, r, calcFile, 2)
+	graph := filepath.Join(r.dir, ".git", "objects", "info", "commit-graph")
+	good, err := os.ReadFile(graph)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, bad := range map[string][]byte{
+		"empty":     {},
+		"header":    good[:8],
+		"truncated": good[:len(good)/2],
+		"garbled":   append(append([]byte{}, good[:64]...), make([]byte, len(good)-64)...),
+	} {
+		if err := os.WriteFile(graph, bad, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		got, err := r.open(".").History(calcFile)
+		if err != nil || !reflect.DeepEqual(got, want) {
+			t.Errorf("%s commit-graph: History = %v, %v; want %v", name, hashes(got), err, hashes(want))
+		}
+	}
 }
 
 func TestHistoryTreesame(t *testing.T) {

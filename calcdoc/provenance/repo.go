@@ -29,6 +29,8 @@ type Repo struct {
 	store *filesystem.Storage // git's storage, pack files kept open during a call; nil if not on disk
 	root  string              // absolute work-tree root, symbolic links resolved
 	blobs blobCache           // contents ReadAt has read, by blob hash
+
+	graphReads int // commits history walks read from the commit-graph file, for tests
 }
 
 // lock takes the Repo's mutex and returns the function that gives it back.
