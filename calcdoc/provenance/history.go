@@ -3,6 +3,7 @@ package provenance
 import (
 	"bytes"
 	"container/heap"
+	"encoding/binary"
 	"errors"
 	"fmt"
 	"io"
@@ -110,11 +111,66 @@ func openCommitGraph(r *Repo) commitgraph.Index {
 	if err != nil || len(data) > maxCommitGraph {
 		return nil
 	}
+	if !graphFileSane(data) {
+		return nil
+	}
 	idx, err := openGraphFile(memFile{bytes.NewReader(data)})
 	if err != nil {
 		return nil
 	}
 	return idx
+}
+
+// graphFileSane checks a commit-graph file's layout (git's
+// Documentation/gitformat-commit-graph.txt) before go-git reads it, as
+// go-git trusts the offsets and counts it finds there: signature CGPH,
+// version 1, SHA-1; a chunk table whose offsets rise within the file and
+// ends with a zero id; a fanout table that never decreases; and OID
+// lookup and commit data chunks of exactly the sizes the fanout's count
+// of N commits implies (20 and 36 bytes a commit).
+func graphFileSane(data []byte) bool {
+	const header, entry = 8, 12
+	if len(data) < header || string(data[:4]) != "CGPH" || data[4] != 1 || data[5] != 1 {
+		return false
+	}
+	chunks := int(data[6])
+	if len(data) < header+(chunks+1)*entry {
+		return false
+	}
+	start := map[string]uint64{}
+	size := map[string]uint64{}
+	for i := 0; i <= chunks; i++ {
+		e := data[header+i*entry:]
+		id, off := string(e[:4]), binary.BigEndian.Uint64(e[4:12])
+		if off > uint64(len(data)) || off < uint64(header+(chunks+1)*entry) {
+			return false
+		}
+		if i == chunks {
+			if id != "\x00\x00\x00\x00" {
+				return false
+			}
+			break
+		}
+		next := binary.BigEndian.Uint64(data[header+(i+1)*entry+4:])
+		if next < off || id == "\x00\x00\x00\x00" || start[id] != 0 {
+			return false
+		}
+		start[id], size[id] = off, next-off
+	}
+	if size["OIDF"] != 1024 || start["OIDL"] == 0 || start["CDAT"] == 0 {
+		return false
+	}
+	fanout := data[start["OIDF"]:]
+	prev := uint32(0)
+	for i := 0; i < 256; i++ {
+		v := binary.BigEndian.Uint32(fanout[4*i:])
+		if v < prev {
+			return false
+		}
+		prev = v
+	}
+	n := uint64(prev)
+	return size["OIDL"] == 20*n && size["CDAT"] == 36*n
 }
 
 // maxCommitGraph bounds the commit-graph file read into memory (about a
