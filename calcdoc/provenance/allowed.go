@@ -97,9 +97,10 @@ func ParseAllowedSigners(data []byte) (AllowedSigners, error) {
 	return out, errors.Join(errs...)
 }
 
-// blankOrComment reports a line that holds only blanks, or a comment.
+// blankOrComment reports a line that holds only spaces and tabs, or a
+// comment, as OpenSSH skips them (other control characters are not blank).
 func blankOrComment(text string) bool {
-	t := strings.TrimLeft(text, " \t\r\n\v\f")
+	t := strings.TrimLeft(text, " \t")
 	return t == "" || t[0] == '#'
 }
 

@@ -161,6 +161,7 @@ func parityCases(k parityKeys) []parityCase {
 		{"ecdsa curve disagrees", "a@x ecdsa-sha2-nistp384 " + k.p256B64, "a@x", "", verdictRefuse},
 		{"unterminated quote in the principals", `"a@x ` + K, "a@x", "", verdictRefuse},
 		{"quote inside the principals", `a"@x b"c ` + K, "a@x b", "", verdictRefuse},
+		{"vertical tab before a comment", "\v# not a comment to OpenSSH\na@x " + K, "a@x", "", verdictRefuse},
 		{"NUL byte in the principals", "a@x\x00 " + K, "a@x", "", verdictRefuse},
 		{"bad line for another principal", "zz@x foo " + K + "\na@x " + K, "a@x", "", verdictRefuse},
 		{"bad line before a good one", "a@x foo " + K + "\na@x " + K, "a@x", "", verdictRefuse},
