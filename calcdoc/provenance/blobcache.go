@@ -11,10 +11,11 @@ const BlobCacheBytes = 64 << 20
 // blobCache keeps blob contents by hash up to BlobCacheBytes, dropping the
 // oldest first. The Repo's mutex guards it.
 type blobCache struct {
-	data  map[plumbing.Hash][]byte
-	order []plumbing.Hash // oldest first
-	size  int
-	reads int // blobs read from the object store, for tests
+	hashed map[plumbing.Hash]string // BlobHash of each blob's content, once computed
+	data   map[plumbing.Hash][]byte
+	order  []plumbing.Hash // oldest first
+	size   int
+	reads  int // blobs read from the object store, for tests
 }
 
 // get returns the kept content of a blob.
@@ -27,6 +28,9 @@ func (c *blobCache) get(h plumbing.Hash) ([]byte, bool) {
 // until the total fits.
 func (c *blobCache) put(h plumbing.Hash, b []byte) {
 	c.reads++
+	if c.hashed == nil {
+		c.hashed = map[plumbing.Hash]string{}
+	}
 	if len(b) > BlobCacheBytes {
 		return
 	}

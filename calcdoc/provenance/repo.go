@@ -243,31 +243,60 @@ func (r *Repo) committedHash(rel string) (string, error) {
 // is read from the object store once while it stays in the Repo's cache
 // (BlobCacheBytes); every call returns its own copy.
 func (r *Repo) ReadAt(commit, rel string) ([]byte, error) {
+	_, b, err := r.blobAt(commit, rel)
+	if err != nil {
+		return nil, err
+	}
+	return bytes.Clone(b), nil
+}
+
+// BlobHashAt returns the git blob hash (BlobHash) of rel's content at a
+// commit, as ReadAt would read it: the content is hashed, not taken from
+// the tree, so objects altered in the store show. Each blob's content is
+// hashed once per Repo, so a manifest that lists one large blob under
+// many paths is checked at the cost of one. Errors are ReadAt's.
+func (r *Repo) BlobHashAt(commit, rel string) (string, error) {
+	h, b, err := r.blobAt(commit, rel)
+	if err != nil {
+		return "", err
+	}
+	defer r.lock()()
+	if sum, ok := r.blobs.hashed[h]; ok {
+		return sum, nil
+	}
+	sum := BlobHash(b)
+	r.blobs.hashed[h] = sum
+	return sum, nil
+}
+
+// blobAt finds rel's blob at a commit and its content, shared with the
+// cache: callers copy it before handing it out, and never change it.
+func (r *Repo) blobAt(commit, rel string) (plumbing.Hash, []byte, error) {
 	if err := checkRel(rel); err != nil {
-		return nil, fmt.Errorf("file %s and repository %s: %w", rel, r.root, err)
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s and repository %s: %w", rel, r.root, err)
 	}
 	c, err := r.commitAt(commit)
 	if err != nil {
-		return nil, err
+		return plumbing.ZeroHash, nil, err
 	}
 	defer r.lock()()
 	f, err := c.File(rel)
 	if errors.Is(err, object.ErrFileNotFound) || errors.Is(err, object.ErrDirectoryNotFound) {
-		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrNotAtCommit)
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrNotAtCommit)
 	}
 	if err != nil {
-		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
 	}
 	if b, ok := r.blobs.get(f.Hash); ok {
-		return bytes.Clone(b), nil
+		return f.Hash, b, nil
 	}
 	s, err := f.Contents()
 	if err != nil {
-		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
 	}
 	b := []byte(s)
 	r.blobs.put(f.Hash, b)
-	return bytes.Clone(b), nil
+	return f.Hash, b, nil
 }
 
 // CommitDate returns the committer date of a commit (any revision Resolve

@@ -238,6 +238,37 @@ func TestReadAtReadsEachBlobOnce(t *testing.T) {
 	}
 }
 
+// TestBlobHashAtHashesEachBlobOnce: verify checks a data file by hashing
+// its content at the commit; one blob listed under many paths is read and
+// hashed once, and the hash is git's.
+func TestBlobHashAtHashesEachBlobOnce(t *testing.T) {
+	r := sampleRepo(t)
+	big := strings.Repeat("load,MW\n100,250\n", 20000) // fictional
+	paths := []string{"data/a.csv", "data/b.csv", "data/c/d.csv"}
+	for _, p := range paths {
+		r.write(p, big)
+	}
+	r.commit("Add copies")
+	repo := r.open(".")
+	want := r.git("rev-parse", "HEAD:data/a.csv")
+	for i := 0; i < 100; i++ {
+		for _, p := range paths {
+			if got, err := repo.BlobHashAt("HEAD", p); err != nil || got != want {
+				t.Fatalf("BlobHashAt(%s) = %s, %v; want %s", p, got, err, want)
+			}
+		}
+	}
+	if repo.blobs.reads != 1 || len(repo.blobs.hashed) != 1 {
+		t.Fatalf("%d reads, %d hashes; want one of each", repo.blobs.reads, len(repo.blobs.hashed))
+	}
+	if _, err := repo.BlobHashAt("HEAD", "data/none.csv"); !errors.Is(err, ErrNotAtCommit) {
+		t.Fatalf("BlobHashAt of a missing file: %v", err)
+	}
+	if _, err := repo.BlobHashAt("HEAD", "../x"); !errors.Is(err, ErrOutsideRepo) {
+		t.Fatalf("BlobHashAt of an escaping path: %v", err)
+	}
+}
+
 // TestBlobCacheBound: the cache drops its oldest blobs to stay within
 // BlobCacheBytes and never keeps a blob larger than that.
 func TestBlobCacheBound(t *testing.T) {
