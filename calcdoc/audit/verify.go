@@ -195,13 +195,13 @@ func (v *verifier) checkSource() bool {
 func (v *verifier) checkData() bool {
 	ok := true
 	for _, f := range v.m.Data {
-		b, err := v.repo.ReadAt(v.m.Commit, f.Path)
+		got, err := v.repo.BlobHashAt(v.m.Commit, f.Path) // each blob read and hashed once
 		switch {
 		case err != nil:
 			v.rep.add(Fails, "data", "%v", err)
 			ok = false
-		case provenance.BlobHash(b) != f.Hash:
-			v.rep.add(Fails, "data", "the manifest records blob %s for %s, but commit %s holds blob %s", f.Hash, f.Path, shortHash(v.m.Commit), provenance.BlobHash(b))
+		case got != f.Hash:
+			v.rep.add(Fails, "data", "the manifest records blob %s for %s, but commit %s holds blob %s", f.Hash, f.Path, shortHash(v.m.Commit), got)
 			ok = false
 		default:
 			v.rep.add(Holds, "data", "%s at the commit is blob %s, as recorded", f.Path, f.Hash)

@@ -81,24 +81,36 @@ func TestParseAllowedSignersErrors(t *testing.T) {
 		"opt@example.com no-touch-required " + key,
 		`time@example.com valid-after="2024" ` + key,
 		`"unterminated@example.com ` + key,
-		`empty@example.com,,x@example.com ` + key,
-		`ns@example.com namespaces="" ` + key,
+		`empty@example.com,,x@example.com ` + key, // read by ssh-keygen: the empty pattern matches nothing
+		`ns@example.com namespaces="" ` + key,     // read by ssh-keygen: no namespace matches
+		`twice@example.com valid-before="20300101Z",valid-before="20200101Z" ` + key,
+		`unquoted@example.com valid-before=20300101 ` + key,
+		`order@example.com valid-after="20300101Z",valid-before="20200101Z" ` + key,
+		"type@example.com ssh-rsa " + strings.Fields(key)[1],
+		"nul@example.com " + key + " comment\x00 hidden", // ssh-keygen stops reading at the NUL
 	}, "\n")
 	got, err := ParseAllowedSigners([]byte(file))
-	if len(got) != 1 || got[0].Principals[0] != "good@example.com" {
-		t.Errorf("good lines = %v, want the first one only", got)
+	var lines []int
+	for _, s := range got {
+		lines = append(lines, s.Line)
+	}
+	if !reflect.DeepEqual(lines, []int{1, 7, 8}) {
+		t.Errorf("good lines = %v, want [1 7 8]", lines)
 	}
 	if !errors.Is(err, ErrAllowedSigners) {
 		t.Fatalf("got %v, want ErrAllowedSigners", err)
 	}
 	want := []string{
 		`line 2: principals "lonely@example.com" are not followed by a key`,
-		`line 3: no valid public key after the principals "bad@example.com"`,
-		`line 4: unknown option "no-touch-required"`,
-		`line 5: time "2024" is not YYYYMMDD[HHMM[SS]][Z]`,
-		`line 6: unterminated quote in the principals`,
-		`line 7: empty principal in "empty@example.com,,x@example.com"`,
-		`line 8: option "namespaces" needs a value`,
+		`line 3: the ssh-ed25519 key is not valid base64`,
+		`line 4: unknown option "no-touch-required": the options are cert-authority, namespaces="...", valid-after="..." and valid-before="..."`,
+		`line 5: valid-after time "2024" is not YYYYMMDD[HHMM[SS]], followed by Z for UTC (as valid-after="20300101Z")`,
+		`line 6: unterminated quote in the principals: close it with "`,
+		`line 9: option valid-before is given twice: give each option once`,
+		`line 10: the value of valid-before must be in double quotes, as valid-before="..."`,
+		`line 11: valid-before 2020-01-01T00:00:00Z is not later than valid-after 2030-01-01T00:00:00Z`,
+		`line 12: the line names a ssh-rsa key but the base64 holds a ssh-ed25519 key`,
+		`line 13: the line holds a NUL byte: an allowed-signers file is text`,
 	}
 	if got := strings.Split(err.Error(), "\n"); !reflect.DeepEqual(got, want) {
 		t.Fatalf("errors =\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
@@ -106,6 +118,77 @@ func TestParseAllowedSignersErrors(t *testing.T) {
 	var lineErr *AllowedSignersError
 	if !errors.As(err, &lineErr) || lineErr.Line != 2 {
 		t.Fatalf("errors.As gives %v, want line 2", lineErr)
+	}
+}
+
+// TestAllowedSignersDuplicateValidBefore is issue 11 item 16: a line with
+// two valid-before options was read, the last one won, and an expired key
+// verified; ssh-keygen -Y verify refuses the line ("multiple valid-before
+// clauses"), and so does vouch now, at its line, whichever comes first.
+func TestAllowedSignersDuplicateValidBefore(t *testing.T) {
+	key, signer := pubLine(t)
+	for _, opts := range []string{
+		`valid-before="20200101Z",valid-before="29990101Z"`,
+		`valid-before="29990101Z",valid-before="20200101Z"`,
+		`VALID-BEFORE="20200101Z",valid-before="29990101Z"`,
+		`valid-after="20200101Z",valid-after="20210101Z"`,
+		`namespaces="calc-package@vouch",namespaces="*"`,
+	} {
+		file := "# fictional signer\nexpired@example.com " + opts + " " + key + "\n"
+		signers, err := ParseAllowedSigners([]byte(file))
+		var lineErr *AllowedSignersError
+		if !errors.As(err, &lineErr) || lineErr.Line != 2 || !strings.Contains(err.Error(), "given twice") {
+			t.Errorf("%s: error %v, want one at line 2 saying the option is given twice", opts, err)
+		}
+		if signers.Allows("expired@example.com", signer.PublicKey()) {
+			t.Errorf("%s: the key is allowed", opts)
+		}
+	}
+}
+
+// TestAllowsAtSigningTime: a key is judged at the time asked for, both
+// bounds included to the second, as ssh-keygen -Overify-time does; Check
+// says why a key is refused.
+func TestAllowsAtSigningTime(t *testing.T) {
+	key, signer := pubLine(t)
+	pub := signer.PublicKey()
+	signers, err := ParseAllowedSigners([]byte(
+		`retired@example.com valid-after="20200101Z",valid-before="20250101Z" ` + key + "\n" +
+			`git@example.com namespaces="git" ` + key + "\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	utc := func(y, mo, d, h, mi, s int) time.Time { return time.Date(y, time.Month(mo), d, h, mi, s, 0, time.UTC) }
+	cases := []struct {
+		at   time.Time
+		want bool
+	}{
+		{utc(2019, 12, 31, 23, 59, 59), false},
+		{utc(2020, 1, 1, 0, 0, 0), true},
+		{utc(2022, 6, 1, 12, 0, 0), true},
+		{utc(2025, 1, 1, 0, 0, 0).Add(999 * time.Millisecond), true},
+		{utc(2025, 1, 1, 0, 0, 1), false},
+	}
+	for _, c := range cases {
+		if got := signers.AllowsAt("retired@example.com", pub, Namespace, c.at); got != c.want {
+			t.Errorf("AllowsAt(%v) = %v, want %v", c.at, got, c.want)
+		}
+	}
+	if signers.Allows("retired@example.com", pub) {
+		t.Error("a key retired in 2025 is allowed now")
+	}
+	err = signers.Check("retired@example.com", pub, Namespace, utc(2026, 1, 1, 0, 0, 0))
+	if !errors.Is(err, ErrNotAllowed) || !strings.Contains(err.Error(),
+		"line 1 makes it valid only until 2025-01-01T00:00:00Z, before 2026-01-01T00:00:00Z") {
+		t.Errorf("Check after valid-before = %v", err)
+	}
+	err = signers.Check("git@example.com", pub, Namespace, utc(2022, 1, 1, 0, 0, 0))
+	if !errors.Is(err, ErrNotAllowed) || !strings.Contains(err.Error(), `line 2 does not allow namespace "calc-package@vouch"`) {
+		t.Errorf("Check in another namespace = %v", err)
+	}
+	err = signers.Check("nobody@example.com", pub, Namespace, utc(2022, 1, 1, 0, 0, 0))
+	if !errors.Is(err, ErrNotAllowed) || !strings.Contains(err.Error(), "no line lists key") {
+		t.Errorf("Check of an unlisted principal = %v", err)
 	}
 }
 

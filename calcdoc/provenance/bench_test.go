@@ -3,6 +3,7 @@ package provenance
 import (
 	"bytes"
 	"fmt"
+	"os"
 	"os/exec"
 	"path/filepath"
 	"reflect"
@@ -94,6 +95,31 @@ func BenchmarkProvenance(b *testing.B) {
 			}
 		}
 	})
+	b.Run("Open", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := Open(path); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+	b.Run("History-fresh", func(b *testing.B) {
+		for b.Loop() {
+			fresh, err := Open(path)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if _, err := fresh.History(calcFile); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+	b.Run("FileState", func(b *testing.B) {
+		for b.Loop() {
+			if _, _, _, err := repo.FileState(calcFile); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
 	b.Run("Clean-git", func(b *testing.B) {
 		for b.Loop() {
 			if _, err := repo.Clean(); err != nil {
@@ -105,6 +131,27 @@ func BenchmarkProvenance(b *testing.B) {
 		for b.Loop() {
 			if _, err := repo.cleanGoGit(); err != nil {
 				b.Fatal(err)
+			}
+		}
+	})
+	// With the commit-graph file git gc writes: commits are read from it.
+	r.git("commit-graph", "write", "--reachable")
+	defer os.Remove(filepath.Join(r.dir, ".git", "objects", "info", "commit-graph"))
+	b.Run("History-graph", func(b *testing.B) {
+		for b.Loop() {
+			if _, err := repo.History(calcFile); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+	b.Run("History-fresh-graph", func(b *testing.B) {
+		for b.Loop() {
+			fresh, err := Open(path)
+			if err != nil {
+				b.Fatal(err)
+			}
+			if _, err := fresh.History(calcFile); err != nil || fresh.graphReads == 0 {
+				b.Fatalf("History: %v, %d commits from the graph", err, fresh.graphReads)
 			}
 		}
 	})
@@ -132,4 +179,38 @@ func provenanceOnce(b *testing.B, path string) {
 	if clean, err := repo.Clean(); err != nil || !clean {
 		b.Fatalf("Clean: %v, %v", clean, err)
 	}
+}
+
+// BenchmarkReadAtBigFile reads a committed 20 MB data file (fictional
+// readings): "first" opens the repository and reads it, as one read did
+// before blobs were cached; "again" reads it from a Repo that has read it
+// once. Issue 11 item 11 listed such a file 300 times in a manifest.
+func BenchmarkReadAtBigFile(b *testing.B) {
+	r := newTestRepo(b)
+	var big strings.Builder
+	for i := 0; big.Len() < 20<<20; i++ {
+		fmt.Fprintf(&big, "%d,%d.%03d,%d\n", i, 500+i*7919%1000, i*104729%1000, i*31%977)
+	}
+	r.write("data/big.csv", big.String())
+	r.commit("Add big data file")
+	r.git("gc", "-q")
+	b.Run("first", func(b *testing.B) {
+		for b.Loop() {
+			repo := r.open(".")
+			if got, err := repo.ReadAt("HEAD", "data/big.csv"); err != nil || len(got) != big.Len() {
+				b.Fatal(err)
+			}
+		}
+	})
+	repo := r.open(".")
+	if _, err := repo.ReadAt("HEAD", "data/big.csv"); err != nil {
+		b.Fatal(err)
+	}
+	b.Run("again", func(b *testing.B) {
+		for b.Loop() {
+			if got, err := repo.ReadAt("HEAD", "data/big.csv"); err != nil || len(got) != big.Len() {
+				b.Fatal(err)
+			}
+		}
+	})
 }

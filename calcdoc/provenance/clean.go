@@ -25,6 +25,27 @@ func (r *Repo) Clean() (bool, error) {
 	return r.cleanGoGit()
 }
 
+// StartClean begins Clean in the background and returns the function that
+// waits for its answer, so that a caller can walk the history while git
+// status reads the work tree (on 5,000 files, the larger part of what a
+// render asks of git). The answer is Clean's; the wait function may be
+// called once.
+func (r *Repo) StartClean() (wait func() (bool, error)) {
+	type answer struct {
+		clean bool
+		err   error
+	}
+	ch := make(chan answer, 1)
+	go func() {
+		clean, err := r.Clean()
+		ch <- answer{clean, err}
+	}()
+	return func() (bool, error) {
+		a := <-ch
+		return a.clean, a.err
+	}
+}
+
 // cleanCLI asks the git executable. --no-optional-locks keeps it from
 // refreshing the index, so it never contends for index.lock.
 func (r *Repo) cleanCLI() (bool, error) {
@@ -65,8 +86,7 @@ func gitEnv() []string {
 // cleanGoGit is the fallback through go-git's Status, counting tracked files
 // only. Status must succeed: go-git reports a nil status as clean.
 func (r *Repo) cleanGoGit() (bool, error) {
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	wt, err := r.git.Worktree()
 	if err != nil {
 		return false, fmt.Errorf("work tree of %s: %w", r.root, err)

@@ -32,4 +32,10 @@ var (
 	ErrNoAgent = errors.New("no ssh-agent")
 	// ErrAllowedSigners reports a malformed allowed-signers file.
 	ErrAllowedSigners = errors.New("invalid allowed-signers file")
+	// ErrNotAllowed reports a key that an allowed-signers file does not
+	// allow for a principal, namespace and time.
+	ErrNotAllowed = errors.New("key not allowed by the signers file")
+	// ErrSigningTime reports a signing time that is malformed, earlier
+	// than the commit signed, or later than now.
+	ErrSigningTime = errors.New("signing time out of bounds")
 )

@@ -1,14 +1,19 @@
 package provenance
 
 import (
+	"bytes"
 	"container/heap"
+	"encoding/binary"
 	"errors"
 	"fmt"
+	"io"
+	"path"
 	"strings"
 	"time"
 
 	"github.com/go-git/go-git/v5/plumbing"
 	"github.com/go-git/go-git/v5/plumbing/filemode"
+	commitgraph "github.com/go-git/go-git/v5/plumbing/format/commitgraph/v2"
 	"github.com/go-git/go-git/v5/plumbing/object"
 	"github.com/go-git/go-git/v5/plumbing/storer"
 )
@@ -58,23 +63,180 @@ func (r *Repo) HistoryAt(rev, rel string) ([]Revision, error) {
 	if err != nil {
 		return nil, err
 	}
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	w, err := newHistoryWalk(r, rel)
 	if err != nil {
 		return nil, err
 	}
-	return w.run(plumbing.NewHash(start))
+	defer w.close()
+	revs, err := w.run(plumbing.NewHash(start))
+	r.graphReads += w.graphReads
+	return revs, err
 }
 
 // historyWalk holds the state of one History call.
 type historyWalk struct {
-	s       storer.EncodedObjectStorer
-	look    *pathLookup
-	shallow map[plumbing.Hash]bool
-	entries map[plumbing.Hash]entryID // commit -> the file's entry
-	seen    map[plumbing.Hash]bool
-	queue   commitQueue
+	s          storer.EncodedObjectStorer
+	graph      commitgraph.Index // the repository's commit-graph file, or nil
+	graphReads int               // commits read from the graph, for tests
+	look       *pathLookup
+	shallow    map[plumbing.Hash]bool
+	entries    map[plumbing.Hash]entryID // commit -> the file's entry
+	seen       map[plumbing.Hash]bool
+	queue      commitQueue
+}
+
+// commitNode is what the walk needs of a commit: read from the
+// commit-graph file when the repository has one that lists the commit
+// (no object to inflate), else from the commit object.
+type commitNode struct {
+	hash, tree plumbing.Hash
+	parents    []plumbing.Hash
+	when       time.Time // committer date
+}
+
+// openCommitGraph opens the repository's single commit-graph file
+// (objects/info/commit-graph, written by git gc), or returns nil. Split
+// commit-graph chains are not read.
+func openCommitGraph(r *Repo) commitgraph.Index {
+	if r.store == nil {
+		return nil
+	}
+	f, err := r.store.Filesystem().Open(path.Join("objects", "info", "commit-graph"))
+	if err != nil {
+		return nil
+	}
+	data, err := io.ReadAll(io.LimitReader(f, maxCommitGraph+1))
+	_ = f.Close()
+	if err != nil || len(data) > maxCommitGraph {
+		return nil
+	}
+	if !graphFileSane(data) {
+		return nil
+	}
+	idx, err := openGraphFile(memFile{bytes.NewReader(data)})
+	if err != nil {
+		return nil
+	}
+	return idx
+}
+
+// graphFileSane checks a commit-graph file's layout (git's
+// Documentation/gitformat-commit-graph.txt) before go-git reads it, as
+// go-git trusts the offsets and counts it finds there: signature CGPH,
+// version 1, SHA-1; a chunk table whose offsets rise within the file and
+// ends with a zero id; a fanout table that never decreases; and OID
+// lookup and commit data chunks of exactly the sizes the fanout's count
+// of N commits implies (20 and 36 bytes a commit).
+func graphFileSane(data []byte) bool {
+	const header, entry = 8, 12
+	if len(data) < header || string(data[:4]) != "CGPH" || data[4] != 1 || data[5] != 1 {
+		return false
+	}
+	chunks := int(data[6])
+	if len(data) < header+(chunks+1)*entry {
+		return false
+	}
+	start := map[string]uint64{}
+	size := map[string]uint64{}
+	for i := 0; i <= chunks; i++ {
+		e := data[header+i*entry:]
+		id, off := string(e[:4]), binary.BigEndian.Uint64(e[4:12])
+		if off > uint64(len(data)) || off < uint64(header+(chunks+1)*entry) {
+			return false
+		}
+		if i == chunks {
+			if id != "\x00\x00\x00\x00" {
+				return false
+			}
+			break
+		}
+		next := binary.BigEndian.Uint64(data[header+(i+1)*entry+4:])
+		if next < off || id == "\x00\x00\x00\x00" || start[id] != 0 {
+			return false
+		}
+		start[id], size[id] = off, next-off
+	}
+	if size["OIDF"] != 1024 || start["OIDL"] == 0 || start["CDAT"] == 0 {
+		return false
+	}
+	fanout := data[start["OIDF"]:]
+	prev := uint32(0)
+	for i := 0; i < 256; i++ {
+		v := binary.BigEndian.Uint32(fanout[4*i:])
+		if v < prev {
+			return false
+		}
+		prev = v
+	}
+	n := uint64(prev)
+	return size["OIDL"] == 20*n && size["CDAT"] == 36*n
+}
+
+// maxCommitGraph bounds the commit-graph file read into memory (about a
+// million commits); a larger one is not used.
+const maxCommitGraph = 64 << 20
+
+// memFile is a commit-graph file read into memory: go-git's look-ups then
+// cost no system calls.
+type memFile struct{ *bytes.Reader }
+
+// Close does nothing.
+func (memFile) Close() error { return nil }
+
+// openGraphFile opens a commit-graph file; a file that makes go-git panic
+// counts as unreadable.
+func openGraphFile(f commitgraph.ReaderAtCloser) (idx commitgraph.Index, err error) {
+	defer func() {
+		if recover() != nil {
+			idx, err = nil, errors.New("unreadable commit-graph")
+		}
+	}()
+	return commitgraph.OpenFileIndex(f)
+}
+
+// graphNode reads a commit from the commit-graph file. A commit the file
+// does not list, or a file go-git cannot read (it then is not used again),
+// gives ok false.
+func (w *historyWalk) graphNode(h plumbing.Hash) (n *commitNode, ok bool) {
+	if w.graph == nil {
+		return nil, false
+	}
+	defer func() {
+		if recover() != nil {
+			_ = w.graph.Close()
+			w.graph, n, ok = nil, nil, false
+		}
+	}()
+	i, err := w.graph.GetIndexByHash(h)
+	if err != nil {
+		return nil, false
+	}
+	d, err := w.graph.GetCommitDataByIndex(i)
+	if err != nil || len(d.ParentHashes) != len(d.ParentIndexes) {
+		return nil, false
+	}
+	w.graphReads++
+	return &commitNode{hash: h, tree: d.TreeHash, parents: d.ParentHashes, when: d.When}, true
+}
+
+// node returns what the walk needs of commit h.
+func (w *historyWalk) node(h plumbing.Hash) (*commitNode, error) {
+	if n, ok := w.graphNode(h); ok {
+		return n, nil
+	}
+	c, err := object.GetCommit(w.s, h)
+	if err != nil {
+		return nil, fmt.Errorf("commit %s: %w", h, err)
+	}
+	return &commitNode{hash: h, tree: c.TreeHash, parents: c.ParentHashes, when: c.Committer.When}, nil
+}
+
+// close releases the commit-graph file.
+func (w *historyWalk) close() {
+	if w.graph != nil {
+		_ = w.graph.Close()
+	}
 }
 
 func newHistoryWalk(r *Repo, rel string) (*historyWalk, error) {
@@ -84,6 +246,7 @@ func newHistoryWalk(r *Repo, rel string) (*historyWalk, error) {
 	}
 	w := &historyWalk{
 		s:       r.git.Storer,
+		graph:   openCommitGraph(r),
 		look:    newPathLookup(r.git.Storer, rel),
 		shallow: map[plumbing.Hash]bool{},
 		entries: map[plumbing.Hash]entryID{},
@@ -102,12 +265,16 @@ func (w *historyWalk) run(start plumbing.Hash) ([]Revision, error) {
 	}
 	var revs []Revision
 	for w.queue.Len() > 0 {
-		c := heap.Pop(&w.queue).(*queued).c
-		listed, follow, err := w.step(c)
+		n := heap.Pop(&w.queue).(*queued).c
+		listed, follow, err := w.step(n)
 		if err != nil {
 			return nil, err
 		}
 		if listed {
+			c, err := object.GetCommit(w.s, n.hash)
+			if err != nil {
+				return nil, fmt.Errorf("commit %s: %w", n.hash, err)
+			}
 			revs = append(revs, revisionOf(c))
 		}
 		for _, p := range follow {
@@ -121,13 +288,13 @@ func (w *historyWalk) run(start plumbing.Hash) ([]Revision, error) {
 
 // step applies the simplification rule to one commit: whether it is listed
 // and which parents to follow.
-func (w *historyWalk) step(c *object.Commit) (listed bool, follow []plumbing.Hash, err error) {
+func (w *historyWalk) step(c *commitNode) (listed bool, follow []plumbing.Hash, err error) {
 	mine, err := w.entryOf(c)
 	if err != nil {
 		return false, nil, err
 	}
-	parents := c.ParentHashes
-	if w.shallow[c.Hash] {
+	parents := c.parents
+	if w.shallow[c.hash] {
 		parents = nil
 	}
 	if len(parents) == 0 {
@@ -152,11 +319,11 @@ func (w *historyWalk) push(h plumbing.Hash) error {
 		return nil
 	}
 	w.seen[h] = true
-	c, err := object.GetCommit(w.s, h)
+	n, err := w.node(h)
 	if err != nil {
-		return fmt.Errorf("commit %s: %w", h, err)
+		return err
 	}
-	heap.Push(&w.queue, &queued{c: c, seq: len(w.seen)})
+	heap.Push(&w.queue, &queued{c: n, seq: len(w.seen)})
 	return nil
 }
 
@@ -164,22 +331,22 @@ func (w *historyWalk) entryOfHash(h plumbing.Hash) (entryID, error) {
 	if e, ok := w.entries[h]; ok {
 		return e, nil
 	}
-	c, err := object.GetCommit(w.s, h)
-	if err != nil {
-		return entryID{}, fmt.Errorf("commit %s: %w", h, err)
-	}
-	return w.entryOf(c)
-}
-
-func (w *historyWalk) entryOf(c *object.Commit) (entryID, error) {
-	if e, ok := w.entries[c.Hash]; ok {
-		return e, nil
-	}
-	e, err := w.look.entry(c.TreeHash)
+	n, err := w.node(h)
 	if err != nil {
 		return entryID{}, err
 	}
-	w.entries[c.Hash] = e
+	return w.entryOf(n)
+}
+
+func (w *historyWalk) entryOf(c *commitNode) (entryID, error) {
+	if e, ok := w.entries[c.hash]; ok {
+		return e, nil
+	}
+	e, err := w.look.entry(c.tree)
+	if err != nil {
+		return entryID{}, err
+	}
+	w.entries[c.hash] = e
 	return e, nil
 }
 
@@ -209,7 +376,7 @@ func subject(msg string) string {
 // queued is a commit waiting in the walk; seq breaks date ties first in,
 // first out, as git's own queue does.
 type queued struct {
-	c   *object.Commit
+	c   *commitNode
 	seq int
 }
 
@@ -218,7 +385,7 @@ type commitQueue []*queued
 
 func (q commitQueue) Len() int { return len(q) }
 func (q commitQueue) Less(i, j int) bool {
-	ti, tj := q[i].c.Committer.When, q[j].c.Committer.When
+	ti, tj := q[i].c.when, q[j].c.when
 	if !ti.Equal(tj) {
 		return ti.After(tj)
 	}

@@ -5,6 +5,7 @@ import (
 	"os/exec"
 	"path/filepath"
 	"reflect"
+	"strings"
 	"testing"
 	"time"
 )
@@ -23,7 +24,46 @@ func checkLikeGit(t *testing.T, r *testRepo, rel string, wantLen int) []Revision
 	if len(revs) != wantLen {
 		t.Fatalf("History(%s) has %d commits, want %d", rel, len(revs), wantLen)
 	}
+	// Again with a commit-graph file listing every commit: the walk reads
+	// commits from it. It stays behind, stale once the test commits again,
+	// so the next check walks partly from the graph, partly from objects.
+	r.git("commit-graph", "write", "--reachable")
+	repo := r.open(".")
+	withGraph, err := repo.History(rel)
+	if err != nil {
+		t.Fatalf("History(%s) with a commit-graph: %v", rel, err)
+	}
+	if !reflect.DeepEqual(withGraph, revs) || repo.graphReads == 0 {
+		t.Fatalf("History(%s) with a commit-graph (%d commits read from it) =\n%v\nwithout =\n%v",
+			rel, repo.graphReads, hashes(withGraph), hashes(revs))
+	}
 	return revs
+}
+
+// TestHistoryCorruptCommitGraph: a commit-graph file go-git cannot read
+// is not used; the history is read from the commit objects.
+func TestHistoryCorruptCommitGraph(t *testing.T) {
+	r := sampleRepo(t)
+	want := checkLikeGit(t, r, calcFile, 2)
+	graph := filepath.Join(r.dir, ".git", "objects", "info", "commit-graph")
+	good, err := os.ReadFile(graph)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for name, bad := range map[string][]byte{
+		"empty":     {},
+		"header":    good[:8],
+		"truncated": good[:len(good)/2],
+		"garbled":   append(append([]byte{}, good[:64]...), make([]byte, len(good)-64)...),
+	} {
+		if err := os.WriteFile(graph, bad, 0o644); err != nil {
+			t.Fatal(err)
+		}
+		got, err := r.open(".").History(calcFile)
+		if err != nil || !reflect.DeepEqual(got, want) {
+			t.Errorf("%s commit-graph: History = %v, %v; want %v", name, hashes(got), err, hashes(want))
+		}
+	}
 }
 
 func TestHistoryTreesame(t *testing.T) {
@@ -186,4 +226,46 @@ func TestSubject(t *testing.T) {
 			t.Errorf("subject(%q) = %q, want %q", tt.msg, got, tt.want)
 		}
 	}
+}
+
+// TestNoPackDescriptorOutlivesACall: the pack files go-git keeps open
+// during a history walk (issue 16 item 5: reopening them for every object
+// was most of the walk's time) are closed when the call returns.
+func TestNoPackDescriptorOutlivesACall(t *testing.T) {
+	if _, err := os.ReadDir("/proc/self/fd"); err != nil {
+		t.Skip("no /proc/self/fd to count descriptors")
+	}
+	r := sampleRepo(t)
+	r.git("gc", "-q") // pack the objects
+	repo := r.open(".")
+	if !strings.Contains(r.git("count-objects", "-v"), "packs: 1") || repo.store == nil {
+		t.Fatal("the objects are not packed, or the repository is not opened with kept descriptors")
+	}
+	for i := 0; i < 3; i++ {
+		if revs, err := repo.History(calcFile); err != nil || len(revs) != 2 {
+			t.Fatalf("History = %d revisions, %v", len(revs), err)
+		}
+		if _, err := repo.ReadAt("HEAD", calcFile); err != nil {
+			t.Fatal(err)
+		}
+		if n := openPacks(t); n != 0 {
+			t.Fatalf("%d pack files still open after the calls", n)
+		}
+	}
+}
+
+// openPacks counts this process's descriptors open on .pack files.
+func openPacks(t *testing.T) int {
+	t.Helper()
+	fds, err := os.ReadDir("/proc/self/fd")
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := 0
+	for _, fd := range fds {
+		if target, err := os.Readlink("/proc/self/fd/" + fd.Name()); err == nil && strings.HasSuffix(target, ".pack") {
+			n++
+		}
+	}
+	return n
 }

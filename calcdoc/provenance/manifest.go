@@ -108,9 +108,14 @@ func (m *Manifest) Validate() error {
 
 // ParseManifest reads a manifest written by Canonical, or any JSON text
 // with the same keys and values (digests are recomputed from the values,
-// so whitespace and key order do not matter). Unknown keys, a missing or
-// different format, and trailing data are errors.
+// so whitespace and key order do not matter). Unknown keys, a key given
+// twice in one object, a missing or different format, trailing data, and
+// a data file listed twice or by a path that is not a clean slash path
+// inside the repository are errors.
 func ParseManifest(data []byte) (*Manifest, error) {
+	if err := checkDuplicateKeys(data); err != nil {
+		return nil, err
+	}
 	m := new(Manifest)
 	wire := struct {
 		Format string `json:"format"`
@@ -127,7 +132,84 @@ func ParseManifest(data []byte) (*Manifest, error) {
 	if wire.Format != ManifestFormat {
 		return nil, fmt.Errorf("%w: format %q, want %q", ErrManifest, wire.Format, ManifestFormat)
 	}
+	if err := checkDataPaths(m.Data); err != nil {
+		return nil, err
+	}
 	return m, nil
+}
+
+// checkDataPaths refuses a data list that names a file twice or by a path
+// that is not clean: a manifest lists each file it read once.
+func checkDataPaths(files []DataFile) error {
+	first := make(map[string]int, len(files))
+	for i, f := range files {
+		if err := checkRel(f.Path); err != nil {
+			return fmt.Errorf("%w: data entry %d: %q is not a clean slash path inside the repository", ErrManifest, i+1, clipPath(f.Path))
+		}
+		if j, ok := first[f.Path]; ok {
+			return fmt.Errorf("%w: data file %q is listed twice, as entries %d and %d: a manifest lists each file once", ErrManifest, clipPath(f.Path), j+1, i+1)
+		}
+		first[f.Path] = i
+	}
+	return nil
+}
+
+// clipPath cuts a path quoted in a message to a readable length.
+func clipPath(p string) string {
+	if len(p) > 120 {
+		return p[:120] + "..."
+	}
+	return p
+}
+
+// checkDuplicateKeys refuses JSON text in which an object gives a key
+// twice, in any case: encoding/json would keep the last silently. Malformed text is
+// left to the decoder to report.
+func checkDuplicateKeys(data []byte) error {
+	dec := json.NewDecoder(bytes.NewReader(data))
+	type frame struct {
+		keys   map[string]bool
+		object bool
+		key    bool // the next token in this object is a key
+	}
+	var stack []frame
+	for {
+		tok, err := dec.Token()
+		if err != nil {
+			return nil
+		}
+		top := len(stack) - 1
+		if top >= 0 && stack[top].object && stack[top].key {
+			if k, ok := tok.(string); ok {
+				// encoding/json matches keys without regard to case.
+				folded := strings.ToLower(strings.ToUpper(k))
+				if stack[top].keys[folded] {
+					return fmt.Errorf("%w: key %q is given twice in one object", ErrManifest, clipPath(k))
+				}
+				stack[top].keys[folded] = true
+				stack[top].key = false
+				continue
+			}
+		}
+		switch tok {
+		case json.Delim('{'):
+			stack = append(stack, frame{keys: map[string]bool{}, object: true, key: true})
+		case json.Delim('['):
+			stack = append(stack, frame{})
+		case json.Delim('}'), json.Delim(']'):
+			if top < 0 {
+				return nil
+			}
+			stack = stack[:top]
+			if top > 0 && stack[top-1].object {
+				stack[top-1].key = true
+			}
+		default:
+			if top >= 0 && stack[top].object {
+				stack[top].key = true
+			}
+		}
+	}
 }
 
 // object converts the manifest for writeCanonical.

@@ -228,6 +228,56 @@ func TestParseManifestErrors(t *testing.T) {
 	}
 }
 
+// TestManifestListsPathTwice is issue 11 item 11: a package whose manifest
+// listed one committed 20 MB file 300 times took 26 s to verify. A
+// manifest lists each file it read once, so a path given twice (or not as
+// a clean path) is refused where the manifest is read, naming the entries.
+func TestManifestListsPathTwice(t *testing.T) {
+	m := sampleManifest(t)
+	big := DataFile{Path: "data/big.csv", Hash: "e69de29bb2d1d6434b8b29ae775ad8c2e48c5391"}
+	m.Data = append(m.Data, big)
+	for i := 0; i < 299; i++ {
+		m.Data = append(m.Data, big)
+	}
+	b, err := m.Canonical()
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = ParseManifest(b)
+	if !errors.Is(err, ErrManifest) || !strings.Contains(err.Error(),
+		`data file "data/big.csv" is listed twice, as entries 2 and 3: a manifest lists each file once`) {
+		t.Fatalf("ParseManifest = %v", err)
+	}
+	for _, p := range []string{"data/./big.csv", "../big.csv", "/etc/big.csv", "", ".git/config", "data//big.csv"} {
+		m.Data = []DataFile{{Path: p, Hash: big.Hash}}
+		b, _ := m.Canonical()
+		if _, err := ParseManifest(b); !errors.Is(err, ErrManifest) || !strings.Contains(err.Error(), "not a clean slash path") {
+			t.Errorf("data path %q: ParseManifest = %v", p, err)
+		}
+	}
+}
+
+// TestManifestKeyGivenTwice: encoding/json keeps the last of two equal
+// keys (in any case) silently, so a manifest could show one commit to a
+// reader and another to verify; such a manifest is refused.
+func TestManifestKeyGivenTwice(t *testing.T) {
+	good, _ := sampleManifest(t).Canonical()
+	for _, tt := range []struct{ name, in, key string }{
+		{"top level", strings.Replace(string(good), `"clean":true`, `"clean":true,"commit":"ffff"`, 1), "commit"},
+		{"other case", strings.Replace(string(good), `"clean":true`, `"clean":true,"COMMIT":"ffff"`, 1), "commit"},
+		{"in a result", strings.Replace(string(good), `{"name":"p_1"`, `{"name":"p_1","si":1,"name":"q"`, 1), "name"},
+		{"in a data entry", strings.Replace(string(good), `{"hash":`, `{"path":"a","hash":`, 1), "path"},
+	} {
+		_, err := ParseManifest([]byte(tt.in))
+		if !errors.Is(err, ErrManifest) || !strings.Contains(err.Error(), `key "`+tt.key+`" is given twice`) {
+			t.Errorf("%s: ParseManifest = %v", tt.name, err)
+		}
+	}
+	if _, err := ParseManifest(good); err != nil {
+		t.Fatalf("the sample no longer parses: %v", err)
+	}
+}
+
 func TestPayload(t *testing.T) {
 	m := sampleManifest(t)
 	d, _ := m.Digest()

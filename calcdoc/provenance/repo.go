@@ -1,6 +1,7 @@
 package provenance
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"os"
@@ -12,8 +13,10 @@ import (
 
 	"github.com/go-git/go-git/v5"
 	"github.com/go-git/go-git/v5/plumbing"
+	"github.com/go-git/go-git/v5/plumbing/cache"
 	"github.com/go-git/go-git/v5/plumbing/filemode"
 	"github.com/go-git/go-git/v5/plumbing/object"
+	"github.com/go-git/go-git/v5/storage/filesystem"
 )
 
 // Repo is a git repository opened from a path inside its work tree.
@@ -21,9 +24,46 @@ import (
 // A Repo is safe for concurrent use: its methods take a lock around go-git,
 // whose object storage is not meant to be shared between goroutines.
 type Repo struct {
-	mu   sync.Mutex
-	git  *git.Repository
-	root string // absolute work-tree root, symbolic links resolved
+	mu    sync.Mutex
+	git   *git.Repository
+	store *filesystem.Storage // git's storage, pack files kept open during a call; nil if not on disk
+	root  string              // absolute work-tree root, symbolic links resolved
+	blobs blobCache           // contents ReadAt has read, by blob hash
+
+	graphReads int // commits history walks read from the commit-graph file, for tests
+}
+
+// lock takes the Repo's mutex and returns the function that gives it back.
+// Within one call go-git keeps the pack files open (a history walk reads
+// hundreds of objects, and reopening the pack for each was most of its
+// time); unlocking closes them, so no descriptor outlives the call.
+func (r *Repo) lock() (unlock func()) {
+	r.mu.Lock()
+	return r.unlock
+}
+
+// unlock closes the pack files the call opened and releases the mutex.
+func (r *Repo) unlock() {
+	if r.store != nil {
+		_ = r.store.Close() // only closes read-only descriptors
+	}
+	r.mu.Unlock()
+}
+
+// keepPacksOpen reopens r on the same storage with go-git's KeepDescriptors
+// option, which PlainOpen does not offer. On any trouble it keeps r as it is.
+func keepPacksOpen(r *git.Repository, wt *git.Worktree) (*git.Repository, *filesystem.Storage) {
+	st, ok := r.Storer.(*filesystem.Storage)
+	if !ok {
+		return r, nil
+	}
+	kept := filesystem.NewStorageWithOptions(st.Filesystem(), cache.NewObjectLRUDefault(),
+		filesystem.Options{KeepDescriptors: true})
+	r2, err := git.Open(kept, wt.Filesystem)
+	if err != nil {
+		return r, nil
+	}
+	return r2, kept
 }
 
 // Open finds the repository whose work tree holds path (a file or a
@@ -53,7 +93,8 @@ func Open(path string) (*Repo, error) {
 	if err != nil {
 		return nil, fmt.Errorf("open work tree for %s: %w", path, err)
 	}
-	return &Repo{git: r, root: root}, nil
+	r, store := keepPacksOpen(r, wt)
+	return &Repo{git: r, store: store, root: root}, nil
 }
 
 // Root returns the absolute path of the work tree's top directory, with
@@ -125,8 +166,7 @@ func realPath(p string) (string, error) {
 // Head returns the full hash of the commit HEAD points at, or an error
 // wrapping ErrNoCommits when there is none yet.
 func (r *Repo) Head() (string, error) {
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	h, err := r.headHash()
 	if err != nil {
 		return "", err
@@ -178,8 +218,7 @@ func (r *Repo) FileState(rel string) (blobHash, committedHash string, dirty bool
 // committedHash returns the blob hash of rel at HEAD, or "" when HEAD does
 // not hold it or does not exist yet.
 func (r *Repo) committedHash(rel string) (string, error) {
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	head, err := r.headHash()
 	if errors.Is(err, ErrNoCommits) {
 		return "", nil
@@ -200,29 +239,64 @@ func (r *Repo) committedHash(rel string) (string, error) {
 
 // ReadAt returns the content of rel at a commit. The commit may be any
 // revision Resolve accepts. When the file did not exist there the error
-// wraps ErrNotAtCommit and names both the file and the commit.
+// wraps ErrNotAtCommit and names both the file and the commit. Each blob
+// is read from the object store once while it stays in the Repo's cache
+// (BlobCacheBytes); every call returns its own copy.
 func (r *Repo) ReadAt(commit, rel string) ([]byte, error) {
-	if err := checkRel(rel); err != nil {
-		return nil, fmt.Errorf("file %s and repository %s: %w", rel, r.root, err)
-	}
-	c, err := r.commitAt(commit)
+	_, b, err := r.blobAt(commit, rel)
 	if err != nil {
 		return nil, err
 	}
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	return bytes.Clone(b), nil
+}
+
+// BlobHashAt returns the git blob hash (BlobHash) of rel's content at a
+// commit, as ReadAt would read it: the content is hashed, not taken from
+// the tree, so objects altered in the store show. Each blob's content is
+// hashed once per Repo, so a manifest that lists one large blob under
+// many paths is checked at the cost of one. Errors are ReadAt's.
+func (r *Repo) BlobHashAt(commit, rel string) (string, error) {
+	h, b, err := r.blobAt(commit, rel)
+	if err != nil {
+		return "", err
+	}
+	defer r.lock()()
+	if sum, ok := r.blobs.hashed[h]; ok {
+		return sum, nil
+	}
+	sum := BlobHash(b)
+	r.blobs.hashed[h] = sum
+	return sum, nil
+}
+
+// blobAt finds rel's blob at a commit and its content, shared with the
+// cache: callers copy it before handing it out, and never change it.
+func (r *Repo) blobAt(commit, rel string) (plumbing.Hash, []byte, error) {
+	if err := checkRel(rel); err != nil {
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s and repository %s: %w", rel, r.root, err)
+	}
+	c, err := r.commitAt(commit)
+	if err != nil {
+		return plumbing.ZeroHash, nil, err
+	}
+	defer r.lock()()
 	f, err := c.File(rel)
 	if errors.Is(err, object.ErrFileNotFound) || errors.Is(err, object.ErrDirectoryNotFound) {
-		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrNotAtCommit)
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrNotAtCommit)
 	}
 	if err != nil {
-		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
+	}
+	if b, ok := r.blobs.get(f.Hash); ok {
+		return f.Hash, b, nil
 	}
 	s, err := f.Contents()
 	if err != nil {
-		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
 	}
-	return []byte(s), nil
+	b := []byte(s)
+	r.blobs.put(f.Hash, b)
+	return f.Hash, b, nil
 }
 
 // CommitDate returns the committer date of a commit (any revision Resolve
@@ -241,8 +315,7 @@ func (r *Repo) commitAt(rev string) (*object.Commit, error) {
 	if err != nil {
 		return nil, err
 	}
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	c, err := r.git.CommitObject(plumbing.NewHash(h))
 	if err != nil {
 		return nil, fmt.Errorf("commit %s: %w", h, err)

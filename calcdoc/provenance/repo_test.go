@@ -8,6 +8,8 @@ import (
 	"strings"
 	"testing"
 	"time"
+
+	"github.com/go-git/go-git/v5/plumbing"
 )
 
 const calcFile = "calcs/hb-002.calc.md"
@@ -141,6 +143,13 @@ func TestClean(t *testing.T) {
 		s.do()
 		for name, clean := range map[string]func() (bool, error){
 			"git": repo.Clean, "go-git": repo.cleanGoGit,
+			"StartClean, History meanwhile": func() (bool, error) {
+				wait := repo.StartClean()
+				if _, err := repo.History(calcFile); err != nil {
+					return false, err
+				}
+				return wait()
+			},
 		} {
 			got, err := clean()
 			if err != nil || got != s.clean {
@@ -197,6 +206,88 @@ func TestReadAt(t *testing.T) {
 	}
 	if _, err := repo.ReadAt("HEAD", "../etc/passwd"); !errors.Is(err, ErrOutsideRepo) {
 		t.Fatalf("ReadAt of an escaping path: got %v, want ErrOutsideRepo", err)
+	}
+}
+
+// TestReadAtReadsEachBlobOnce is the provenance side of issue 11 item 11:
+// a committed file read again and again (or listed under several paths
+// with the same content) is inflated from the object store once, and each
+// caller still gets its own bytes.
+func TestReadAtReadsEachBlobOnce(t *testing.T) {
+	r := sampleRepo(t)
+	big := strings.Repeat("load,MW\n100,250\n", 20000) // 320 kB (fictional)
+	r.write("data/big.csv", big)
+	r.write("data/copy.csv", big)
+	r.write("data/other.csv", "x\n1\n")
+	r.commit("Add data")
+	repo := r.open(".")
+	for i := 0; i < 300; i++ {
+		for _, p := range []string{"data/big.csv", "data/copy.csv"} {
+			got, err := repo.ReadAt("HEAD", p)
+			if err != nil || string(got) != big {
+				t.Fatalf("ReadAt(%s) #%d: %d bytes, %v", p, i, len(got), err)
+			}
+			got[0] = 'X' // the caller's copy: the next read must not see it
+		}
+	}
+	if repo.blobs.reads != 1 {
+		t.Fatalf("the blob was read from the object store %d times, want once", repo.blobs.reads)
+	}
+	if got, err := repo.ReadAt("HEAD", "data/other.csv"); err != nil || string(got) != "x\n1\n" || repo.blobs.reads != 2 {
+		t.Fatalf("another blob: %q, %v, %d reads", got, err, repo.blobs.reads)
+	}
+}
+
+// TestBlobHashAtHashesEachBlobOnce: verify checks a data file by hashing
+// its content at the commit; one blob listed under many paths is read and
+// hashed once, and the hash is git's.
+func TestBlobHashAtHashesEachBlobOnce(t *testing.T) {
+	r := sampleRepo(t)
+	big := strings.Repeat("load,MW\n100,250\n", 20000) // fictional
+	paths := []string{"data/a.csv", "data/b.csv", "data/c/d.csv"}
+	for _, p := range paths {
+		r.write(p, big)
+	}
+	r.commit("Add copies")
+	repo := r.open(".")
+	want := r.git("rev-parse", "HEAD:data/a.csv")
+	for i := 0; i < 100; i++ {
+		for _, p := range paths {
+			if got, err := repo.BlobHashAt("HEAD", p); err != nil || got != want {
+				t.Fatalf("BlobHashAt(%s) = %s, %v; want %s", p, got, err, want)
+			}
+		}
+	}
+	if repo.blobs.reads != 1 || len(repo.blobs.hashed) != 1 {
+		t.Fatalf("%d reads, %d hashes; want one of each", repo.blobs.reads, len(repo.blobs.hashed))
+	}
+	if _, err := repo.BlobHashAt("HEAD", "data/none.csv"); !errors.Is(err, ErrNotAtCommit) {
+		t.Fatalf("BlobHashAt of a missing file: %v", err)
+	}
+	if _, err := repo.BlobHashAt("HEAD", "../x"); !errors.Is(err, ErrOutsideRepo) {
+		t.Fatalf("BlobHashAt of an escaping path: %v", err)
+	}
+}
+
+// TestBlobCacheBound: the cache drops its oldest blobs to stay within
+// BlobCacheBytes and never keeps a blob larger than that.
+func TestBlobCacheBound(t *testing.T) {
+	var c blobCache
+	third := make([]byte, BlobCacheBytes/3+1)
+	for i := byte(1); i <= 3; i++ {
+		c.put(plumbing.Hash{i}, third)
+	}
+	if _, ok := c.get(plumbing.Hash{1}); ok || c.size > BlobCacheBytes {
+		t.Fatalf("size %d: the oldest blob is kept or the bound is passed", c.size)
+	}
+	for _, h := range []plumbing.Hash{{2}, {3}} {
+		if _, ok := c.get(h); !ok {
+			t.Fatalf("blob %v dropped", h)
+		}
+	}
+	c.put(plumbing.Hash{4}, make([]byte, BlobCacheBytes+1))
+	if _, ok := c.get(plumbing.Hash{4}); ok || c.size > BlobCacheBytes {
+		t.Fatal("a blob larger than the bound is kept")
 	}
 }
 

@@ -17,8 +17,7 @@ const maxSuggestions = 5
 // HEAD, or any of these followed by ~N or ^N. An unknown name gives an error
 // wrapping ErrUnknownRevision that lists the nearest tag and branch names.
 func (r *Repo) Resolve(rev string) (string, error) {
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	if strings.TrimSpace(rev) == "" {
 		return "", fmt.Errorf("empty revision in %s: %w", r.root, ErrUnknownRevision)
 	}

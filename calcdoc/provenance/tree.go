@@ -19,8 +19,7 @@ func (r *Repo) FilesAt(rev, suffix string) ([]string, error) {
 	if err != nil {
 		return nil, err
 	}
-	r.mu.Lock()
-	defer r.mu.Unlock()
+	defer r.lock()()
 	tree, err := c.Tree()
 	if err != nil {
 		return nil, fmt.Errorf("tree of commit %s: %w", short(c.Hash), err)
