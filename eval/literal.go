@@ -186,7 +186,7 @@ func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*
 	if err != nil && !errors.Is(err, strconv.ErrRange) {
 		return nil, &Error{Off: off + i, Msg: sprintf("cannot read the number %s", expr[i:numEnd])}
 	}
-	u, err := units.Parse(expr[j:uEnd])
+	u, err := units.ParseCached(expr[j:uEnd])
 	if err != nil {
 		ue := unitError(err)
 		return nil, &Error{Off: off + j + ue.Off, Msg: ue.Msg}

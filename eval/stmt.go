@@ -166,7 +166,7 @@ func (s *Stmt) parseHead(rest string, off int, ctx units.Context) *Error {
 		}
 		s.Unit = strings.TrimSpace(rest[i+1 : i+end])
 		s.UnitOff = off + i + 1 + (len(rest[i+1:i+end]) - len(strings.TrimLeft(rest[i+1:i+end], " ")))
-		u, err := units.Parse(s.Unit)
+		u, err := units.ParseCached(s.Unit)
 		if err != nil {
 			ue := unitError(err)
 			return &Error{Off: s.UnitOff + ue.Off, Msg: ue.Msg}
@@ -243,7 +243,7 @@ func ParseInline(text string, off, line int, ctx units.Context) (*Stmt, []*Error
 		if i := strings.LastIndexByte(body, '['); i >= 0 {
 			s.Unit = strings.TrimSpace(body[i+1 : len(body)-1])
 			s.UnitOff = off + i + 1
-			u, err := units.Parse(s.Unit)
+			u, err := units.ParseCached(s.Unit)
 			if err != nil {
 				ue := unitError(err)
 				return nil, []*Error{{Off: s.UnitOff + ue.Off, Msg: ue.Msg}}
