@@ -98,7 +98,7 @@ func (c *scope) ident(v *ast.IdentifierNode) (any, *Error) {
 	if v.Value == "pi" {
 		return units.Num(math.Pi), nil
 	}
-	if val, ok := c.e.vals[v.Value]; ok {
+	if val, ok := c.e.Value(v.Value); ok {
 		return val, nil
 	}
 	msg := "undefined name " + v.Value
