@@ -33,7 +33,7 @@ type Outcome struct {
 
 // Engine evaluates statements in file order and holds the defined names.
 type Engine struct {
-	Ctx    units.Context
+	Ctx      units.Context
 	Data     DataReader   // reads csv() files; nil: data files are refused
 	YAML     ValuesReader // reads yaml() files; nil: data files are refused
 	names    *nameTable   // name → slot number (slots.go)
@@ -49,8 +49,9 @@ func NewEngine(ctx units.Context) *Engine {
 // Exec evaluates a statement. A definition that fails leaves its name
 // marked failed, so lines that read it are skipped without a second error.
 func (e *Engine) Exec(s *Stmt) (*Outcome, *Error) {
+	r := e.resolve(s)
 	if s.Kind == Def {
-		sl := e.slotFor(s.Name)
+		sl := e.defSlot(s)
 		if sl.defined {
 			sl.failed = true
 			return nil, &Error{Off: s.NameOff, Msg: sprintf("%s is already defined on line %d; a name is defined once", s.Name, sl.def.line())}
@@ -58,14 +59,14 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, *Error) {
 		sl.def, sl.defined = s, true
 	}
 	out := &Outcome{Stmt: s}
-	for _, d := range s.deps {
-		if e.isFailed(d) {
+	for i := range s.deps {
+		if d := e.depSlot(r, s, i); d != nil && d.failed {
 			out.Skipped = true
 			e.markFailed(s)
 			return out, nil
 		}
 	}
-	sc := &scope{e: e, s: s}
+	sc := &scope{e: e, s: s, res: r}
 	v, err := sc.eval(s.tree)
 	if err != nil {
 		e.markFailed(s)
@@ -89,7 +90,7 @@ func (e *Engine) Fail(name string) {
 
 func (e *Engine) markFailed(s *Stmt) {
 	if s.Kind == Def {
-		e.slotFor(s.Name).failed = true
+		e.defSlot(s).failed = true
 	}
 }
 
@@ -120,7 +121,7 @@ func (e *Engine) finish(out *Outcome, v any) *Error {
 		}
 	}
 	if s.Kind == Def {
-		sl := e.slotFor(s.Name)
+		sl := e.defSlot(s)
 		sl.val, sl.has = v, true
 	}
 	return nil

@@ -26,8 +26,9 @@ type Sourced interface {
 type scope struct {
 	e        *Engine
 	s        *Stmt
-	sources  []string  // formulations of the property calls, in order
-	solution *Solution // set by solve
+	sources  []string    // formulations of the property calls, in order
+	solution *Solution   // set by solve
+	res      *resolution // the statement's slot numbers; nil: look names up by text
 }
 
 // note records the formulation of a property result once.
@@ -98,7 +99,7 @@ func (c *scope) ident(v *ast.IdentifierNode) (any, *Error) {
 	if v.Value == "pi" {
 		return units.Num(math.Pi), nil
 	}
-	if val, ok := c.e.Value(v.Value); ok {
+	if val, ok := c.valueOf(v.Value); ok {
 		return val, nil
 	}
 	msg := "undefined name " + v.Value

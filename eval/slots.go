@@ -76,12 +76,6 @@ func (e *Engine) Value(name string) (any, bool) {
 	return nil, false
 }
 
-// isFailed reports whether a name's line failed.
-func (e *Engine) isFailed(name string) bool {
-	s := e.lookup(name)
-	return s != nil && s.failed
-}
-
 // Fork returns an engine that starts with the values of e, except for the
 // names in redo, which it leaves undefined so their lines can run again
 // (a sweep re-evaluates only what depends on the varied input).

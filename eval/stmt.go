@@ -8,6 +8,7 @@ package eval
 
 import (
 	"strings"
+	"sync/atomic"
 	"unicode"
 	"unicode/utf8"
 
@@ -56,6 +57,7 @@ type Stmt struct {
 	syntax  Node                // tree in this package's types, for renderers
 	lits    map[string]*Literal // placeholder name → literal
 	deps    []string
+	res     atomic.Pointer[resolution] // deps and Name as slot numbers (resolve.go)
 }
 
 // Literal is a number with a unit written in an expression, such as 12.5 MPa.
