@@ -1,0 +1,107 @@
+package eval
+
+import (
+	"reflect"
+	"testing"
+
+	"github.com/vouchcalc/vouch/units"
+)
+
+func mustLine(t *testing.T, line string, n int) *Stmt {
+	t.Helper()
+	s, errs := ParseLine(line, 0, n, units.StandardAtmosphere)
+	if errs != nil {
+		t.Fatalf("%s: %s", line, errs[0].Msg)
+	}
+	return s
+}
+
+func valueV(t *testing.T, e *Engine, name string) float64 {
+	t.Helper()
+	v, ok := e.Value(name)
+	if !ok {
+		t.Fatalf("%s is not defined", name)
+	}
+	return v.(units.Quantity).V
+}
+
+// TestForkKeepsAndRedoes: a fork keeps the values outside redo, leaves the
+// names in redo free to be defined again, and neither engine sees a name the
+// other adds after the fork, though both run the same statements.
+func TestForkKeepsAndRedoes(t *testing.T) {
+	e := NewEngine(units.StandardAtmosphere)
+	a, b := mustLine(t, "a = 2", 1), mustLine(t, "b = a * 10", 2)
+	for _, s := range []*Stmt{a, b} {
+		if _, err := e.Exec(s); err != nil {
+			t.Fatal(err.Msg)
+		}
+	}
+	f := e.Fork(map[string]bool{"a": true, "b": true})
+	if _, ok := f.Value("b"); ok {
+		t.Fatal("b is defined in the fork before its line runs again")
+	}
+	f.Set("a", units.Num(3))
+	if _, err := f.Exec(b); err != nil {
+		t.Fatal(err.Msg)
+	}
+	if got := valueV(t, f, "b"); got != 30 {
+		t.Errorf("fork: b = %g, want 30", got)
+	}
+	if got := valueV(t, e, "b"); got != 20 {
+		t.Errorf("parent after the fork: b = %g, want 20", got)
+	}
+	// Each side adds a different name after the fork: the table is cloned,
+	// so the same slot number cannot name c in one and d in the other.
+	c, d := mustLine(t, "c = b + 1", 3), mustLine(t, "d = b + 2", 4)
+	if _, err := f.Exec(c); err != nil {
+		t.Fatal(err.Msg)
+	}
+	if _, err := e.Exec(d); err != nil {
+		t.Fatal(err.Msg)
+	}
+	if _, ok := e.Value("c"); ok {
+		t.Error("the parent sees c, defined in the fork")
+	}
+	if _, ok := f.Value("d"); ok {
+		t.Error("the fork sees d, defined in the parent")
+	}
+	if got, want := f.Names(), []string{"a", "b", "c"}; !reflect.DeepEqual(got, want) {
+		t.Errorf("fork names %v, want %v", got, want)
+	}
+	if got, want := e.Names(), []string{"a", "b", "d"}; !reflect.DeepEqual(got, want) {
+		t.Errorf("parent names %v, want %v", got, want)
+	}
+}
+
+// TestForkTwice: a name defined once per engine; a second definition in
+// the same engine is an error naming the first line, also for a fork.
+func TestForkTwice(t *testing.T) {
+	e := NewEngine(units.StandardAtmosphere)
+	a := mustLine(t, "a = 2", 1)
+	if _, err := e.Exec(a); err != nil {
+		t.Fatal(err.Msg)
+	}
+	f := e.Fork(map[string]bool{})
+	_, err := f.Exec(mustLine(t, "a = 3", 7))
+	if err == nil || err.Msg != "a is already defined on line 1; a name is defined once" {
+		t.Errorf("second definition in a fork: %v", err)
+	}
+}
+
+// TestLaterNameResolved: a statement resolved while a name it reads was
+// missing from the table finds the name once it is added to the same table.
+func TestLaterNameResolved(t *testing.T) {
+	e := NewEngine(units.StandardAtmosphere)
+	c := mustLine(t, "c = a * 2", 1)
+	if _, err := e.Exec(c); err == nil {
+		t.Fatal("c ran before a was defined")
+	}
+	e.Set("a", units.Num(4))
+	f := e.Fork(map[string]bool{"c": true})
+	if _, err := f.Exec(c); err != nil {
+		t.Fatal(err.Msg)
+	}
+	if got := valueV(t, f, "c"); got != 8 {
+		t.Errorf("c = %g, want 8", got)
+	}
+}
