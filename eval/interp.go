@@ -93,7 +93,7 @@ func describeNode(n ast.Node) string {
 }
 
 func (c *scope) ident(v *ast.IdentifierNode) (any, *Error) {
-	if l, ok := c.s.lits[v.Value]; ok {
+	if l, ok := c.s.Literal(v.Value); ok {
 		return l.Q, nil
 	}
 	if v.Value == "pi" {

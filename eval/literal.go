@@ -44,10 +44,11 @@ func (s *Stmt) compile(ctx units.Context) *Error {
 		return s.exprError(err)
 	}
 	s.tree = tree.Node
-	s.deps = collectDeps(s.tree, lits)
+	skip := "" // solve reads the name it defines: not a dependency
 	if s.Kind == Def {
-		s.deps = without(s.deps, s.Name) // solve reads the name it defines
+		skip = s.Name
 	}
+	s.deps = collectDeps(s.tree, lits, skip)
 	return nil
 }
 
@@ -133,9 +134,9 @@ var notUnits = map[string]bool{"and": true, "or": true, "not": true, "matches": 
 // rewriteLiterals replaces each "number unit" by a placeholder identifier of
 // the same byte length ("_0  ", "_1    "), so that expr's parser sees an
 // identifier and every offset keeps its meaning.
-func rewriteLiterals(expr string, off int, ctx units.Context) (string, map[string]*Literal, *Error) {
+func rewriteLiterals(expr string, off int, ctx units.Context) (string, []*Literal, *Error) {
 	var out []byte
-	var lits map[string]*Literal
+	var lits []*Literal
 	for i := 0; i < len(expr); {
 		c := expr[i]
 		switch {
@@ -159,14 +160,17 @@ func rewriteLiterals(expr string, off int, ctx units.Context) (string, map[strin
 				return "", nil, e
 			}
 			if out == nil {
-				out, lits = []byte(expr), map[string]*Literal{}
+				out = []byte(expr)
 			}
 			name := placeholder(len(lits))
 			if len(name) > uEnd-i {
 				return "", nil, &Error{Off: off + i, Msg: "too many unit literals in one line"}
 			}
-			lits[name] = lit
-			copy(out[i:uEnd], name+strings.Repeat(" ", uEnd-i-len(name)))
+			lits = append(lits, lit)
+			n := copy(out[i:uEnd], name)
+			for k := i + n; k < uEnd; k++ {
+				out[k] = ' '
+			}
 			i = uEnd
 		default:
 			i++
@@ -212,7 +216,44 @@ func signedStart(s string, i int) bool {
 }
 
 // placeholder names the n-th literal: "_" and n in base 36.
-func placeholder(n int) string { return "_" + strconv.FormatInt(int64(n), 36) }
+func placeholder(n int) string {
+	if n < len(placeholders) {
+		return placeholders[n]
+	}
+	return "_" + strconv.FormatInt(int64(n), 36)
+}
+
+// placeholders are the names of the first 36 literals of a line.
+var placeholders = func() (out [36]string) {
+	for n := range out {
+		out[n] = "_" + strconv.FormatInt(int64(n), 36)
+	}
+	return out
+}()
+
+// litOf returns the literal a placeholder name stands for: "_" and its
+// number in base 36, without leading zeros.
+func litOf(lits []*Literal, name string) (*Literal, bool) {
+	if len(name) < 2 || name[0] != '_' || len(name) > 2 && name[1] == '0' {
+		return nil, false
+	}
+	n := 0
+	for i := 1; i < len(name); i++ {
+		c := name[i]
+		switch {
+		case isDigit(c):
+			n = n*36 + int(c-'0')
+		case c >= 'a' && c <= 'z':
+			n = n*36 + int(c-'a') + 10
+		default:
+			return nil, false
+		}
+		if n >= len(lits) {
+			return nil, false
+		}
+	}
+	return lits[n], true
+}
 
 func isDigit(c byte) bool       { return c >= '0' && c <= '9' }
 func isASCIILetter(c byte) bool { return c|0x20 >= 'a' && c|0x20 <= 'z' }
@@ -284,27 +325,28 @@ func scanUnit(s string, i int) int {
 	return end
 }
 
-func without(list []string, name string) []string {
-	out := list[:0:0]
-	for _, n := range list {
-		if n != name {
-			out = append(out, n)
-		}
-	}
-	return out
-}
-
 // collectDeps lists the identifiers an expression reads, without function
-// names, placeholders and constants, in order of first use.
-func collectDeps(n ast.Node, lits map[string]*Literal) []string {
+// names, placeholders, constants and skip, in order of first use.
+func collectDeps(n ast.Node, lits []*Literal, skip string) []string {
 	var deps []string
-	seen := map[string]bool{}
+	var seen map[string]bool // only for a line with many names; a scan is faster below
 	var walk func(n ast.Node)
 	walk = func(n ast.Node) {
 		switch v := n.(type) {
 		case *ast.IdentifierNode:
-			if _, lit := lits[v.Value]; !lit && v.Value != "pi" && !seen[v.Value] {
-				seen[v.Value] = true
+			if _, lit := litOf(lits, v.Value); lit || v.Value == "pi" || v.Value == skip {
+				return
+			}
+			if seen == nil && len(deps) >= 16 {
+				seen = make(map[string]bool, 2*len(deps))
+				for _, d := range deps {
+					seen[d] = true
+				}
+			}
+			if seen != nil && !seen[v.Value] || seen == nil && indexOf(deps, v.Value) < 0 {
+				if seen != nil {
+					seen[v.Value] = true
+				}
 				deps = append(deps, v.Value)
 			}
 		case *ast.CallNode:

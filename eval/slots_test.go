@@ -105,3 +105,22 @@ func TestLaterNameResolved(t *testing.T) {
 		t.Errorf("c = %g, want 8", got)
 	}
 }
+
+// TestPlaceholderNames: every placeholder name finds its literal, and names
+// that only look alike do not.
+func TestPlaceholderNames(t *testing.T) {
+	lits := make([]*Literal, 40)
+	for i := range lits {
+		lits[i] = &Literal{Off: i}
+	}
+	for n := range lits {
+		if l, ok := litOf(lits, placeholder(n)); !ok || l.Off != n {
+			t.Errorf("%s: literal %v %v, want number %d", placeholder(n), l, ok, n)
+		}
+	}
+	for _, name := range []string{"_", "_00", "_01", "_A", "_14", "x0", "_-1", "_z0"} {
+		if l, ok := litOf(lits, name); ok {
+			t.Errorf("%s names literal %d", name, l.Off)
+		}
+	}
+}

@@ -52,10 +52,10 @@ type Stmt struct {
 
 	display units.Unit
 	hasUnit bool
-	src     string              // Expr with literals replaced by placeholders
-	tree    ast.Node            // parsed src
-	syntax  Node                // tree in this package's types, for renderers
-	lits    map[string]*Literal // placeholder name → literal
+	src     string     // Expr with literals replaced by placeholders
+	tree    ast.Node   // parsed src
+	syntax  Node       // tree in this package's types, for renderers
+	lits    []*Literal // the unit literals; placeholder n stands for lits[n]
 	deps    []string
 	res     atomic.Pointer[resolution] // deps and Name as slot numbers (resolve.go)
 }
@@ -77,8 +77,7 @@ func (s *Stmt) Tree() ast.Node { return s.tree }
 
 // Literal returns the unit literal a placeholder identifier stands for.
 func (s *Stmt) Literal(ident string) (*Literal, bool) {
-	l, ok := s.lits[ident]
-	return l, ok
+	return litOf(s.lits, ident)
 }
 
 // DisplayUnit returns the [UNIT] of a definition and whether it has one.
@@ -228,7 +227,8 @@ func checkName(name string, off int) *Error {
 // literal, such as 540 degC, else nil.
 func (s *Stmt) LoneLiteral() *Literal {
 	if id, ok := s.tree.(*ast.IdentifierNode); ok {
-		return s.lits[id.Value]
+		l, _ := s.Literal(id.Value)
+		return l
 	}
 	return nil
 }
@@ -278,7 +278,7 @@ func (s *Stmt) IsLiteralInput() bool {
 func (s *Stmt) IsLoneName() bool {
 	switch v := s.tree.(type) {
 	case *ast.IdentifierNode:
-		_, lit := s.lits[v.Value]
+		_, lit := s.Literal(v.Value)
 		return !lit
 	case *ast.MemberNode:
 		_, ok := v.Node.(*ast.IdentifierNode)
