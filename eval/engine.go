@@ -27,7 +27,7 @@ type Outcome struct {
 	Display units.Unit // the unit the value is shown in (quantities)
 	Pass    bool       // a check's result
 	Skipped bool       // not evaluated because a name it reads failed
-	Sources []string   // formulations of the property calls the line makes
+	Sources []string   // formulations of the property calls the line makes (shared: read only)
 	Solve   *Solution  // how solve found the value, for NAME = solve(...)
 }
 
@@ -39,6 +39,7 @@ type Engine struct {
 	names    *nameTable   // name → slot number (slots.go)
 	ownNames bool         // names is this engine's alone, so it may add to it
 	slots    []slot
+	args     []any // the argument stack of function calls (resolve.go)
 }
 
 // NewEngine returns an engine with nothing defined.

@@ -42,6 +42,10 @@ func (c *scope) note(v any) {
 			return
 		}
 	}
+	if c.sources == nil {
+		c.sources = oneSource(src.Source()) // shared; its capacity of 1 makes the next append copy
+		return
+	}
 	c.sources = append(c.sources, src.Source())
 }
 

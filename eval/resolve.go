@@ -1,5 +1,11 @@
 package eval
 
+import (
+	"sync"
+
+	"github.com/expr-lang/expr/ast"
+)
+
 // A statement's names are resolved to slot numbers once per name table and
 // kept with the statement, so that running it again — at every point of a
 // sweep — looks no name up by its text. Forks share their parent's table
@@ -96,4 +102,42 @@ func (e *Engine) defSlot(s *Stmt) *slot {
 		}
 	}
 	return e.slotFor(s.Name)
+}
+
+// pushArgs evaluates a call's arguments onto the engine's argument stack
+// and returns them with the stack's height before them, for popArgs: a
+// property call then allocates no slice. A call inside an argument pushes
+// above and pops before the next argument, so the stack stays in order.
+func (c *scope) pushArgs(nodes []ast.Node) ([]any, int, *Error) {
+	e := c.e
+	base := len(e.args)
+	for _, a := range nodes {
+		x, err := c.eval(a)
+		if err != nil {
+			e.popArgs(base)
+			return nil, 0, err
+		}
+		e.args = append(e.args, x)
+	}
+	return e.args[base:len(e.args):len(e.args)], base, nil
+}
+
+// popArgs drops the arguments above base, clearing them for the collector.
+func (e *Engine) popArgs(base int) {
+	clear(e.args[base:])
+	e.args = e.args[:base]
+}
+
+// sourceLists holds a one-element list per formulation name (string →
+// []string), shared by every outcome whose line calls one formulation;
+// formulation names are a handful of constants.
+var sourceLists sync.Map
+
+// oneSource returns the shared list holding only src.
+func oneSource(src string) []string {
+	if l, ok := sourceLists.Load(src); ok {
+		return l.([]string)
+	}
+	l, _ := sourceLists.LoadOrStore(src, []string{src})
+	return l.([]string)
 }

@@ -83,6 +83,7 @@ func (e *Engine) Fork(redo map[string]bool) *Engine {
 	f := &Engine{Ctx: e.Ctx, Data: e.Data, YAML: e.YAML, names: e.names}
 	e.ownNames = false // f shares the table: whichever adds a name next clones it
 	f.slots = make([]slot, len(e.slots))
+	f.args = make([]any, 0, 8)
 	for i, s := range e.slots {
 		if s.has {
 			f.slots[i] = slot{val: s.val, def: s.def, has: true, defined: true}
