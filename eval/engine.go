@@ -39,7 +39,8 @@ type Engine struct {
 	names    *nameTable   // name → slot number (slots.go)
 	ownNames bool         // names is this engine's alone, so it may add to it
 	slots    []slot
-	args     []any // the argument stack of function calls (resolve.go)
+	args     []any     // the argument stack of function calls (resolve.go)
+	outs     []Outcome // room for the next outcomes (newOutcome)
 }
 
 // NewEngine returns an engine with nothing defined.
@@ -59,7 +60,7 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, *Error) {
 		}
 		sl.def, sl.defined = s, true
 	}
-	out := &Outcome{Stmt: s}
+	out := e.newOutcome(s)
 	for i := range s.deps {
 		if d := e.depSlot(r, s, i); d != nil && d.failed {
 			out.Skipped = true

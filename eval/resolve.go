@@ -141,3 +141,14 @@ func oneSource(src string) []string {
 	l, _ := sourceLists.LoadOrStore(src, []string{src})
 	return l.([]string)
 }
+
+// newOutcome returns a fresh outcome for s, cut from a chunk of sixteen: a
+// sweep point's lines then share one allocation. An outcome handed out is
+// never reused; it keeps its chunk alive.
+func (e *Engine) newOutcome(s *Stmt) *Outcome {
+	if len(e.outs) == cap(e.outs) {
+		e.outs = make([]Outcome, 0, 16)
+	}
+	e.outs = append(e.outs, Outcome{Stmt: s})
+	return &e.outs[len(e.outs)-1]
+}
