@@ -149,6 +149,8 @@ func (e *Engine) newOutcome(s *Stmt) *Outcome {
 	if len(e.outs) == cap(e.outs) {
 		e.outs = make([]Outcome, 0, 16)
 	}
-	e.outs = append(e.outs, Outcome{Stmt: s})
-	return &e.outs[len(e.outs)-1]
+	e.outs = e.outs[:len(e.outs)+1]
+	out := &e.outs[len(e.outs)-1]
+	out.Stmt = s
+	return out
 }
