@@ -33,19 +33,18 @@ type Outcome struct {
 
 // Engine evaluates statements in file order and holds the defined names.
 type Engine struct {
-	Ctx      units.Context
-	Data     DataReader   // reads csv() files; nil: data files are refused
-	YAML     ValuesReader // reads yaml() files; nil: data files are refused
-	names    *nameTable   // name → slot number (slots.go)
-	ownNames bool         // names is this engine's alone, so it may add to it
-	slots    []slot
-	args     []any     // the argument stack of function calls (resolve.go)
-	outs     []Outcome // room for the next outcomes (newOutcome)
+	Ctx   units.Context
+	Data  DataReader   // reads csv() files; nil: data files are refused
+	YAML  ValuesReader // reads yaml() files; nil: data files are refused
+	names *nameTable   // name → slot number (slots.go)
+	slots []slot
+	args  []any     // the argument stack of function calls (resolve.go)
+	outs  []Outcome // room for the next outcomes (newOutcome)
 }
 
 // NewEngine returns an engine with nothing defined.
 func NewEngine(ctx units.Context) *Engine {
-	return &Engine{Ctx: ctx, names: &nameTable{index: map[string]int{}}, ownNames: true}
+	return &Engine{Ctx: ctx, names: &nameTable{index: map[string]int{}}}
 }
 
 // Exec evaluates a statement. A definition that fails leaves its name

@@ -1,6 +1,9 @@
 package eval
 
-import "sort"
+import (
+	"sort"
+	"sync/atomic"
+)
 
 // An engine keeps its names in slots: a table from name to slot number,
 // shared by an engine and its forks, and one small slice of slots per
@@ -10,7 +13,8 @@ import "sort"
 // nameTable numbers the names an engine and its forks have met. It only
 // grows; an engine that adds a name to a shared table clones it first.
 type nameTable struct {
-	index map[string]int
+	index  map[string]int
+	shared atomic.Bool // a fork has it: add no name in place
 }
 
 // slot is what an engine knows of one name.
@@ -35,9 +39,8 @@ func (e *Engine) lookup(name string) *slot {
 func (e *Engine) slotFor(name string) *slot {
 	i, ok := e.names.index[name]
 	if !ok {
-		if !e.ownNames {
+		if e.names.shared.Load() {
 			e.names = e.names.clone()
-			e.ownNames = true
 		}
 		i = len(e.names.index)
 		e.names.index[name] = i
@@ -78,10 +81,11 @@ func (e *Engine) Value(name string) (any, bool) {
 
 // Fork returns an engine that starts with the values of e, except for the
 // names in redo, which it leaves undefined so their lines can run again
-// (a sweep re-evaluates only what depends on the varied input).
+// (a sweep re-evaluates only what depends on the varied input). Several
+// goroutines may fork one engine at once, each running its own fork.
 func (e *Engine) Fork(redo map[string]bool) *Engine {
 	f := &Engine{Ctx: e.Ctx, Data: e.Data, YAML: e.YAML, names: e.names}
-	e.ownNames = false // f shares the table: whichever adds a name next clones it
+	e.names.shared.Store(true) // whichever engine adds a name next clones the table
 	f.slots = make([]slot, len(e.slots))
 	f.args = make([]any, 0, 8)
 	for i, s := range e.slots {

@@ -124,3 +124,46 @@ func TestPlaceholderNames(t *testing.T) {
 		}
 	}
 }
+
+// TestForksInParallel: forks of one engine run the same statements on
+// several goroutines (run with -race) and each gets its own result.
+func TestForksInParallel(t *testing.T) {
+	e := NewEngine(units.StandardAtmosphere)
+	a, b := mustLine(t, "a = 2 MPa", 1), mustLine(t, "b [kPa] = a * 2 + water(a, 500 K).p", 2)
+	for _, s := range []*Stmt{a, b} {
+		if _, err := e.Exec(s); err != nil {
+			t.Fatal(err.Msg)
+		}
+	}
+	redo := map[string]bool{"a": true, "b": true}
+	c := mustLine(t, "c = b + 1 Pa", 3) // a new name: each fork clones the table
+	got := make([]float64, 8)
+	done := make(chan bool)
+	for g := range got {
+		go func() {
+			defer func() { done <- true }()
+			for i := 0; i < 50; i++ {
+				f := e.Fork(redo)
+				f.Set("a", units.Quantity{V: float64(g+1) * 1e6, D: units.DimPressure})
+				if _, err := f.Exec(b); err != nil {
+					t.Error(err.Msg)
+					return
+				}
+				if _, err := f.Exec(c); err != nil {
+					t.Error(err.Msg)
+					return
+				}
+				v, _ := f.Value("c")
+				got[g] = v.(units.Quantity).V
+			}
+		}()
+	}
+	for range got {
+		<-done
+	}
+	for g, v := range got {
+		if want := 3*float64(g+1)*1e6 + 1; v != want {
+			t.Errorf("goroutine %d: c = %g, want %g", g, v, want)
+		}
+	}
+}
