@@ -29,6 +29,7 @@ type scope struct {
 	sources  []string    // formulations of the property calls, in order
 	solution *Solution   // set by solve
 	res      *resolution // the statement's slot numbers; nil: look names up by text
+	slow     bool        // a quick path failed: evaluate the general way (quick.go)
 }
 
 // note records the formulation of a property result once.
@@ -139,6 +140,11 @@ func (c *scope) unary(v *ast.UnaryNode) (any, *Error) {
 }
 
 func (c *scope) binary(v *ast.BinaryNode) (any, *Error) {
+	if q, done, slowed := c.quickBinary(v); done { // quick.go
+		return q, nil
+	} else if slowed {
+		defer c.endSlow()
+	}
 	switch v.Operator {
 	case "&&", "and", "||", "or":
 		return c.logical(v)
