@@ -50,6 +50,10 @@ func isArith(op string) bool {
 // quick evaluates a node to a quantity; false: take the general path.
 func (c *scope) quick(n ast.Node) (units.Quantity, bool) {
 	switch v := n.(type) {
+	case *ast.IdentifierNode:
+		if l, ok := c.s.Literal(v.Value); ok {
+			return l.Q, true
+		}
 	case *ast.IntegerNode:
 		return units.Num(float64(v.Value)), true
 	case *ast.FloatNode:
