@@ -135,8 +135,9 @@ var notUnits = map[string]bool{"and": true, "or": true, "not": true, "matches": 
 // the same byte length ("_0  ", "_1    "), so that expr's parser sees an
 // identifier and every offset keeps its meaning.
 func rewriteLiterals(expr string, off int, ctx units.Context) (string, []*Literal, *Error) {
-	var out []byte
+	var out strings.Builder // the rewritten text up to last, once a literal is found
 	var lits []*Literal
+	last := 0
 	for i := 0; i < len(expr); {
 		c := expr[i]
 		switch {
@@ -159,27 +160,30 @@ func rewriteLiterals(expr string, off int, ctx units.Context) (string, []*Litera
 			if e != nil {
 				return "", nil, e
 			}
-			if out == nil {
-				out = []byte(expr)
+			if lits == nil {
+				out.Grow(len(expr))
+				lits = make([]*Literal, 0, 4)
 			}
 			name := placeholder(len(lits))
 			if len(name) > uEnd-i {
 				return "", nil, &Error{Off: off + i, Msg: "too many unit literals in one line"}
 			}
 			lits = append(lits, lit)
-			n := copy(out[i:uEnd], name)
-			for k := i + n; k < uEnd; k++ {
-				out[k] = ' '
+			out.WriteString(expr[last:i])
+			out.WriteString(name)
+			for k := i + len(name); k < uEnd; k++ {
+				out.WriteByte(' ')
 			}
-			i = uEnd
+			i, last = uEnd, uEnd
 		default:
 			i++
 		}
 	}
-	if out == nil {
+	if lits == nil {
 		return expr, nil, nil
 	}
-	return string(out), lits, nil
+	out.WriteString(expr[last:])
+	return out.String(), lits, nil
 }
 
 func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*Literal, *Error) {
@@ -328,49 +332,64 @@ func scanUnit(s string, i int) int {
 // collectDeps lists the identifiers an expression reads, without function
 // names, placeholders, constants and skip, in order of first use.
 func collectDeps(n ast.Node, lits []*Literal, skip string) []string {
-	var deps []string
-	var seen map[string]bool // only for a line with many names; a scan is faster below
-	var walk func(n ast.Node)
-	walk = func(n ast.Node) {
-		switch v := n.(type) {
-		case *ast.IdentifierNode:
-			if _, lit := litOf(lits, v.Value); lit || v.Value == "pi" || v.Value == skip {
-				return
-			}
-			if seen == nil && len(deps) >= 16 {
-				seen = make(map[string]bool, 2*len(deps))
-				for _, d := range deps {
-					seen[d] = true
-				}
-			}
-			if seen != nil && !seen[v.Value] || seen == nil && indexOf(deps, v.Value) < 0 {
-				if seen != nil {
-					seen[v.Value] = true
-				}
-				deps = append(deps, v.Value)
-			}
-		case *ast.CallNode:
-			if _, ok := v.Callee.(*ast.IdentifierNode); !ok {
-				walk(v.Callee)
-			}
-			for _, a := range v.Arguments {
-				walk(a)
-			}
-		case *ast.UnaryNode:
-			walk(v.Node)
-		case *ast.BinaryNode:
-			walk(v.Left)
-			walk(v.Right)
-		case *ast.ConditionalNode:
-			walk(v.Cond)
-			walk(v.Exp1)
-			walk(v.Exp2)
-		case *ast.MemberNode:
-			walk(v.Node)
+	w := depWalker{lits: lits, skip: skip}
+	w.walk(n)
+	return w.deps
+}
+
+// depWalker gathers a line's dependencies; seen is made only for a line
+// with many names, a scan of deps being faster for a few.
+type depWalker struct {
+	lits []*Literal
+	skip string
+	deps []string
+	seen map[string]bool
+}
+
+func (w *depWalker) walk(n ast.Node) {
+	switch v := n.(type) {
+	case *ast.IdentifierNode:
+		w.add(v.Value)
+	case *ast.CallNode:
+		if _, ok := v.Callee.(*ast.IdentifierNode); !ok {
+			w.walk(v.Callee)
+		}
+		for _, a := range v.Arguments {
+			w.walk(a)
+		}
+	case *ast.UnaryNode:
+		w.walk(v.Node)
+	case *ast.BinaryNode:
+		w.walk(v.Left)
+		w.walk(v.Right)
+	case *ast.ConditionalNode:
+		w.walk(v.Cond)
+		w.walk(v.Exp1)
+		w.walk(v.Exp2)
+	case *ast.MemberNode:
+		w.walk(v.Node)
+	}
+}
+
+func (w *depWalker) add(name string) {
+	if _, lit := litOf(w.lits, name); lit || name == "pi" || name == w.skip {
+		return
+	}
+	if w.seen == nil && len(w.deps) >= 16 {
+		w.seen = make(map[string]bool, 2*len(w.deps))
+		for _, d := range w.deps {
+			w.seen[d] = true
 		}
 	}
-	walk(n)
-	return deps
+	if w.seen != nil {
+		if w.seen[name] {
+			return
+		}
+		w.seen[name] = true
+	} else if indexOf(w.deps, name) >= 0 {
+		return
+	}
+	w.deps = append(w.deps, name)
 }
 
 // unitError returns a unit parse error with its offset in the unit text.

@@ -167,3 +167,18 @@ func TestForksInParallel(t *testing.T) {
 		}
 	}
 }
+
+// TestDepsManyNames: a line reading more names than the scan handles keeps
+// them in order of first use, once each, without the name it defines.
+func TestDepsManyNames(t *testing.T) {
+	line, want := "x = x", []string(nil)
+	for i := 0; i < 20; i++ {
+		n := sprintf("n_%d", i)
+		line += " + " + n + " * 2 m + " + n
+		want = append(want, n)
+	}
+	s := mustLine(t, line+" + pi * n_3 + x", 1)
+	if got := s.Deps(); !reflect.DeepEqual(got, want) {
+		t.Errorf("deps %v, want %v", got, want)
+	}
+}
