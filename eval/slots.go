@@ -88,9 +88,12 @@ func (e *Engine) Fork(redo map[string]bool) *Engine {
 	e.names.shared.Store(true) // whichever engine adds a name next clones the table
 	f.slots = make([]slot, len(e.slots))
 	f.args = make([]any, 0, 8)
-	for i, s := range e.slots {
-		if s.has {
-			f.slots[i] = slot{val: s.val, def: s.def, has: true, defined: true}
+	copy(f.slots, e.slots) // one bulk copy; then keep only what has a value
+	for i := range f.slots {
+		if s := &f.slots[i]; !s.has {
+			*s = slot{}
+		} else {
+			s.defined, s.failed = true, false
 		}
 	}
 	for n := range redo {

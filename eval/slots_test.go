@@ -86,6 +86,19 @@ func TestForkTwice(t *testing.T) {
 	if err == nil || err.Msg != "a is already defined on line 1; a name is defined once" {
 		t.Errorf("second definition in a fork: %v", err)
 	}
+	// The second definition marks a failed in the parent, which keeps its
+	// value; a fork takes the value, not the mark.
+	if _, err := e.Exec(mustLine(t, "a = 4", 8)); err == nil {
+		t.Fatal("second definition in the parent: no error")
+	}
+	c := mustLine(t, "c = a + 1", 9)
+	if out, _ := e.Exec(c); out == nil || !out.Skipped {
+		t.Errorf("parent: c = a + 1 not skipped after a failed: %+v", out)
+	}
+	g := e.Fork(map[string]bool{})
+	if out, err := g.Exec(c); err != nil || out.Skipped || valueV(t, g, "c") != 3 {
+		t.Errorf("fork: c = a + 1 gave %+v %v", out, err)
+	}
 }
 
 // TestLaterNameResolved: a statement resolved while a name it reads was
