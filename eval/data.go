@@ -105,7 +105,7 @@ func parseHeader(h string) (string, units.Unit, error) {
 	if !ok {
 		return name, units.Unit{Factor: 1}, nil
 	}
-	u, err := units.Parse(strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(unit), "]")))
+	u, err := units.ParseCached(strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(unit), "]")))
 	if err != nil {
 		return "", units.Unit{}, err
 	}

@@ -3,7 +3,6 @@ package eval
 import (
 	"errors"
 	"fmt"
-	"sort"
 
 	"github.com/vouchcalc/vouch/units"
 )
@@ -28,61 +27,48 @@ type Outcome struct {
 	Display units.Unit // the unit the value is shown in (quantities)
 	Pass    bool       // a check's result
 	Skipped bool       // not evaluated because a name it reads failed
-	Sources []string   // formulations of the property calls the line makes
+	Sources []string   // formulations of the property calls the line makes (shared: read only)
 	Solve   *Solution  // how solve found the value, for NAME = solve(...)
 }
 
 // Engine evaluates statements in file order and holds the defined names.
 type Engine struct {
-	Ctx    units.Context
-	Data   DataReader   // reads csv() files; nil: data files are refused
-	YAML   ValuesReader // reads yaml() files; nil: data files are refused
-	vals   map[string]any
-	defs   map[string]*Stmt
-	failed map[string]bool
+	Ctx   units.Context
+	Data  DataReader   // reads csv() files; nil: data files are refused
+	YAML  ValuesReader // reads yaml() files; nil: data files are refused
+	names *nameTable   // name → slot number (slots.go)
+	slots []slot
+	args  []any     // the argument stack of function calls (resolve.go)
+	outs  []Outcome // room for the next outcomes (newOutcome)
 }
 
 // NewEngine returns an engine with nothing defined.
 func NewEngine(ctx units.Context) *Engine {
-	return &Engine{Ctx: ctx, vals: map[string]any{}, defs: map[string]*Stmt{}, failed: map[string]bool{}}
-}
-
-// Names returns the defined names, sorted.
-func (e *Engine) Names() []string {
-	out := make([]string, 0, len(e.vals))
-	for n := range e.vals {
-		out = append(out, n)
-	}
-	sort.Strings(out)
-	return out
-}
-
-// Value returns the value of a defined name.
-func (e *Engine) Value(name string) (any, bool) {
-	v, ok := e.vals[name]
-	return v, ok
+	return &Engine{Ctx: ctx, names: &nameTable{index: map[string]int{}}}
 }
 
 // Exec evaluates a statement. A definition that fails leaves its name
 // marked failed, so lines that read it are skipped without a second error.
 // An error is an *Error, with the offset of the node that caused it.
 func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
+	r := e.resolve(s)
 	if s.Kind == Def {
-		if prev, ok := e.defs[s.Name]; ok {
-			e.failed[s.Name] = true
-			return nil, &Error{Off: s.NameOff, Msg: sprintf("%s is already defined on line %d; a name is defined once", s.Name, prev.Line)}
+		sl := e.defSlot(s)
+		if sl.defined {
+			sl.failed = true
+			return nil, &Error{Off: s.NameOff, Msg: sprintf("%s is already defined on line %d; a name is defined once", s.Name, sl.def.line())}
 		}
-		e.defs[s.Name] = s
+		sl.def, sl.defined = s, true
 	}
-	out := &Outcome{Stmt: s}
-	for _, d := range s.deps {
-		if e.failed[d] {
+	out := e.newOutcome(s)
+	for i := range s.deps {
+		if d := e.depSlot(r, s, i); d != nil && d.failed {
 			out.Skipped = true
 			e.markFailed(s)
 			return out, nil
 		}
 	}
-	sc := &scope{e: e, s: s}
+	sc := &scope{e: e, s: s, res: r}
 	v, err := sc.eval(s.tree)
 	if err != nil {
 		e.markFailed(s)
@@ -100,13 +86,13 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
 // skipped rather than reported again.
 func (e *Engine) Fail(name string) {
 	if name != "" {
-		e.failed[name] = true
+		e.slotFor(name).failed = true
 	}
 }
 
 func (e *Engine) markFailed(s *Stmt) {
 	if s.Kind == Def {
-		e.failed[s.Name] = true
+		e.defSlot(s).failed = true
 	}
 }
 
@@ -137,7 +123,8 @@ func (e *Engine) finish(out *Outcome, v any) *Error {
 		}
 	}
 	if s.Kind == Def {
-		e.vals[s.Name] = v
+		sl := e.defSlot(s)
+		sl.val, sl.has = v, true
 	}
 	return nil
 }
@@ -162,23 +149,10 @@ func (s *Stmt) label() string {
 	return s.Expr
 }
 
-// Fork returns an engine that starts with the values of e, except for the
-// names in redo, which it leaves undefined so their lines can run again
-// (a sweep re-evaluates only what depends on the varied input).
-func (e *Engine) Fork(redo map[string]bool) *Engine {
-	f := NewEngine(e.Ctx)
-	f.Data, f.YAML = e.Data, e.YAML
-	for n, v := range e.vals {
-		if !redo[n] {
-			f.vals[n] = v
-			f.defs[n] = e.defs[n]
-		}
+// line is the line of a definition; 0 for a name Set defined.
+func (s *Stmt) line() int {
+	if s == nil {
+		return 0
 	}
-	return f
-}
-
-// Set defines a name directly, as a sweep does for its varied input.
-func (e *Engine) Set(name string, v any) {
-	e.vals[name] = v
-	e.defs[name] = &Stmt{Kind: Def, Name: name}
+	return s.Line
 }

@@ -17,7 +17,9 @@ type Func struct {
 	Range   string // validity range, for listings; "" when unrestricted
 	MinArgs int
 	MaxArgs int // -1: any number
-	// Call computes the result; an error is reported at the call.
+	// Call computes the result; an error is reported at the call. args is
+	// lent for the call only (the engine reuses its storage): keep values,
+	// not the slice.
 	Call func(args []any) (any, error)
 }
 
@@ -183,17 +185,14 @@ func (c *scope) call(v *ast.CallNode) (any, *Error) {
 	if n := len(v.Arguments); n < f.MinArgs || (f.MaxArgs >= 0 && n > f.MaxArgs) {
 		return nil, c.errAt(v, "%s(%s) takes %s, not %d", f.Name, f.Args, argCount(f), n)
 	}
-	args := make([]any, len(v.Arguments))
-	for i, a := range v.Arguments {
-		x, err := c.eval(a)
-		if err != nil {
-			return nil, err
-		}
-		args[i] = x
-	}
-	out, err := f.Call(args)
+	args, base, err := c.pushArgs(v.Arguments)
 	if err != nil {
-		return nil, c.errAt(v, "%s", err.Error())
+		return nil, err
+	}
+	out, ferr := f.Call(args)
+	c.e.popArgs(base)
+	if ferr != nil {
+		return nil, c.errAt(v, "%s", ferr.Error())
 	}
 	c.note(out)
 	if q, ok := out.(units.Quantity); ok && (math.IsNaN(q.V) || math.IsInf(q.V, 0)) {

@@ -26,8 +26,10 @@ type Sourced interface {
 type scope struct {
 	e        *Engine
 	s        *Stmt
-	sources  []string  // formulations of the property calls, in order
-	solution *Solution // set by solve
+	sources  []string    // formulations of the property calls, in order
+	solution *Solution   // set by solve
+	res      *resolution // the statement's slot numbers; nil: look names up by text
+	slow     bool        // a quick path failed: evaluate the general way (quick.go)
 }
 
 // note records the formulation of a property result once.
@@ -40,6 +42,10 @@ func (c *scope) note(v any) {
 		if s == src.Source() {
 			return
 		}
+	}
+	if c.sources == nil {
+		c.sources = oneSource(src.Source()) // shared; its capacity of 1 makes the next append copy
+		return
 	}
 	c.sources = append(c.sources, src.Source())
 }
@@ -92,13 +98,13 @@ func describeNode(n ast.Node) string {
 }
 
 func (c *scope) ident(v *ast.IdentifierNode) (any, *Error) {
-	if l, ok := c.s.lits[v.Value]; ok {
+	if l, ok := c.s.Literal(v.Value); ok {
 		return l.Q, nil
 	}
 	if v.Value == "pi" {
 		return units.Num(math.Pi), nil
 	}
-	if val, ok := c.e.vals[v.Value]; ok {
+	if val, ok := c.valueOf(v.Value); ok {
 		return val, nil
 	}
 	msg := "undefined name " + v.Value
@@ -138,6 +144,11 @@ func (c *scope) unary(v *ast.UnaryNode) (any, *Error) {
 }
 
 func (c *scope) binary(v *ast.BinaryNode) (any, *Error) {
+	if q, done, slowed := c.quickBinary(v); done { // quick.go
+		return q, nil
+	} else if slowed {
+		defer c.endSlow()
+	}
 	switch v.Operator {
 	case "&&", "and", "||", "or":
 		return c.logical(v)

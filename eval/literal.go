@@ -45,10 +45,11 @@ func (s *Stmt) compile(ctx units.Context) *Error {
 		return s.exprError(err)
 	}
 	s.tree = tree.Node
-	s.deps = collectDeps(s.tree, lits)
+	skip := "" // solve reads the name it defines: not a dependency
 	if s.Kind == Def {
-		s.deps = without(s.deps, s.Name) // solve reads the name it defines
+		skip = s.Name
 	}
+	s.deps = collectDeps(s.tree, lits, skip)
 	return nil
 }
 
@@ -174,9 +175,10 @@ var notUnits = map[string]bool{"and": true, "or": true, "not": true, "matches": 
 // rewriteLiterals replaces each "number unit" by a placeholder identifier of
 // the same byte length ("_0  ", "_1    "), so that expr's parser sees an
 // identifier and every offset keeps its meaning.
-func rewriteLiterals(expr string, off int, ctx units.Context) (string, map[string]*Literal, *Error) {
-	var out []byte
-	var lits map[string]*Literal
+func rewriteLiterals(expr string, off int, ctx units.Context) (string, []*Literal, *Error) {
+	var out strings.Builder // the rewritten text up to last, once a literal is found
+	var lits []*Literal
+	last := 0
 	for i := 0; i < len(expr); {
 		c := expr[i]
 		switch {
@@ -199,24 +201,30 @@ func rewriteLiterals(expr string, off int, ctx units.Context) (string, map[strin
 			if e != nil {
 				return "", nil, e
 			}
-			if out == nil {
-				out, lits = []byte(expr), map[string]*Literal{}
+			if lits == nil {
+				out.Grow(len(expr))
+				lits = make([]*Literal, 0, 4)
 			}
 			name := placeholder(len(lits))
 			if len(name) > uEnd-i {
 				return "", nil, &Error{Off: off + i, Msg: "too many unit literals in one line"}
 			}
-			lits[name] = lit
-			copy(out[i:uEnd], name+strings.Repeat(" ", uEnd-i-len(name)))
-			i = uEnd
+			lits = append(lits, lit)
+			out.WriteString(expr[last:i])
+			out.WriteString(name)
+			for k := i + len(name); k < uEnd; k++ {
+				out.WriteByte(' ')
+			}
+			i, last = uEnd, uEnd
 		default:
 			i++
 		}
 	}
-	if out == nil {
+	if lits == nil {
 		return expr, nil, nil
 	}
-	return string(out), lits, nil
+	out.WriteString(expr[last:])
+	return out.String(), lits, nil
 }
 
 func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*Literal, *Error) {
@@ -227,7 +235,7 @@ func makeLiteral(expr string, i, numEnd, j, uEnd, off int, ctx units.Context) (*
 	if err != nil && !errors.Is(err, strconv.ErrRange) {
 		return nil, &Error{Off: off + i, Msg: sprintf("cannot read the number %s", expr[i:numEnd])}
 	}
-	u, err := units.Parse(expr[j:uEnd])
+	u, err := units.ParseCached(expr[j:uEnd])
 	if err != nil {
 		ue := unitError(err)
 		return nil, &Error{Off: off + j + ue.Off, Msg: ue.Msg}
@@ -253,7 +261,44 @@ func signedStart(s string, i int) bool {
 }
 
 // placeholder names the n-th literal: "_" and n in base 36.
-func placeholder(n int) string { return "_" + strconv.FormatInt(int64(n), 36) }
+func placeholder(n int) string {
+	if n < len(placeholders) {
+		return placeholders[n]
+	}
+	return "_" + strconv.FormatInt(int64(n), 36)
+}
+
+// placeholders are the names of the first 36 literals of a line.
+var placeholders = func() (out [36]string) {
+	for n := range out {
+		out[n] = "_" + strconv.FormatInt(int64(n), 36)
+	}
+	return out
+}()
+
+// litOf returns the literal a placeholder name stands for: "_" and its
+// number in base 36, without leading zeros.
+func litOf(lits []*Literal, name string) (*Literal, bool) {
+	if len(name) < 2 || name[0] != '_' || len(name) > 2 && name[1] == '0' {
+		return nil, false
+	}
+	n := 0
+	for i := 1; i < len(name); i++ {
+		c := name[i]
+		switch {
+		case isDigit(c):
+			n = n*36 + int(c-'0')
+		case c >= 'a' && c <= 'z':
+			n = n*36 + int(c-'a') + 10
+		default:
+			return nil, false
+		}
+		if n >= len(lits) {
+			return nil, false
+		}
+	}
+	return lits[n], true
+}
 
 func isDigit(c byte) bool       { return c >= '0' && c <= '9' }
 func isASCIILetter(c byte) bool { return c|0x20 >= 'a' && c|0x20 <= 'z' }
@@ -325,51 +370,67 @@ func scanUnit(s string, i int) int {
 	return end
 }
 
-func without(list []string, name string) []string {
-	out := list[:0:0]
-	for _, n := range list {
-		if n != name {
-			out = append(out, n)
-		}
-	}
-	return out
+// collectDeps lists the identifiers an expression reads, without function
+// names, placeholders, constants and skip, in order of first use.
+func collectDeps(n ast.Node, lits []*Literal, skip string) []string {
+	w := depWalker{lits: lits, skip: skip}
+	w.walk(n)
+	return w.deps
 }
 
-// collectDeps lists the identifiers an expression reads, without function
-// names, placeholders and constants, in order of first use.
-func collectDeps(n ast.Node, lits map[string]*Literal) []string {
-	var deps []string
-	seen := map[string]bool{}
-	var walk func(n ast.Node)
-	walk = func(n ast.Node) {
-		switch v := n.(type) {
-		case *ast.IdentifierNode:
-			if _, lit := lits[v.Value]; !lit && v.Value != "pi" && !seen[v.Value] {
-				seen[v.Value] = true
-				deps = append(deps, v.Value)
-			}
-		case *ast.CallNode:
-			if _, ok := v.Callee.(*ast.IdentifierNode); !ok {
-				walk(v.Callee)
-			}
-			for _, a := range v.Arguments {
-				walk(a)
-			}
-		case *ast.UnaryNode:
-			walk(v.Node)
-		case *ast.BinaryNode:
-			walk(v.Left)
-			walk(v.Right)
-		case *ast.ConditionalNode:
-			walk(v.Cond)
-			walk(v.Exp1)
-			walk(v.Exp2)
-		case *ast.MemberNode:
-			walk(v.Node)
+// depWalker gathers a line's dependencies; seen is made only for a line
+// with many names, a scan of deps being faster for a few.
+type depWalker struct {
+	lits []*Literal
+	skip string
+	deps []string
+	seen map[string]bool
+}
+
+func (w *depWalker) walk(n ast.Node) {
+	switch v := n.(type) {
+	case *ast.IdentifierNode:
+		w.add(v.Value)
+	case *ast.CallNode:
+		if _, ok := v.Callee.(*ast.IdentifierNode); !ok {
+			w.walk(v.Callee)
+		}
+		for _, a := range v.Arguments {
+			w.walk(a)
+		}
+	case *ast.UnaryNode:
+		w.walk(v.Node)
+	case *ast.BinaryNode:
+		w.walk(v.Left)
+		w.walk(v.Right)
+	case *ast.ConditionalNode:
+		w.walk(v.Cond)
+		w.walk(v.Exp1)
+		w.walk(v.Exp2)
+	case *ast.MemberNode:
+		w.walk(v.Node)
+	}
+}
+
+func (w *depWalker) add(name string) {
+	if _, lit := litOf(w.lits, name); lit || name == "pi" || name == w.skip {
+		return
+	}
+	if w.seen == nil && len(w.deps) >= 16 {
+		w.seen = make(map[string]bool, 2*len(w.deps))
+		for _, d := range w.deps {
+			w.seen[d] = true
 		}
 	}
-	walk(n)
-	return deps
+	if w.seen != nil {
+		if w.seen[name] {
+			return
+		}
+		w.seen[name] = true
+	} else if indexOf(w.deps, name) >= 0 {
+		return
+	}
+	w.deps = append(w.deps, name)
 }
 
 // unitError returns a unit parse error with its offset in the unit text.

@@ -76,8 +76,9 @@ func (c *scope) bracket(v *ast.CallNode) (units.Quantity, units.Quantity, *Error
 // residual evaluates LEFT − RIGHT with NAME set to x (in the bounds' unit kind).
 func (c *scope) residual(eq *ast.BinaryNode, like units.Quantity, x float64) (float64, units.Quantity, *Error) {
 	name := c.s.Name
-	c.e.vals[name] = units.Quantity{V: x, D: like.D, T: like.T}
-	defer delete(c.e.vals, name)
+	sl := c.e.slotFor(name)
+	sl.val, sl.has = units.Quantity{V: x, D: like.D, T: like.T}, true
+	defer c.e.unset(name)
 	l, err := c.eval(eq.Left)
 	if err != nil {
 		return 0, units.Quantity{}, err

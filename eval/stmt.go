@@ -8,6 +8,7 @@ package eval
 
 import (
 	"strings"
+	"sync/atomic"
 	"unicode"
 	"unicode/utf8"
 
@@ -51,11 +52,12 @@ type Stmt struct {
 
 	display units.Unit
 	hasUnit bool
-	src     string              // Expr with literals replaced by placeholders
-	tree    ast.Node            // parsed src
-	syntax  Node                // tree in this package's types, for renderers
-	lits    map[string]*Literal // placeholder name → literal
+	src     string     // Expr with literals replaced by placeholders
+	tree    ast.Node   // parsed src
+	syntax  Node       // tree in this package's types, for renderers
+	lits    []*Literal // the unit literals; placeholder n stands for lits[n]
 	deps    []string
+	res     atomic.Pointer[resolution] // deps and Name as slot numbers (resolve.go)
 }
 
 // Literal is a number with a unit written in an expression, such as 12.5 MPa.
@@ -72,8 +74,7 @@ func (s *Stmt) Deps() []string { return s.deps }
 
 // Literal returns the unit literal a placeholder identifier stands for.
 func (s *Stmt) Literal(ident string) (*Literal, bool) {
-	l, ok := s.lits[ident]
-	return l, ok
+	return litOf(s.lits, ident)
 }
 
 // DisplayUnit returns the [UNIT] of a definition and whether it has one.
@@ -163,7 +164,7 @@ func (s *Stmt) parseHead(rest string, off int, ctx units.Context) *Error {
 		}
 		s.Unit = strings.TrimSpace(rest[i+1 : i+end])
 		s.UnitOff = off + i + 1 + (len(rest[i+1:i+end]) - len(strings.TrimLeft(rest[i+1:i+end], " ")))
-		u, err := units.Parse(s.Unit)
+		u, err := units.ParseCached(s.Unit)
 		if err != nil {
 			ue := unitError(err)
 			return &Error{Off: s.UnitOff + ue.Off, Msg: ue.Msg}
@@ -223,7 +224,8 @@ func checkName(name string, off int) *Error {
 // literal, such as 540 degC, else nil.
 func (s *Stmt) LoneLiteral() *Literal {
 	if id, ok := s.tree.(*ast.IdentifierNode); ok {
-		return s.lits[id.Value]
+		l, _ := s.Literal(id.Value)
+		return l
 	}
 	return nil
 }
@@ -240,7 +242,7 @@ func ParseInline(text string, off, line int, ctx units.Context) (*Stmt, []*Error
 		if i := strings.LastIndexByte(body, '['); i >= 0 {
 			s.Unit = strings.TrimSpace(body[i+1 : len(body)-1])
 			s.UnitOff = off + i + 1
-			u, err := units.Parse(s.Unit)
+			u, err := units.ParseCached(s.Unit)
 			if err != nil {
 				ue := unitError(err)
 				return nil, []*Error{{Off: s.UnitOff + ue.Off, Msg: ue.Msg}}
@@ -273,7 +275,7 @@ func (s *Stmt) IsLiteralInput() bool {
 func (s *Stmt) IsLoneName() bool {
 	switch v := s.tree.(type) {
 	case *ast.IdentifierNode:
-		_, lit := s.lits[v.Value]
+		_, lit := s.Literal(v.Value)
 		return !lit
 	case *ast.MemberNode:
 		_, ok := v.Node.(*ast.IdentifierNode)

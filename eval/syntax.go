@@ -104,7 +104,7 @@ func (s *Stmt) convert(n ast.Node) Node {
 	case *ast.StringNode:
 		return &Text{b, v.Value}
 	case *ast.IdentifierNode:
-		if l, ok := s.lits[v.Value]; ok {
+		if l, ok := s.Literal(v.Value); ok {
 			return &Quantity{b, l}
 		}
 		return &Name{b, v.Value}

@@ -90,7 +90,7 @@ func valueOf(kv KeyValue, ctx units.Context) (any, error) {
 	if strings.TrimSpace(unit) == "" {
 		return units.Num(x), nil
 	}
-	u, err := units.Parse(strings.TrimSpace(unit))
+	u, err := units.ParseCached(strings.TrimSpace(unit))
 	if err != nil {
 		return nil, err
 	}

@@ -31,20 +31,7 @@ var displayChoices = map[Dim][]string{
 // DefaultUnit returns the unit a quantity is shown in when the calc names
 // none: a common SI unit for its dimension with a prefix that keeps the
 // number readable, else the SI base-unit form.
-func DefaultUnit(q Quantity) Unit {
-	choices, ok := displayChoices[q.D]
-	if !ok {
-		return siUnit(q.D)
-	}
-	best := MustParse(choices[0])
-	for _, c := range choices[1:] {
-		u := MustParse(c)
-		if math.Abs(q.V)/u.Factor >= 1 {
-			best = u
-		}
-	}
-	return best
-}
+func DefaultUnit(q Quantity) Unit { return defaultUnit(q) }
 
 // siUnit builds the base-unit form of a dimension ("kg/(m*s^2)").
 func siUnit(d Dim) Unit {
