@@ -77,7 +77,7 @@ func (c *scope) bracket(v *ast.CallNode) (units.Quantity, units.Quantity, *Error
 func (c *scope) residual(eq *ast.BinaryNode, like units.Quantity, x float64) (float64, units.Quantity, *Error) {
 	name := c.s.Name
 	sl := c.e.slotFor(name)
-	sl.val, sl.has = units.Quantity{V: x, D: like.D, T: like.T}, true
+	sl.val, sl.has = units.Quantity{V: x, D: like.D, T: like.T, P: like.P}, true
 	defer c.e.unset(name)
 	l, err := c.eval(eq.Left)
 	if err != nil {
@@ -168,13 +168,13 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 		}
 		n += extra
 		if !ok {
-			x := units.Quantity{V: b, D: lo.D, T: lo.T}
+			x := units.Quantity{V: b, D: lo.D, T: lo.T, P: lo.P}
 			return nil, c.errAt(v, "the equation changes sign between the bounds but has no root there: left − right jumps across %s, where it is still %s; look for a step or a pole in the equation, or choose bounds around a root",
 				quantityText(x), quantityText(rb))
 		}
 	}
 	c.solution = &Solution{Lo: lo, Hi: hi, Residual: rb, Iterations: n}
-	return units.Quantity{V: b, D: lo.D, T: lo.T}, nil
+	return units.Quantity{V: b, D: lo.D, T: lo.T, P: lo.P}, nil
 }
 
 // settle bisects a bracket [x0, x1] whose residuals f0 and f1 differ in sign until its ends are
