@@ -106,9 +106,5 @@ func (d *Doc) pressureText(p float64) string {
 		u = units.DefaultUnit(q)
 		v = p / u.Factor
 	}
-	s := units.FormatSig(v, 3)
-	if strings.Contains(s, ".") && !strings.Contains(s, "e") {
-		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
-	}
-	return s + "\u2009" + UnitText(u)
+	return trimZeros(units.FormatSig(v, 3)) + "\u2009" + UnitText(u)
 }

@@ -58,7 +58,8 @@ func namedValue(name string, q units.Quantity, u units.Unit, digits int, ctx uni
 	return append(nameRuns(name), svgplot.Run{Text: " = " + quantityPlain(q, u, digits, ctx)})
 }
 
-// quantityPlain is a quantity as plain text with a typeset unit: "8.00 kPa",
+// quantityPlain is a quantity as plain text with a typeset unit, trailing
+// zeros of the fraction dropped: "8 kPa",
 // "540 °C"; in the SI unit of its dimension when u does not fit.
 func quantityPlain(q units.Quantity, u units.Unit, digits int, ctx units.Context) string {
 	v, err := q.In(u, ctx)
@@ -66,9 +67,18 @@ func quantityPlain(q units.Quantity, u units.Unit, digits int, ctx units.Context
 		u = units.DefaultUnit(units.Quantity{V: q.V, D: q.D})
 		v = q.V / u.Factor
 	}
-	s := strings.Replace(units.FormatSig(v, digits), "-", "−", 1)
+	s := strings.Replace(trimZeros(units.FormatSig(v, digits)), "-", "−", 1)
 	if t := UnitText(u); t != "" {
 		s += "\u2009" + t
+	}
+	return s
+}
+
+// trimZeros drops the trailing zeros of a fraction written in fixed
+// notation, for labels on plots: "2.500" → "2.5", "8.00" → "8".
+func trimZeros(s string) string {
+	if strings.Contains(s, ".") && !strings.ContainsAny(s, "eE") {
+		s = strings.TrimSuffix(strings.TrimRight(s, "0"), ".")
 	}
 	return s
 }

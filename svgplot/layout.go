@@ -137,7 +137,8 @@ func rightMargin(labels []string) float64 {
 }
 
 // extent is the data extent along one axis: of everything, and of the
-// markers alone (Points, and the pairs of Markers and Marked series).
+// marked and labelled data alone (Points, the pairs of Markers and Marked
+// series, the curves of PathLabels).
 type extent struct{ all, pts span }
 
 // extents returns the data extents along x and y.
@@ -152,6 +153,12 @@ func (p *Plot) extents() (x, y extent) {
 				x.pts.add(s.X[i])
 				y.pts.add(s.Y[i])
 			}
+		}
+	}
+	for _, pl := range p.PathLabels {
+		for i := range min(len(pl.X), len(pl.Y)) {
+			x.pts.add(pl.X[i])
+			y.pts.add(pl.Y[i])
 		}
 	}
 	for _, pt := range p.Points {
