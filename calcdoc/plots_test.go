@@ -100,7 +100,7 @@ func TestQualityLinesInsideDome(t *testing.T) {
 // below a T-s or h-s line.
 func TestDiagramQualityErrors(t *testing.T) {
 	for block, want := range map[string]string{
-		"quality: 0.5":                       "a quality line belongs to the T-s or h-s line above it in the same block; write that line first",
+		"quality: 0.5":                        "a quality line belongs to the T-s or h-s line above it in the same block; write that line first",
 		"T-s: st_1, st_2, st_3\nquality: 1.2": "quality: 1.2 is not a number between 0 and 1; write quality: 0.2, 0.4, 0.6, 0.8",
 		"T-s: st_1, st_2, st_3\nquality: a":   "quality: a is not a number between 0 and 1; write quality: 0.2, 0.4, 0.6, 0.8",
 		"T-s: st_1, st_2, st_3\nquality:":     "write the qualities to draw: quality: 0.2, 0.4, 0.6, 0.8",
