@@ -207,6 +207,9 @@ func TestLayoutRandom(t *testing.T) {
 	rendered, labels := 0, 0
 	for i := range 500 {
 		p := randomPlot(r)
+		if r.IntN(3) == 0 {
+			addCluster(r, p)
+		}
 		for k := range r.IntN(4) {
 			n := 2 + r.IntN(30)
 			p.PathLabels = append(p.PathLabels, PathLabel{Text: Text{{Text: "p", Italic: true}, {Text: strconv.Itoa(k), Sub: true}, {Text: " = 1.5 MPa"}}, X: randomValues(r, n), Y: randomValues(r, n)})
@@ -286,4 +289,22 @@ func insertAfter(s, mark, add string) string {
 	}
 	i += strings.Index(s[i:], ">") + 1
 	return s[:i] + add + s[i:]
+}
+
+// addCluster adds up to 12 states close together (within a few per cent
+// of the data's spread, or all at one place), with labels of one to three
+// characters, as the feed heaters of a cycle crowd the liquid line.
+func addCluster(r *rand.Rand, p *Plot) {
+	if len(p.Points) == 0 {
+		return
+	}
+	c := p.Points[0]
+	dx, dy := 0.02*(1+math.Abs(c.X)), 0.02*(1+math.Abs(c.Y))
+	if r.IntN(4) == 0 {
+		dx, dy = 0, 0
+	}
+	for i := range r.IntN(12) + 1 {
+		label := strconv.Itoa(i) + strings.Repeat("b", r.IntN(3))
+		p.Points = append(p.Points, Point{Label: label, X: c.X + dx*r.NormFloat64(), Y: c.Y + dy*r.NormFloat64()})
+	}
 }
