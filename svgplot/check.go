@@ -90,13 +90,14 @@ func inside(frame, r rect) bool {
 }
 
 // labelBox reads the rest of a label's <text> element and returns its
-// estimated box: centred on x, standing on the baseline y.
+// estimated box: centred on x, standing on the baseline y, reaching below
+// it when it holds a subscript.
 func labelBox(d *xml.Decoder, a map[string]string, group string) (rect, error) {
 	fs, em := float64(fontLabel), boldEm
 	if group == "path-labels" {
 		fs, em = fontPath, 1
 	}
-	w, scale := 0.0, []float64{1}
+	w, drop, scale := 0.0, 0.0, []float64{1}
 	for depth := 1; depth > 0; {
 		tok, err := d.Token()
 		if err != nil {
@@ -106,7 +107,7 @@ func labelBox(d *xml.Decoder, a map[string]string, group string) (rect, error) {
 		case xml.StartElement:
 			s := 1.0
 			if attrs(t)["baseline-shift"] == "sub" {
-				s = subScale
+				s, drop = subScale, subDrop*fs
 			}
 			scale, depth = append(scale, s), depth+1
 		case xml.EndElement:
@@ -116,7 +117,7 @@ func labelBox(d *xml.Decoder, a map[string]string, group string) (rect, error) {
 		}
 	}
 	x, y := fnum(a["x"]), fnum(a["y"])
-	return rect{x - w/2, y - ascent*fs, x + w/2, y}, nil
+	return rect{x - w/2, y - ascent*fs, x + w/2, y + drop}, nil
 }
 
 // dataCoords returns the px coordinates an element draws at.

@@ -24,7 +24,7 @@ func drawPathLabels(w *writer, labels []PathLabel, pl *placer, l *layout) {
 		if lb.Text.empty() {
 			continue
 		}
-		r, ok := pl.placeAlong(pathPx(lb, l), lb.Text.width(fontPath), ascent*fontPath)
+		r, ok := pl.placeAlong(pathPx(lb, l), lb.Text.width(fontPath), ascent*fontPath+lb.Text.drop(fontPath))
 		if ok {
 			texts, boxes = append(texts, lb.Text), append(boxes, r)
 		}
@@ -37,7 +37,7 @@ func drawPathLabels(w *writer, labels []PathLabel, pl *placer, l *layout) {
 		"paint-order", "stroke", "text-anchor", "middle")
 	for i, t := range texts {
 		r := boxes[i]
-		w.rich(t, "x", num((r.x0+r.x1)/2), "y", num(r.y1))
+		w.rich(t, "x", num((r.x0+r.x1)/2), "y", num(r.y1-t.drop(fontPath)))
 	}
 	w.end("g")
 }

@@ -5,8 +5,13 @@ import (
 	"unicode/utf8"
 )
 
-// subScale is the size of a subscript relative to the text around it.
-const subScale = 0.75
+// subScale is the size of a subscript relative to the text around it;
+// subDrop is how far, in em of the text around it, a subscript reaches
+// below the baseline.
+const (
+	subScale = 0.75
+	subDrop  = 0.3
+)
 
 // Run is a stretch of label text in one style.
 type Run struct {
@@ -52,6 +57,18 @@ func (t Text) empty() bool {
 		}
 	}
 	return true
+}
+
+// drop returns how far below the baseline the text reaches at font size
+// fs: subDrop em when it has a subscript, else nothing (descenders are
+// ignored, as they are for every label).
+func (t Text) drop(fs float64) float64 {
+	for _, r := range t {
+		if r.Sub && r.Text != "" {
+			return subDrop * fs
+		}
+	}
+	return 0
 }
 
 // width estimates the width in px of the text at font size fs.
