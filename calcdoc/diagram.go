@@ -8,21 +8,23 @@ import (
 
 	"github.com/vouchcalc/vouch/props"
 	"github.com/vouchcalc/vouch/svgplot"
-	"github.com/vouchcalc/vouch/units"
 )
 
 // Diagram is one diagram of a `diagram` block: a T-s or h-s diagram of the
 // cycle through the named states, in order, closed back to the first, with
 // the open branches (bleed steam, heater drains) of the `branch` lines
-// that follow it.
+// that follow it and the lines of constant vapour quality of a `quality`
+// line.
 //
 //	T-s: st_1, st_b, st_2, st_3, st_4, st_5
 //	branch: st_b, st_d
+//	quality: 0.2, 0.4, 0.6, 0.8
 type Diagram struct {
 	Kind     string // "T-s" or "h-s"
 	Off      int
 	States   []field
 	Branches [][]field
+	Quality  []float64 // vapour qualities of the lines drawn inside the dome
 	SVG      []byte
 	block    int
 }
@@ -39,11 +41,21 @@ func (d *Doc) readDiagram(b *gast.FencedCodeBlock) {
 	for _, l := range d.directives(b) {
 		kind, list, ok := strings.Cut(l.text, ":")
 		kind = strings.TrimSpace(kind)
-		if !ok || (kind != "T-s" && kind != "h-s" && kind != "branch") {
-			d.errorf(l.off, "write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ..., and a branch of the cycle above it as branch: st_1, st_2, ...")
+		if !ok || (kind != "T-s" && kind != "h-s" && kind != "branch" && kind != "quality") {
+			d.errorf(l.off, "write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ..., and a branch of the cycle above it as branch: st_1, st_2, ... or its quality lines as quality: 0.2, 0.4, ...")
 			continue
 		}
-		states := splitList(list, l.off+strings.Index(l.text, ":")+1)
+		listOff := l.off + strings.Index(l.text, ":") + 1
+		if kind == "quality" {
+			if len(blk.diagrams) == 0 {
+				d.errorf(l.off, "a quality line belongs to the T-s or h-s line above it in the same block; write that line first")
+			} else if qs, ok := d.readQuality(list, listOff); ok {
+				last := blk.diagrams[len(blk.diagrams)-1]
+				last.Quality = append(last.Quality, qs...)
+			}
+			continue
+		}
+		states := splitList(list, listOff)
 		if len(states) < 2 {
 			d.errorf(l.off, "a %s line needs at least two states", kind)
 			continue
@@ -105,6 +117,9 @@ func (d *Doc) diagramStates(fields []field, fluid string) ([]diagramState, bool)
 	return out, true
 }
 
+// drawDiagram draws one diagram: the dome, any quality lines, the cycle
+// and its branches, the states, and the pressure of each heat-exchange
+// isobar.
 func (d *Doc) drawDiagram(dg *Diagram) {
 	states, ok := d.diagramStates(dg.States, "")
 	if !ok {
@@ -119,45 +134,32 @@ func (d *Doc) drawDiagram(dg *Diagram) {
 		}
 		all = append(all[:len(all):len(all)], branches[i]...)
 	}
-	p := &svgplot.Plot{Title: dg.Kind + " diagram (" + fluid + ")", XLabel: "s [kJ/(kg·K)]", YLabel: "T [°C]"}
-	if dg.Kind == "h-s" {
-		p.YLabel = "h [kJ/kg]"
-	}
-	y := func(c props.CurvePoint) float64 {
-		if dg.Kind == "h-s" {
-			return c.H / 1000
-		}
-		return c.T - 273.15
-	}
-	dome, err := props.Dome(fluid, 80, domeStart(all))
+	p := diagramPlot(dg.Kind, fluid)
+	y := diagramY(dg.Kind)
+	dome, err := props.Dome(fluid, domePoints, domeStart(all))
 	if err != nil {
 		d.errorf(dg.Off, "diagram: %v", err)
 		return
 	}
 	p.Series = append(p.Series, curveSeries("saturation line", dome, y, svgplot.Dome))
-	path, err := processPath(states, true)
+	d.qualityLines(p, dg.Quality, dome, y)
+	var segs []heatSeg
+	path, err := tracePath(states, true, &segs)
 	if err != nil {
 		d.errorf(dg.Off, "diagram: %v", err)
 		return
 	}
 	p.Series = append(p.Series, curveSeries("cycle", path, y, svgplot.Process))
 	for i, b := range branches {
-		path, err := processPath(b, false)
+		path, err := tracePath(b, false, &segs)
 		if err != nil {
 			d.errorf(dg.Branches[i][0].off, "diagram: %v", err)
 			return
 		}
 		p.Series = append(p.Series, curveSeries("branch", path, y, svgplot.Branch))
 	}
-	labelled := map[string]bool{}
-	for _, s := range all {
-		if labelled[s.name] {
-			continue
-		}
-		labelled[s.name] = true
-		c := props.CurvePoint{T: s.T, S: s.s, H: s.h}
-		p.Points = append(p.Points, svgplot.Point{Label: stateLabel(s.name), X: s.s / 1000, Y: y(c), Title: s.name})
-	}
+	p.Points = statePoints(all, y)
+	p.PathLabels = append(p.PathLabels, d.isobarLabels(segs, y)...)
 	entropyAxis(p)
 	svg, err := p.SVG()
 	if err != nil {
@@ -165,6 +167,46 @@ func (d *Doc) drawDiagram(dg *Diagram) {
 		return
 	}
 	dg.SVG = svg
+}
+
+// domePoints is the number of points on each side of a diagram's dome.
+const domePoints = 80
+
+// diagramPlot is an empty T-s or h-s diagram with its typeset title and
+// axes.
+func diagramPlot(kind, fluid string) *svgplot.Plot {
+	ySym, yUnit := "T", " [°C]"
+	if kind == "h-s" {
+		ySym, yUnit = "h", " [kJ/kg]"
+	}
+	p := &svgplot.Plot{Title: kind + " diagram (" + fluid + ")", XLabel: "s [kJ/(kg·K)]", YLabel: ySym + yUnit}
+	p.TitleText = svgplot.Text{{Text: ySym, Italic: true}, {Text: "–"}, {Text: "s", Italic: true}, {Text: " diagram (" + fluid + ")"}}
+	p.XText = symbolRuns("s", " [kJ/(kg·K)]")
+	p.YText = symbolRuns(ySym, yUnit)
+	return p
+}
+
+// diagramY returns the ordinate of a diagram: T in °C or h in kJ/kg.
+func diagramY(kind string) func(props.CurvePoint) float64 {
+	if kind == "h-s" {
+		return func(c props.CurvePoint) float64 { return c.H / 1000 }
+	}
+	return func(c props.CurvePoint) float64 { return c.T - 273.15 }
+}
+
+// statePoints labels each state once, without its st_ prefix.
+func statePoints(all []diagramState, y func(props.CurvePoint) float64) []svgplot.Point {
+	var out []svgplot.Point
+	labelled := map[string]bool{}
+	for _, s := range all {
+		if labelled[s.name] {
+			continue
+		}
+		labelled[s.name] = true
+		c := props.CurvePoint{T: s.T, S: s.s, H: s.h}
+		out = append(out, svgplot.Point{Label: stateLabel(s.name), X: s.s / 1000, Y: y(c), Title: s.name})
+	}
+	return out
 }
 
 // stateLabel is a state's name without a leading "st_".
@@ -190,6 +232,19 @@ func curveSeries(name string, pts []props.CurvePoint, y func(props.CurvePoint) f
 // the dome where it crosses it; compression, expansion and throttling as a
 // straight line.
 func processPath(states []diagramState, closed bool) ([]props.CurvePoint, error) {
+	return tracePath(states, closed, nil)
+}
+
+// heatSeg is one heat-exchange step of a diagram: its two states and the
+// path between them.
+type heatSeg struct {
+	a, b diagramState
+	path []props.CurvePoint
+}
+
+// tracePath is processPath that also appends each heat-exchange step to
+// segs, when segs is not nil.
+func tracePath(states []diagramState, closed bool, segs *[]heatSeg) ([]props.CurvePoint, error) {
 	var out []props.CurvePoint
 	n := len(states)
 	if !closed {
@@ -206,6 +261,9 @@ func processPath(states []diagramState, closed bool) ([]props.CurvePoint, error)
 			return nil, err
 		}
 		out = append(out, seg[1:len(seg)-1]...)
+		if segs != nil {
+			*segs = append(*segs, heatSeg{a, b, seg})
+		}
 	}
 	end := states[len(states)-1]
 	if closed {
@@ -215,58 +273,9 @@ func processPath(states []diagramState, closed bool) ([]props.CurvePoint, error)
 	return out, nil
 }
 
-// sweepPlots builds the plots of a sweep: each named result against the
-// varied input.
-func (d *Doc) sweepPlots(sw *Sweep) {
-	for k, name := range sw.Plot {
-		col := -1
-		for j, c := range sw.Show {
-			if c.Name == name {
-				col = j
-			}
-		}
-		if col < 0 {
-			d.errorf(sw.plotOffs[k], "plot %s: show %s in the same sweep first", name, name)
-			continue
-		}
-		svg, err := d.sweepPlot(sw, col)
-		if err != nil {
-			d.errorf(sw.plotOffs[k], "plot %s: %v", name, err)
-			continue
-		}
-		sw.SVGs = append(sw.SVGs, svg)
-	}
-}
-
-func (d *Doc) sweepPlot(sw *Sweep, col int) ([]byte, error) {
-	c := sw.Show[col]
-	yu := d.ColumnUnit(c, sw.Rows[0][col])
-	s := svgplot.Series{Name: c.Name, Style: svgplot.Process}
-	for i, x := range sw.X {
-		xv, err := x.In(sw.XUnit, d.Front.Ctx)
-		if err != nil {
-			return nil, err
-		}
-		yv, err := sw.Rows[i][col].In(yu, d.Front.Ctx)
-		if err != nil {
-			return nil, err
-		}
-		s.X, s.Y = append(s.X, xv), append(s.Y, yv)
-	}
-	p := &svgplot.Plot{Title: plainName(c.Name) + " against " + plainName(sw.Var), XLabel: axisLabel(sw.Var, sw.XUnit), YLabel: axisLabel(c.Name, yu), Series: []svgplot.Series{s}}
-	return p.SVG()
-}
-
-func axisLabel(name string, u units.Unit) string {
-	if t := unitText(u); t != "" {
-		return plainName(name) + " [" + t + "]"
-	}
-	return plainName(name)
-}
-
 // entropyAxis starts the entropy axis at zero when no point lies left of it,
-// as engineers draw T-s and h-s diagrams, and lets the other axis range
-// itself.
+// as engineers draw T-s and h-s diagrams, and ends both axes on a tick
+// with headroom beyond the data.
 func entropyAxis(p *svgplot.Plot) {
 	lo, hi, ylo, yhi := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
 	for _, s := range p.Series {
@@ -283,9 +292,47 @@ func entropyAxis(p *svgplot.Plot) {
 	if len(xt) < 2 || len(yt) < 2 {
 		return
 	}
-	p.XMin, p.XMax = 0, math.Max(xt[len(xt)-1], hi)
-	p.YMin, p.YMax = math.Min(yt[0], ylo), math.Max(yt[len(yt)-1], yhi)
+	pts := pointExtent(p.Points)
+	pad := diagramHeadroom * (yhi - ylo)
+	p.XMin = 0
+	p.XMax = roomEnd(hi, pts[1] >= hi-diagramHeadroom*hi, diagramHeadroom*hi, xt[1]-xt[0], 1)
+	p.YMin = roomEnd(ylo, pts[2] <= ylo+pad, pad, yt[1]-yt[0], -1)
+	p.YMax = roomEnd(yhi, pts[3] >= yhi-pad, pad, yt[1]-yt[0], 1)
 }
+
+// pointExtent returns the least and greatest X and Y of the points:
+// xlo, xhi, ylo, yhi.
+func pointExtent(pts []svgplot.Point) [4]float64 {
+	e := [4]float64{math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)}
+	for _, p := range pts {
+		e[0], e[1] = math.Min(e[0], p.X), math.Max(e[1], p.X)
+		e[2], e[3] = math.Min(e[2], p.Y), math.Max(e[3], p.Y)
+	}
+	return e
+}
+
+// roomEnd returns the end of an axis whose data end at v (dir +1 for the
+// top end, -1 for the bottom): v itself when no state lies near it, else v
+// moved out by pad; then out to the next tick of step when that adds at
+// most half a step.
+func roomEnd(v float64, near bool, pad, step float64, dir float64) float64 {
+	if near {
+		v += dir * pad
+	}
+	t := math.Ceil(v/step) * step
+	if dir < 0 {
+		t = math.Floor(v/step) * step
+	}
+	if math.Abs(t-v) <= step/2 {
+		return t
+	}
+	return v
+}
+
+// diagramHeadroom is the fraction of the data span left clear beyond the
+// highest and lowest curve and the largest entropy, before rounding out to
+// a whole tick step, so no state sits on the frame.
+const diagramHeadroom = 0.04
 
 // domeStart is the temperature the dome is drawn from: 30 K below the
 // coldest state, so an organic fluid's dome does not reach down to its

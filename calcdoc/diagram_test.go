@@ -32,7 +32,7 @@ func diagramDoc(t *testing.T, block string) *Doc {
 func TestDiagramErrors(t *testing.T) {
 	first := 4 + strings.Count(diagramCalc, "\n") + 1 // lines before the block's first line
 	for _, c := range []struct{ name, block, want string }{
-		{"unknown kind", "P-v: st_1, st_2", "1:1: write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ..., and a branch of the cycle above it as branch: st_1, st_2, ..."},
+		{"unknown kind", "P-v: st_1, st_2", "1:1: write a diagram line as T-s: st_1, st_2, ... or h-s: st_1, st_2, ..., and a branch of the cycle above it as branch: st_1, st_2, ... or its quality lines as quality: 0.2, 0.4, ..."},
 		{"one state", "T-s: st_1", "1:1: a T-s line needs at least two states"},
 		{"branch first", "branch: st_b, st_5", "1:1: a branch line belongs to the T-s or h-s line above it in the same block; write that line first"},
 		{"branch of one state", "T-s: st_1, st_2, st_3, st_4\nbranch: st_b", "2:1: a branch line needs at least two states"},

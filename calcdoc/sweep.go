@@ -16,7 +16,7 @@ import (
 //	vary NAME from A to B in N steps     (N intervals, N+1 points)
 //	vary NAME over [A, B, C]
 //	show NAME [UNIT], NAME, ...
-//	plot NAME, ...
+//	plot NAME, ... [limit NAME]
 type Sweep struct {
 	Line, Off int
 	Var       string
@@ -24,8 +24,7 @@ type Sweep struct {
 	bounds    []*eval.Stmt // from, to; or the listed values
 	steps     int          // intervals, for from/to
 	Show      []SweepColumn
-	Plot      []string
-	plotOffs  []int
+	plots     []sweepPlot
 
 	X      []units.Quantity // the varied input at each point (a number or quantity)
 	Texts  []string         // the varied input at each point (text)
@@ -58,7 +57,7 @@ func (d *Doc) readSweep(b *gast.FencedCodeBlock) {
 		d.errorf(sw.Off, "a sweep block needs a line: vary NAME from A to B in N steps, or vary NAME over [A, B]")
 		return
 	}
-	if len(sw.Show) == 0 && len(sw.Plot) == 0 {
+	if len(sw.Show) == 0 && len(sw.plots) == 0 {
 		d.errorf(sw.Off, "a sweep block needs a line: show NAME, ... or plot NAME")
 		return
 	}
@@ -74,10 +73,12 @@ func (d *Doc) sweepLine(sw *Sweep, code string, off int) {
 	case "show":
 		d.sweepShow(sw, rest, restOff)
 	case "plot":
-		for _, f := range splitList(rest, restOff) {
-			sw.Plot = append(sw.Plot, f.text)
-			sw.plotOffs = append(sw.plotOffs, f.off)
+		pl, msg := readPlotLine(rest, restOff)
+		if msg != "" {
+			d.errorf(restOff, "%s", msg)
+			return
 		}
+		sw.plots = append(sw.plots, pl)
 	default:
 		d.errorf(off, "unknown sweep line %q; a sweep has vary, show and plot lines", word)
 	}

@@ -10,8 +10,8 @@ func (d *Doc) runSweeps(eng *eval.Engine) {
 	for _, sw := range d.Sweeps {
 		d.runSweep(eng, sw)
 		switch {
-		case sw.Texts != nil && len(sw.Plot) > 0:
-			d.errorf(sw.plotOffs[0], "plot %s: a sweep over text values is shown as a table only", sw.Plot[0])
+		case sw.Texts != nil && len(sw.plots) > 0:
+			d.errorf(sw.plots[0].off, "plot %s: a sweep over text values is shown as a table only", sw.plots[0].names[0].text)
 		case len(sw.Rows) == len(sw.X) && len(sw.X) > 1:
 			d.sweepPlots(sw)
 		}

@@ -77,10 +77,10 @@ func orDefault(v, d float64) float64 {
 func (p *Plot) layout() (*layout, error) {
 	l := &layout{w: orDefault(p.Width, DefaultWidth), h: orDefault(p.Height, DefaultHeight)}
 	top, bottom := 14.0, 26.0
-	if p.Title != "" {
+	if !p.title().empty() {
 		top = 40
 	}
-	if p.XLabel != "" {
+	if !p.xLabel().empty() {
 		bottom = 46
 	}
 	if l.h-top-bottom < minBox {
@@ -105,6 +105,11 @@ func (p *Plot) layout() (*layout, error) {
 	return l, nil
 }
 
+// title, xLabel and yLabel return the texts to draw.
+func (p *Plot) title() Text  { return orText(p.TitleText, p.Title) }
+func (p *Plot) xLabel() Text { return orText(p.XText, p.XLabel) }
+func (p *Plot) yLabel() Text { return orText(p.YText, p.YLabel) }
+
 // ticksFor returns the most ticks to put along length px, about one per gap px.
 func ticksFor(length, gap float64) int {
 	return min(max(int(length/gap)+1, 2), 12)
@@ -117,7 +122,7 @@ func (p *Plot) leftMargin(labels []string) float64 {
 		w = max(w, textWidth(s, fontTick))
 	}
 	m := 10 + w + 6
-	if p.YLabel != "" {
+	if !p.yLabel().empty() {
 		m += fontAxis + 8
 	}
 	return math.Ceil(m)
@@ -132,16 +137,28 @@ func rightMargin(labels []string) float64 {
 }
 
 // extent is the data extent along one axis: of everything, and of the
-// Points alone.
+// marked and labelled data alone (Points, the pairs of Markers and Marked
+// series, the curves of PathLabels).
 type extent struct{ all, pts span }
 
 // extents returns the data extents along x and y.
 func (p *Plot) extents() (x, y extent) {
 	x, y = extent{newSpan(), newSpan()}, extent{newSpan(), newSpan()}
 	for _, s := range p.Series {
+		marked := s.Marked || s.Style == Markers
 		for i := range min(len(s.X), len(s.Y)) {
 			x.all.add(s.X[i])
 			y.all.add(s.Y[i])
+			if marked {
+				x.pts.add(s.X[i])
+				y.pts.add(s.Y[i])
+			}
+		}
+	}
+	for _, pl := range p.PathLabels {
+		for i := range min(len(pl.X), len(pl.Y)) {
+			x.pts.add(pl.X[i])
+			y.pts.add(pl.Y[i])
 		}
 	}
 	for _, pt := range p.Points {

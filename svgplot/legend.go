@@ -35,23 +35,26 @@ func drawLegend(w *writer, series []Series, drawn []vec, marks []mark, l *layout
 		"fill", colPaper, "fill-opacity", "0.9", "stroke", "#bdbdbd", "stroke-width", "1")
 	for i, s := range named {
 		y := r.y0 + legendPad + float64(i)*legendRow + legendRow/2 - 2
-		drawSample(w, s.Style, r.x0+legendPad, y)
-		w.text("text", s.Name, "x", num(r.x0+legendPad+legendSample+legendGap), "y", num(y+0.35*fontTick), "fill", colInk)
+		drawSample(w, s, r.x0+legendPad, y)
+		w.rich(legendText(s), "x", num(r.x0+legendPad+legendSample+legendGap), "y", num(y+0.35*fontTick), "fill", colInk)
 	}
 	w.end("g")
 	return []rect{r}
 }
 
 // drawSample draws a short stretch of a style, starting at (x, y).
-func drawSample(w *writer, s Style, x, y float64) {
-	attrs := styleAttrs(s)
-	if s == Markers {
-		attrs = append(attrs, "cx", num(x+legendSample/2), "cy", num(y), "r", num(markerR))
-		w.empty("circle", attrs...)
+func drawSample(w *writer, s Series, x, y float64) {
+	attrs := styleAttrs(s.Style)
+	dot := []string{"cx", num(x + legendSample/2), "cy", num(y), "r", num(markerR)}
+	if s.Style == Markers {
+		w.empty("circle", append(attrs, dot...)...)
 		return
 	}
 	attrs = append(attrs, "x1", num(x), "y1", num(y), "x2", num(x+legendSample), "y2", num(y))
 	w.empty("line", attrs...)
+	if s.Marked {
+		w.empty("circle", append([]string{"fill", strokeOf(s.Style), "stroke", "none"}, dot...)...)
+	}
 }
 
 // legendBox picks the corner of box, among top right, top left, bottom
@@ -59,7 +62,7 @@ func drawSample(w *writer, s Style, x, y float64) {
 func legendBox(named []Series, avoid []vec, box rect) rect {
 	tw := 0.0
 	for _, s := range named {
-		tw = max(tw, textWidth(s.Name, fontTick))
+		tw = max(tw, legendText(s).width(fontTick))
 	}
 	wd := 2*legendPad + legendSample + legendGap + tw
 	ht := 2*legendPad + float64(len(named))*legendRow - 4
@@ -77,6 +80,9 @@ func legendBox(named []Series, avoid []vec, box rect) rect {
 	}
 	return best
 }
+
+// legendText is the text of a series' row: its Label, else its Name.
+func legendText(s Series) Text { return orText(s.Label, s.Name) }
 
 // countInside counts the vertices inside r.
 func countInside(vs []vec, r rect) int {

@@ -21,6 +21,11 @@ type Plot struct {
 	// XLabel and YLabel name the axes, units included, as plain text:
 	// "s [kJ/(kg·K)]", "T [°C]".
 	XLabel, YLabel string
+	// TitleText, XText and YText, when not empty, are drawn in place of
+	// Title, XLabel and YLabel: typeset text with italic symbols and real
+	// subscripts ("η_th [%]"). The plain strings still name the plot for
+	// screen readers when they are set.
+	TitleText, XText, YText Text
 	// Width and Height give the size of the viewBox in px; zero means
 	// DefaultWidth and DefaultHeight.
 	Width, Height float64
@@ -37,6 +42,20 @@ type Plot struct {
 	// to whole tick steps. Otherwise both ends are used as given, so
 	// XMin = 0, XMax = 10 is the range [0, 10].
 	XMin, XMax, YMin, YMax float64
+	// PathLabels are labels laid along a curve that is not drawn itself,
+	// such as the pressure of an isobar along the part of the cycle path
+	// that follows it. Each is placed where it overlaps no other label,
+	// marker or legend, or left out when there is no such place.
+	PathLabels []PathLabel
+}
+
+// PathLabel is a label to place somewhere along a curve.
+type PathLabel struct {
+	// Text is the label: "16.5 MPa", "x = 0.4".
+	Text Text
+	// X and Y are the curve in data coordinates; they must have the same
+	// length.
+	X, Y []float64
 }
 
 // Series is a named run of (X[i], Y[i]) pairs drawn in one style.
@@ -48,6 +67,12 @@ type Series struct {
 	X, Y []float64
 	// Style selects how the series is drawn.
 	Style Style
+	// Label, when not empty, is drawn in the legend in place of Name:
+	// typeset text with italic symbols and subscripts.
+	Label Text
+	// Marked puts a dot in the series' colour at each of its pairs, as at
+	// the computed points of a sweep.
+	Marked bool
 }
 
 // Point is a labelled marker, such as a state of a cycle.
@@ -122,6 +147,17 @@ func (p *Plot) validate() error {
 			name := fmt.Sprintf("point %d (%q)", i+1, pt.Label)
 			checkFinite(name+": x", pt.X, add)
 			checkFinite(name+": y", pt.Y, add)
+		}
+	}
+	for i, pl := range p.PathLabels {
+		if len(pl.X) != len(pl.Y) {
+			add("path label %d (%q): len(X) = %d but len(Y) = %d", i+1, pl.Text.String(), len(pl.X), len(pl.Y))
+		}
+		for j := range min(len(pl.X), len(pl.Y)) {
+			if !isFinite(pl.X[j]) || !isFinite(pl.Y[j]) {
+				add("path label %d (%q): pair %d is not finite", i+1, pl.Text.String(), j)
+				break
+			}
 		}
 	}
 	if n == 0 {

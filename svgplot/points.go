@@ -17,6 +17,15 @@ const (
 	costLabel   = 1e4 // it overlaps an earlier label or the legend
 	costMarker  = 1e3 // it covers a marker
 	costVertex  = 10  // it covers a drawn vertex of a series
+	costRing    = 40  // it lies one ring further from its marker
+)
+
+// rings is the number of distances from its marker a state label tries;
+// leaderMin is the distance from a marker to its label beyond which a
+// leader line joins them.
+const (
+	rings     = 8
+	leaderMin = 12
 )
 
 // mark is a drawn state marker: its centre in px and its index in Points.
@@ -65,34 +74,72 @@ type placer struct {
 }
 
 // drawLabels writes the labels of the drawn markers, each in the cheapest
-// of eight positions around its marker.
-func drawLabels(w *writer, pts []Point, marks []mark, drawn []vec, taken []rect, l *layout) {
+// of the spots around its marker, and returns the placer holding every
+// box taken so far.
+func drawLabels(w *writer, pts []Point, marks []mark, drawn []vec, taken []rect, l *layout) *placer {
 	pl := &placer{box: l.box, taken: taken, marks: marks, drawn: drawn, centre: centroid(marks)}
-	w.start("g", "class", "point-labels", "font-size", num(fontLabel), "font-weight", "bold",
-		"fill", colInk, "stroke", colPaper, "stroke-width", "3", "stroke-linejoin", "round",
-		"paint-order", "stroke", "text-anchor", "middle")
+	type placed struct {
+		label string
+		c     vec
+		r     rect
+	}
+	var out []placed
 	for _, m := range marks {
 		label := pts[m.i].Label
 		if label == "" {
 			continue
 		}
 		r := pl.place(m.c, boldEm*textWidth(label, fontLabel), ascent*fontLabel)
-		w.text("text", label, "x", num((r.x0+r.x1)/2), "y", num(r.y1))
+		out = append(out, placed{label, m.c, r})
+	}
+	var leaders []string
+	for _, p := range out {
+		if e := nearestOn(p.r, p.c); math.Hypot(e.x-p.c.x, e.y-p.c.y) > leaderMin {
+			leaders = append(leaders, "x1", num(p.c.x), "y1", num(p.c.y), "x2", num(e.x), "y2", num(e.y))
+		}
+	}
+	if len(leaders) > 0 {
+		w.start("g", "class", "leaders", "stroke", colDashed, "stroke-width", "0.8")
+		for i := 0; i < len(leaders); i += 8 {
+			w.empty("line", leaders[i:i+8]...)
+		}
+		w.end("g")
+	}
+	w.start("g", "class", "point-labels", "font-size", num(fontLabel), "font-weight", "bold",
+		"fill", colInk, "stroke", colPaper, "stroke-width", "3", "stroke-linejoin", "round",
+		"paint-order", "stroke", "text-anchor", "middle")
+	for _, p := range out {
+		w.text("text", p.label, "x", num((p.r.x0+p.r.x1)/2), "y", num(p.r.y1))
 	}
 	w.end("g")
+	return pl
+}
+
+// nearestOn returns the point of r nearest to c.
+func nearestOn(r rect, c vec) vec {
+	return vec{min(max(c.x, r.x0), r.x1), min(max(c.y, r.y0), r.y1)}
 }
 
 // place returns the box of a w×h label for the marker at c and records it.
+// It tries the eight directions at the usual gap and then on rings
+// further out, each box moved inside the plot area, and takes the
+// cheapest; the order of the candidates breaks ties.
 func (pl *placer) place(c vec, w, h float64) rect {
 	var best rect
 	bestCost := math.Inf(1)
-	for rank, d := range pl.order(c) {
-		r := labelRect(c, d, w, h)
-		if cost := pl.cost(r) + float64(rank); cost < bestCost {
-			best, bestCost = r, cost
+	for ring := range rings {
+		extra := float64(ring) * (h + 2*labelPad)
+		for rank, d := range pl.order(c) {
+			r := shiftInto(labelRect(c, d, w, h, extra), pl.box)
+			cost := pl.cost(r) + float64(rank) + costRing*float64(ring)
+			if cost < bestCost {
+				best, bestCost = r, cost
+			}
+		}
+		if bestCost < costRing*float64(ring+1) {
+			break // no later ring can be cheaper
 		}
 	}
-	best = shiftInto(best, pl.box)
 	pl.taken = append(pl.taken, best)
 	return best
 }
@@ -136,11 +183,12 @@ func (pl *placer) cost(r rect) float64 {
 	return cost + costVertex*float64(countInside(pl.drawn, r))
 }
 
-// labelRect puts a w×h box next to c in direction d.
-func labelRect(c, d vec, w, h float64) rect {
-	g := float64(labelGap)
+// labelRect puts a w×h box next to c in direction d, extra px further
+// out than the usual gap.
+func labelRect(c, d vec, w, h, extra float64) rect {
+	g := labelGap + extra
 	if d.x != 0 && d.y != 0 {
-		g = labelGap * 3 / 4
+		g = g * 3 / 4
 	}
 	var x0, y0 float64
 	switch {

@@ -198,3 +198,113 @@ func TestClipPolylineSplits(t *testing.T) {
 		t.Errorf("clipPolyline = %v: pieces should leave and re-enter at x = 10", got)
 	}
 }
+
+// TestLayoutRandom renders random plots, with state points and path
+// labels, and checks with CheckLayout that every point and label lies
+// inside the frame and that no two labels overlap.
+func TestLayoutRandom(t *testing.T) {
+	r := rand.New(rand.NewPCG(7, 2026))
+	rendered, labels := 0, 0
+	for i := range 500 {
+		p := randomPlot(r)
+		if r.IntN(3) == 0 {
+			addCluster(r, p)
+		}
+		for k := range r.IntN(4) {
+			n := 2 + r.IntN(30)
+			p.PathLabels = append(p.PathLabels, PathLabel{Text: Text{{Text: "p", Italic: true}, {Text: strconv.Itoa(k), Sub: true}, {Text: " = 1.5 MPa"}}, X: randomValues(r, n), Y: randomValues(r, n)})
+		}
+		b, err := p.SVG()
+		if err != nil {
+			if strings.Contains(err.Error(), "cannot be scaled") || strings.Contains(err.Error(), "empty plot") {
+				continue
+			}
+			t.Fatalf("plot %d: %v", i, err)
+		}
+		rendered++
+		labels += countLabels(b)
+		if err := CheckLayout(b); err != nil {
+			t.Errorf("plot %d: %v", i, err)
+		}
+	}
+	t.Logf("%d plots rendered, %d labels checked", rendered, labels)
+	if rendered < 300 || labels < 800 {
+		t.Errorf("only %d plots rendered and %d labels checked; the generator has drifted", rendered, labels)
+	}
+}
+
+// countLabels counts the state and path labels of an SVG.
+func countLabels(b []byte) int {
+	n := 0
+	for _, g := range []string{`class="point-labels"`, `class="path-labels"`} {
+		if _, rest, ok := bytes.Cut(b, []byte(g)); ok {
+			group, _, _ := bytes.Cut(rest, []byte("</g>"))
+			n += bytes.Count(group, []byte("<text "))
+		}
+	}
+	return n
+}
+
+// TestCheckLayoutCatches checks that CheckLayout finds a label moved out
+// of the frame, two labels on top of each other and a marker outside.
+func TestCheckLayoutCatches(t *testing.T) {
+	p := tsPlot(40)
+	p.PathLabels = []PathLabel{{Text: Plain("10 MPa"), X: []float64{1, 3, 5}, Y: []float64{311, 311, 311}}}
+	b, err := p.SVG()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := CheckLayout(b); err != nil {
+		t.Fatalf("the good plot fails: %v", err)
+	}
+	if n := countLabels(b); n != 5 {
+		t.Fatalf("%d labels drawn, want 4 states and 1 path label", n)
+	}
+	s := string(b)
+	i := strings.Index(s, `class="point-labels"`)
+	j := i + strings.Index(s[i:], "<text ")
+	k := j + strings.Index(s[j:], "</text>") + len("</text>")
+	first := s[j:k]
+	cases := map[string]string{
+		"overlap":      s[:k] + "\n" + first + s[k:],
+		"outside":      s[:j] + `<text x="-50" y="5">1</text>` + s[k:],
+		"marker":       insertAfter(s, `class="points"`, `<circle cx="2" cy="2" r="3"/>`),
+		"path outside": insertAfter(s, `class="path-labels"`, `<text x="1000" y="50">far</text>`),
+	}
+	for _, name := range []string{"overlap", "outside", "marker", "path outside"} {
+		if cases[name] == s {
+			t.Fatalf("%s: the mutation did not apply", name)
+		}
+		if err := CheckLayout([]byte(cases[name])); err == nil {
+			t.Errorf("%s: CheckLayout found nothing wrong", name)
+		}
+	}
+}
+
+// insertAfter inserts add after the end of the start tag that holds mark.
+func insertAfter(s, mark, add string) string {
+	i := strings.Index(s, mark)
+	if i < 0 {
+		return s
+	}
+	i += strings.Index(s[i:], ">") + 1
+	return s[:i] + add + s[i:]
+}
+
+// addCluster adds up to 12 states close together (within a few per cent
+// of the data's spread, or all at one place), with labels of one to three
+// characters, as the feed heaters of a cycle crowd the liquid line.
+func addCluster(r *rand.Rand, p *Plot) {
+	if len(p.Points) == 0 {
+		return
+	}
+	c := p.Points[0]
+	dx, dy := 0.02*(1+math.Abs(c.X)), 0.02*(1+math.Abs(c.Y))
+	if r.IntN(4) == 0 {
+		dx, dy = 0, 0
+	}
+	for i := range r.IntN(12) + 1 {
+		label := strconv.Itoa(i) + strings.Repeat("b", r.IntN(3))
+		p.Points = append(p.Points, Point{Label: label, X: c.X + dx*r.NormFloat64(), Y: c.Y + dy*r.NormFloat64()})
+	}
+}

@@ -26,7 +26,7 @@ func render(p *Plot, l *layout) []byte {
 		"role", "img", "aria-label", p.accessibleName(),
 		"font-family", "sans-serif", "font-size", num(fontTick),
 		"style", "max-width:100%;height:auto")
-	w.title(p.Title)
+	w.title(plainOf(p.Title, p.TitleText))
 	drawGrid(&w, l)
 	drawn := drawSeries(&w, p.Series, l)
 	drawFrame(&w, l)
@@ -34,20 +34,30 @@ func render(p *Plot, l *layout) []byte {
 	drawAxisLabels(&w, p, l)
 	marks := drawPoints(&w, p.Points, l)
 	taken := drawLegend(&w, p.Series, drawn, marks, l)
-	drawLabels(&w, p.Points, marks, drawn, taken, l)
+	pl := drawLabels(&w, p.Points, marks, drawn, taken, l)
+	drawPathLabels(&w, p.PathLabels, pl, l)
 	w.end("svg")
 	return w.b.Bytes()
 }
 
 // accessibleName names the plot for screen readers.
 func (p *Plot) accessibleName() string {
+	t, x, y := plainOf(p.Title, p.TitleText), plainOf(p.XLabel, p.XText), plainOf(p.YLabel, p.YText)
 	switch {
-	case p.Title != "":
-		return p.Title
-	case p.XLabel != "" || p.YLabel != "":
-		return "plot of " + p.YLabel + " against " + p.XLabel
+	case t != "":
+		return t
+	case x != "" || y != "":
+		return "plot of " + y + " against " + x
 	}
 	return "plot"
+}
+
+// plainOf returns s, or the plain form of t when s is empty.
+func plainOf(s string, t Text) string {
+	if s != "" {
+		return s
+	}
+	return t.String()
 }
 
 // drawGrid draws light lines at every tick inside the plot area.
@@ -100,17 +110,17 @@ func drawTicks(w *writer, l *layout) {
 func drawAxisLabels(w *writer, p *Plot, l *layout) {
 	b := l.box
 	mid := num((b.x0 + b.x1) / 2)
-	if p.Title != "" {
-		w.text("text", p.Title, "class", "plot-title", "x", mid, "y", "22",
+	if t := p.title(); !t.empty() {
+		w.rich(t, "class", "plot-title", "x", mid, "y", "22",
 			"text-anchor", "middle", "font-size", num(fontTitle), "font-weight", "bold", "fill", colInk)
 	}
-	if p.XLabel != "" {
-		w.text("text", p.XLabel, "class", "axis-label", "x", mid, "y", num(b.y1+38),
+	if t := p.xLabel(); !t.empty() {
+		w.rich(t, "class", "axis-label", "x", mid, "y", num(b.y1+38),
 			"text-anchor", "middle", "font-size", num(fontAxis), "fill", colInk)
 	}
-	if p.YLabel != "" {
+	if t := p.yLabel(); !t.empty() {
 		x, y := num(6+fontAxis*0.8), num((b.y0+b.y1)/2)
-		w.text("text", p.YLabel, "class", "axis-label", "x", x, "y", y,
+		w.rich(t, "class", "axis-label", "x", x, "y", y,
 			"transform", "rotate(-90 "+x+" "+y+")",
 			"text-anchor", "middle", "font-size", num(fontAxis), "fill", colInk)
 	}

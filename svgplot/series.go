@@ -26,6 +26,17 @@ func styleAttrs(s Style) []string {
 	return []string{"fill", "none", "stroke", colInk, "stroke-width", "1.3"}
 }
 
+// strokeOf returns the line colour of a style.
+func strokeOf(s Style) string {
+	a := styleAttrs(s)
+	for i := 0; i+1 < len(a); i += 2 {
+		if a[i] == "stroke" && a[i+1] != "none" {
+			return a[i+1]
+		}
+	}
+	return colInk
+}
+
 // drawSeries draws every series, layer by layer, and returns the px
 // vertices it drew, for the legend and the labels to avoid.
 func drawSeries(w *writer, series []Series, l *layout) []vec {
@@ -57,6 +68,11 @@ func drawOne(w *writer, s Series, l *layout, drawn []vec) []vec {
 			px := l.toPx(piece)
 			w.empty("polyline", "points", points(px))
 			drawn = densify(px, drawn)
+		}
+		if s.Marked {
+			w.start("g", "class", "series marks", "fill", strokeOf(s.Style), "stroke", "none")
+			drawn = drawDots(w, pts, b, l, drawn)
+			w.end("g")
 		}
 	}
 	w.end("g")

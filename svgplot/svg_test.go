@@ -63,6 +63,49 @@ func smallPlot() *Plot {
 	return &Plot{Series: []Series{{X: []float64{-0.031, 0, 0.012, 0.024}, Y: []float64{-0.3, 0.05, 0.2, 0.24}}}}
 }
 
+// sym returns a typeset name: an italic symbol with an upright subscript.
+func sym(base, sub string) Text {
+	t := Text{{Text: base, Italic: true}}
+	if sub != "" {
+		t = append(t, Run{Text: sub, Sub: true})
+	}
+	return t
+}
+
+// typesetPlot is a sweep plot with typeset title, axes and legend, two
+// marked series and a check limit drawn as a labelled line.
+func typesetPlot() *Plot {
+	x := []float64{4, 6, 8, 10, 12}
+	return &Plot{
+		Title:     "eta_th, eta_net against p_cond",
+		TitleText: append(append(append(sym("η", "th"), Run{Text: ", "}), append(sym("η", "net"), Run{Text: " against "})...), sym("p", "cond")...),
+		XText:     append(sym("p", "cond"), Run{Text: " [kPa]"}),
+		YText:     Text{{Text: "efficiency [%]"}},
+		Series: []Series{
+			{Name: "eta_th", Label: sym("η", "th"), X: x, Y: []float64{41.0, 40.4, 39.9, 39.5, 39.2}, Style: Process, Marked: true},
+			{Name: "eta_net", Label: sym("η", "net"), X: x, Y: []float64{38.6, 38.1, 37.7, 37.3, 37.0}, Style: Line, Marked: true},
+			{Name: "eta_min", Label: sym("η", "min"), X: []float64{4, 12}, Y: []float64{37.5, 37.5}, Style: Dashed},
+		},
+		PathLabels: []PathLabel{{Text: append(sym("η", "min"), Run{Text: " = 37.5 %"}), X: []float64{4, 12}, Y: []float64{37.5, 37.5}}},
+	}
+}
+
+// crowdedPlot is a cycle with many states close together and isobar
+// labels, for the placement of labels.
+func crowdedPlot() *Plot {
+	p := tsPlot(60)
+	p.Title = "Crowded states (fictional plant)"
+	for i := range 10 {
+		f := float64(i)
+		p.Points = append(p.Points, Point{Label: "b" + string(rune('0'+i)), X: 1.2 + 0.05*f, Y: 150 + 6*f})
+	}
+	p.PathLabels = []PathLabel{
+		{Text: Plain("10 MPa"), X: []float64{liquidS(0.2), liquidS(311 / domeTc), vapourS(311 / domeTc), 6.72}, Y: []float64{41, 311, 311, 540}},
+		{Text: Plain("7.4 kPa"), X: []float64{6.95, liquidS(40 / domeTc)}, Y: []float64{40, 40}},
+	}
+	return p
+}
+
 var goldens = []struct {
 	name string
 	plot func() *Plot
@@ -72,6 +115,8 @@ var goldens = []struct {
 	{"clipped", clippedPlot},
 	{"escape", escapePlot},
 	{"small", smallPlot},
+	{"typeset", typesetPlot},
+	{"crowded", crowdedPlot},
 }
 
 func TestGolden(t *testing.T) {
@@ -82,6 +127,9 @@ func TestGolden(t *testing.T) {
 				t.Fatal(err)
 			}
 			checkWellFormed(t, got)
+			if err := CheckLayout(got); err != nil {
+				t.Error(err)
+			}
 			path := filepath.Join("testdata", g.name+".svg")
 			if *update {
 				if err := os.WriteFile(path, got, 0o644); err != nil {

@@ -257,6 +257,8 @@ var diffTemplate = template.Must(templates.Diff(template.FuncMap{
 	"op":       func(b byte) string { return string(b) },
 	"dict":     dict,
 	"short":    blobText,
+	"name":     calcdoc.TypesetName,
+	"value":    calcdoc.TypesetValue,
 }))
 
 // dict builds a map from key and value pairs, for calling a sub-template

@@ -69,7 +69,7 @@ func TestDiffCommand(t *testing.T) {
 			}
 		})
 	}
-	if b, err := os.ReadFile(report); err != nil || !bytes.Contains(b, []byte("Inputs changed (1 of 7)")) || !bytes.Contains(b, []byte("<code>P_el</code>")) {
+	if b, err := os.ReadFile(report); err != nil || !bytes.Contains(b, []byte("Inputs changed (1 of 7)")) || !bytes.Contains(b, []byte("<i>P</i><sub>el</sub>")) {
 		t.Errorf("report: %v", err)
 	}
 }
