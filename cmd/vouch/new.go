@@ -81,19 +81,9 @@ func cmdNew(args []string, stdout, stderr io.Writer) int {
 // loadTemplates reads the settings of the repository that holds dir (dir
 // itself outside a repository) and lists the templates.
 func loadTemplates(dir string, stderr io.Writer) (*settings.Settings, []starter.Template, int) {
-	root, ok := starter.RepoRoot(dir)
-	if !ok {
-		root = dir
-	}
-	s, src, err := settings.Load(os.DirFS(root), root)
-	var list settings.ErrorList
-	if errors.As(err, &list) {
-		fmt.Fprint(stderr, list.Format(src))
-		return nil, nil, exitErrors
-	}
-	if err != nil {
-		fmt.Fprintf(stderr, "vouch: %v\n", err)
-		return nil, nil, exitErrors
+	s, root, code := repoSettings(dir, stderr)
+	if code != exitOK {
+		return nil, nil, code
 	}
 	tmpls, err := starter.List(os.DirFS(root), s)
 	if err != nil {
