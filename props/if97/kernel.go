@@ -8,6 +8,7 @@ import "math"
 // in region3.go.
 
 //go:generate go run ./gen/r7
+//go:generate go run ../../internal/fpguard .
 
 // Bits of the want mask of the generated sum functions (r1Sums, r2rSums, ...): each selects one
 // field of termSums.

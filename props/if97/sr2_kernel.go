@@ -12,6 +12,7 @@ package if97
 // to the table-driven sums, which stay the reference.
 
 //go:generate go run ./gen/sr
+//go:generate go run ../../internal/fpguard .
 
 // srTerm is one term n · x^i · y^j of a supplementary-release equation.
 type srTerm struct {
