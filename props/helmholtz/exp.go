@@ -2,11 +2,11 @@ package helmholtz
 
 import "math"
 
-// fastExp is exp(x) to within 2 units in the last place of math.Exp, in
+// fastExp is exp(x) to within 2 units in the last place of fpmath.Exp, in
 // about half its time where many are taken in a row, as in fused: x is
 // split as (k + j/128) ln 2 + r with |r| <= ln 2/256, and exp(x) is 2^k
 // times a table value 2^(j/128) times a polynomial in r of degree 5.
-// Outside [-708, 709] (and for NaN) it is math.Exp.
+// Outside [-708, 709] (and for NaN) it is fpmath.Exp.
 func fastExp(x float64) float64 {
 	if !(x > -708 && x < 709) {
 		return math.Exp(x)
