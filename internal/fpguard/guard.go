@@ -4,9 +4,11 @@ import (
 	"bytes"
 	"fmt"
 	"go/ast"
+	"go/constant"
 	"go/format"
 	"go/token"
 	"go/types"
+	"math"
 	"os"
 	"sort"
 	"strconv"
@@ -137,16 +139,29 @@ func (g *guard) rewrite() ([]byte, int, error) {
 func (g *guard) visit(n ast.Node, stack []ast.Node) {
 	switch n := n.(type) {
 	case *ast.BinaryExpr:
-		if n.Op == token.MUL {
+		if n.Op == token.MUL || n.Op == token.QUO && g.halving(n.Y) {
 			g.product(n, stack)
 		}
 	case *ast.AssignStmt:
-		if n.Tok == token.MUL_ASSIGN {
+		if n.Tok == token.MUL_ASSIGN || n.Tok == token.QUO_ASSIGN && len(n.Rhs) == 1 && g.halving(n.Rhs[0]) {
 			g.mulAssign(n)
 		}
 	case *ast.SelectorExpr:
 		g.mathUse(n)
 	}
+}
+
+// halving reports whether e is a constant power of two (2, 16, 0.5, ...):
+// the compiler turns x / e into the exact product x * (1/e), which may
+// then fuse with an addition like any other product.
+func (g *guard) halving(e ast.Expr) bool {
+	tv, ok := g.pkg.info.Types[e]
+	if !ok || tv.Value == nil {
+		return false
+	}
+	v, _ := constant.Float64Val(constant.ToFloat(tv.Value))
+	frac, _ := math.Frexp(v)
+	return frac == 0.5 || frac == -0.5
 }
 
 // floatConv returns the conversion that rounds a value of type t, or ""
@@ -175,7 +190,8 @@ func (g *guard) floatConv(t types.Type, at token.Pos) string {
 	return ""
 }
 
-// product wraps a floating-point product unless it is constant, already
+// product wraps a floating-point product (or a quotient by a power of two,
+// which the compiler makes a product) unless it is constant, already
 // converted to its own type, or consumed by a multiplication or division.
 func (g *guard) product(n *ast.BinaryExpr, stack []ast.Node) {
 	tv, ok := g.pkg.info.Types[n]
@@ -213,7 +229,8 @@ func (g *guard) product(n *ast.BinaryExpr, stack []ast.Node) {
 }
 
 // mulAssign rewrites x *= y as x = T(x * y), parenthesising y when it is
-// an operation, so the product is rounded like any other.
+// an operation, so the product is rounded like any other; likewise x /= 2
+// as x = T(x / 2).
 func (g *guard) mulAssign(n *ast.AssignStmt) {
 	if len(n.Lhs) != 1 || len(n.Rhs) != 1 {
 		return
@@ -228,7 +245,11 @@ func (g *guard) mulAssign(n *ast.AssignStmt) {
 	}
 	lhs := string(g.src[g.off(n.Lhs[0].Pos()):g.off(n.Lhs[0].End())])
 	tok := g.off(n.TokPos)
-	g.edits = append(g.edits, edit{off: tok, end: tok + 2, text: "= " + conv + "(" + lhs + " *", kind: 2})
+	op := " *"
+	if n.Tok == token.QUO_ASSIGN {
+		op = " /"
+	}
+	g.edits = append(g.edits, edit{off: tok, end: tok + 2, text: "= " + conv + "(" + lhs + op, kind: 2})
 	rhs := n.Rhs[0]
 	a, b := g.off(rhs.Pos()), g.off(rhs.End())
 	if _, op := rhs.(*ast.BinaryExpr); op {
