@@ -35,6 +35,7 @@ var allowed = map[string][]string{
 	"props/helmholtz":    {"internal/fpmath"},
 	"internal/fpmath":    {},
 	"internal/fpguard":   {},
+	"internal/archtest":  {},
 	"units":              {"internal/fpmath"},
 	"templates":          {},
 	"svgplot":            {"internal/fpmath"},
