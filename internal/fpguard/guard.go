@@ -307,6 +307,7 @@ func (g *guard) fixImports() {
 	path := g.pkg.module + fpmathPath
 	var mathSpec *ast.ImportSpec
 	var decl *ast.GenDecl
+	has := false // fpmath is imported already
 	for _, d := range g.file.Decls {
 		gd, ok := d.(*ast.GenDecl)
 		if !ok || gd.Tok != token.IMPORT {
@@ -316,8 +317,10 @@ func (g *guard) fixImports() {
 			is := s.(*ast.ImportSpec)
 			p, _ := strconv.Unquote(is.Path.Value)
 			if p == path {
-				g.errorf(is.Pos(), "fpmath is imported but math.%s is still used", "F")
-				return
+				has = true
+				if is.Name != nil && is.Name.Name != "fpmath" {
+					g.errorf(is.Pos(), "fpmath is imported as %s: import it plainly", is.Name.Name)
+				}
 			}
 			if p == "math" && is.Name == nil {
 				mathSpec, decl = is, gd
@@ -326,6 +329,12 @@ func (g *guard) fixImports() {
 	}
 	if mathSpec == nil {
 		g.errorf(g.file.Pos(), "math is used but not imported plainly")
+		return
+	}
+	if has {
+		if g.kept == 0 {
+			g.dropLine(mathSpec, decl)
+		}
 		return
 	}
 	quoted := strconv.Quote(path)
@@ -338,14 +347,7 @@ func (g *guard) fixImports() {
 		return
 	}
 	if g.kept == 0 {
-		a, b := g.off(mathSpec.Pos()), g.off(mathSpec.End())
-		for a > 0 && g.src[a-1] != '\n' {
-			a--
-		}
-		if b < len(g.src) && g.src[b] == '\n' {
-			b++
-		}
-		g.edits = append(g.edits, edit{off: a, end: b, text: "", kind: 2})
+		g.dropLine(mathSpec, decl)
 	}
 	var last *ast.ImportSpec
 	for _, s := range decl.Specs {
@@ -364,6 +366,23 @@ func (g *guard) fixImports() {
 		return
 	}
 	g.edits = append(g.edits, edit{off: at, end: at, text: "\t" + quoted + "\n", span: 1 << 30, kind: 1})
+}
+
+// dropLine removes an import spec: its line in a block, the whole
+// declaration when it stands alone.
+func (g *guard) dropLine(spec *ast.ImportSpec, decl *ast.GenDecl) {
+	if !decl.Lparen.IsValid() {
+		g.edits = append(g.edits, edit{off: g.off(decl.Pos()), end: g.off(decl.End()), text: "", kind: 2})
+		return
+	}
+	a, b := g.off(spec.Pos()), g.off(spec.End())
+	for a > 0 && g.src[a-1] != '\n' {
+		a--
+	}
+	if b < len(g.src) && g.src[b] == '\n' {
+		b++
+	}
+	g.edits = append(g.edits, edit{off: a, end: b, text: "", kind: 2})
 }
 
 // apply returns the source with the edits made.

@@ -15,14 +15,20 @@ import (
 // example.com/m) and returns the result and the number of edits.
 func guardSource(t *testing.T, src string) (string, int) {
 	t.Helper()
-	p := &pkg{path: "example.com/m/p", module: "example.com/m", fset: token.NewFileSet()}
+	return guardIn(t, "example.com/m", src)
+}
+
+// guardIn is guardSource in a package of the given module.
+func guardIn(t *testing.T, module, src string) (string, int) {
+	t.Helper()
+	p := &pkg{path: module + "/p", module: module, fset: token.NewFileSet()}
 	f, err := parser.ParseFile(p.fset, "p.go", src, parser.ParseComments)
 	if err != nil {
 		t.Fatal(err)
 	}
 	p.files, p.srcs = []*ast.File{f}, [][]byte{[]byte(src)}
 	p.info = &types.Info{Types: map[ast.Expr]types.TypeAndValue{}, Uses: map[*ast.Ident]types.Object{}}
-	conf := types.Config{Importer: importer.Default()}
+	conf := types.Config{Importer: testImporter{importer.Default()}}
 	if p.types, err = conf.Check(p.path, p.fset, p.files, p.info); err != nil {
 		t.Fatal(err)
 	}
@@ -32,6 +38,34 @@ func guardSource(t *testing.T, src string) (string, int) {
 		t.Fatal(err)
 	}
 	return string(out), n
+}
+
+// testImporter imports the standard library from export data and any
+// .../internal/fpmath from this module's source.
+type testImporter struct{ std types.Importer }
+
+func (im testImporter) Import(path string) (*types.Package, error) {
+	if !strings.HasSuffix(path, "/internal/fpmath") {
+		return im.std.Import(path)
+	}
+	fset := token.NewFileSet()
+	names, err := filepath.Glob(filepath.Join("..", "fpmath", "*.go"))
+	if err != nil {
+		return nil, err
+	}
+	var files []*ast.File
+	for _, name := range names {
+		if strings.HasSuffix(name, "_test.go") {
+			continue
+		}
+		f, err := parser.ParseFile(fset, name, nil, 0)
+		if err != nil {
+			return nil, err
+		}
+		files = append(files, f)
+	}
+	conf := types.Config{Importer: im.std}
+	return conf.Check(path, fset, files, nil)
 }
 
 func TestRewrite(t *testing.T) {
@@ -86,6 +120,13 @@ func TestRewriteMath(t *testing.T) {
 	want := "package p\n\nimport (\n\t\"example.com/m/internal/fpmath\"\n)\n\nfunc f(x float64) float64 { return float64(fpmath.Exp(x) * fpmath.Log(float64(2*x))) }\n"
 	got, _ := guardSource(t, in)
 	if got != want {
+		t.Errorf("got\n%s\nwant\n%s", got, want)
+	}
+	// A new math.Exp in a file that imports fpmath already (the usual case
+	// after a merge): math goes when nothing else uses it.
+	in = "package p\n\nimport (\n\t\"math\"\n\n\t\"github.com/vouchcalc/vouch/internal/fpmath\"\n)\n\nfunc f(x float64) float64 { return math.Exp(fpmath.Log(x)) }\n"
+	want = "package p\n\nimport (\n\t\"github.com/vouchcalc/vouch/internal/fpmath\"\n)\n\nfunc f(x float64) float64 { return fpmath.Exp(fpmath.Log(x)) }\n"
+	if got, _ = guardIn(t, "github.com/vouchcalc/vouch", in); got != want {
 		t.Errorf("got\n%s\nwant\n%s", got, want)
 	}
 	in = "package p\n\nimport \"math\"\n\nfunc f(x float64) float64 { return math.Abs(math.Pow(x, 3)) }\n"

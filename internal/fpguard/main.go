@@ -30,7 +30,8 @@
 //
 //	go run ./internal/fpguard [-check] [dir ...]
 //
-// Without dirs it rewrites every package of the module (go list ./...).
+// Without dirs it rewrites every package below the current directory (go
+// list ./...): run it from the module root.
 package main
 
 import (
