@@ -139,3 +139,16 @@ func TestSameBits(t *testing.T) {
 		}
 	}
 }
+
+// TestLdexpShortcut: expmulti's product by 2**k gives Ldexp's bits over the
+// k where it is used, for y across [0.5, 2] (the range of its y).
+func TestLdexpShortcut(t *testing.T) {
+	for k := -1020; k <= 1021; k++ {
+		for _, y := range []float64{0.5, 0.70710678118654757, 1, math.Nextafter(1, 2), 1.4142135623730951, math.Nextafter(2, 0)} {
+			want := math.Ldexp(y, k)
+			if got := float64(y * math.Float64frombits(uint64(k+1023)<<52)); got != want {
+				t.Fatalf("y=%v k=%d: %v, Ldexp gives %v", y, k, got, want)
+			}
+		}
+	}
+}
