@@ -25,14 +25,14 @@ func resultLines(t *testing.T) []string {
 	var lines []string
 	for _, f := range files {
 		d := readExample(t, f)
-		for _, r := range d.ManifestResults() {
-			lines = append(lines, fmt.Sprintf("%s %s %s %s", f, r.Name, strconv.FormatFloat(r.SI, 'g', -1, 64), r.Unit))
-		}
-		html, err := d.Render(calcdoc.RenderOptions{Engine: "test"})
+		pkg, err := d.Render(calcdoc.RenderOptions{Engine: "test"})
 		if err != nil {
 			t.Fatalf("%s: render: %v", f, err)
 		}
-		lines = append(lines, fmt.Sprintf("%s package-sha256 %x", f, sha256.Sum256(html)))
+		for _, r := range pkg.Manifest.Results {
+			lines = append(lines, fmt.Sprintf("%s %s %s %s", f, r.Name, strconv.FormatFloat(r.SI, 'g', -1, 64), r.Unit))
+		}
+		lines = append(lines, fmt.Sprintf("%s package-sha256 %x", f, sha256.Sum256(pkg.HTML)))
 	}
 	return lines
 }
