@@ -293,9 +293,9 @@ func entropyAxis(p *svgplot.Plot) {
 		return
 	}
 	pts := pointExtent(p.Points)
-	pad := diagramHeadroom * (yhi - ylo)
+	pad := float64(diagramHeadroom * (yhi - ylo))
 	p.XMin = 0
-	p.XMax = roomEnd(hi, pts[1] >= hi-diagramHeadroom*hi, diagramHeadroom*hi, xt[1]-xt[0], 1)
+	p.XMax = roomEnd(hi, pts[1] >= hi-float64(diagramHeadroom*hi), float64(diagramHeadroom*hi), xt[1]-xt[0], 1)
 	p.YMin = roomEnd(ylo, pts[2] <= ylo+pad, pad, yt[1]-yt[0], -1)
 	p.YMax = roomEnd(yhi, pts[3] >= yhi-pad, pad, yt[1]-yt[0], 1)
 }
@@ -317,13 +317,13 @@ func pointExtent(pts []svgplot.Point) [4]float64 {
 // most half a step.
 func roomEnd(v float64, near bool, pad, step float64, dir float64) float64 {
 	if near {
-		v += dir * pad
+		v += float64(dir * pad)
 	}
-	t := math.Ceil(v/step) * step
+	t := float64(math.Ceil(v/step) * step)
 	if dir < 0 {
-		t = math.Floor(v/step) * step
+		t = float64(math.Floor(v/step) * step)
 	}
-	if math.Abs(t-v) <= step/2 {
+	if math.Abs(t-v) <= float64(step/2) {
 		return t
 	}
 	return v
@@ -359,5 +359,5 @@ func heatExchange(a, b diagramState) bool {
 	if dp <= 1e-4 {
 		return dh != 0
 	}
-	return dp <= maxHeatPressureDrop && dh*ds > 0
+	return dp <= maxHeatPressureDrop && float64(dh*ds) > 0
 }

@@ -40,7 +40,7 @@ func (d *Doc) qualityLines(p *svgplot.Plot, qs []float64, dome []props.CurvePoin
 		s := svgplot.Series{Name: "quality lines", Style: svgplot.Dashed}
 		for i := range n {
 			l, v := dome[i], dome[len(dome)-1-i]
-			c := props.CurvePoint{T: l.T, S: l.S + x*(v.S-l.S), H: l.H + x*(v.H-l.H)}
+			c := props.CurvePoint{T: l.T, S: l.S + float64(x*(v.S-l.S)), H: l.H + float64(x*(v.H-l.H))}
 			s.X, s.Y = append(s.X, c.S/1000), append(s.Y, y(c))
 		}
 		p.Series = append(p.Series, s)
@@ -96,7 +96,7 @@ func (d *Doc) pressureText(p float64) string {
 		if it.Outcome == nil {
 			continue
 		}
-		if v, ok := it.Outcome.Value.(units.Quantity); ok && v.D == units.DimPressure && math.Abs(v.V-p) <= 1e-9*p {
+		if v, ok := it.Outcome.Value.(units.Quantity); ok && v.D == units.DimPressure && math.Abs(v.V-p) <= float64(1e-9*p) {
 			q, u = v, it.Outcome.Display
 			break
 		}

@@ -158,7 +158,7 @@ func (d *Doc) sweepValues(eng *eval.Engine, sw *Sweep, input *Item) ([]units.Qua
 	out := make([]units.Quantity, sw.steps+1)
 	for i := range out {
 		t := float64(i) / float64(sw.steps)
-		out[i] = units.Quantity{V: qs[0].V + t*(qs[1].V-qs[0].V), D: base.D, T: qs[0].T, P: qs[0].P}
+		out[i] = units.Quantity{V: qs[0].V + float64(t*(qs[1].V-qs[0].V)), D: base.D, T: qs[0].T, P: qs[0].P}
 	}
 	return out, true
 }

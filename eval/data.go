@@ -185,7 +185,7 @@ func interpolate(t *Table, xn string, xs, ys []units.Quantity, x units.Quantity,
 	}
 	sign := math.Copysign(1, xs[1].V-xs[0].V)
 	for i := 1; i < len(xs); i++ {
-		if (xs[i].V-xs[i-1].V)*sign <= 0 {
+		if float64((xs[i].V-xs[i-1].V)*sign) <= 0 {
 			return units.Quantity{}, errorf("interp: column %s of %s is not strictly increasing or decreasing at row %d", xn, t.Path, i+2)
 		}
 	}
@@ -198,7 +198,7 @@ func interpolate(t *Table, xn string, xs, ys []units.Quantity, x units.Quantity,
 			xn, show(x), show(lo), show(hi), t.Path)
 	}
 	i := 1
-	for i < len(xs)-1 && (xs[i].V-x.V)*sign < 0 {
+	for i < len(xs)-1 && float64((xs[i].V-x.V)*sign) < 0 {
 		i++
 	}
 	y := ys[i-1]
@@ -212,16 +212,16 @@ func fraction(a, b, x float64) float64 {
 	if d := b - a; !math.IsInf(d, 0) {
 		return (x - a) / d
 	}
-	return (x/2 - a/2) / (b/2 - a/2)
+	return (float64(x/2) - float64(a/2)) / (float64(b/2) - float64(a/2))
 }
 
 // lerp is a + f(b - a) for f in [0, 1], or (1 - f)a + fb when b - a would
 // overflow; either stays between a and b.
 func lerp(a, b, f float64) float64 {
 	if d := b - a; !math.IsInf(d, 0) {
-		return a + f*d
+		return a + float64(f*d)
 	}
-	return (1-f)*a + f*b
+	return float64((1-f)*a) + float64(f*b)
 }
 
 // String describes a table for listings.

@@ -6,6 +6,7 @@ import (
 
 	"github.com/expr-lang/expr/ast"
 
+	"github.com/vouchcalc/vouch/internal/fpmath"
 	"github.com/vouchcalc/vouch/units"
 )
 
@@ -55,15 +56,15 @@ func init() {
 		name, doc string
 		f         func(float64) float64
 	}{
-		{"exp", "e raised to x", math.Exp},
-		{"ln", "natural logarithm", math.Log},
-		{"log10", "base-10 logarithm", math.Log10},
-		{"sin", "sine of an angle in radians", math.Sin},
-		{"cos", "cosine of an angle in radians", math.Cos},
-		{"tan", "tangent of an angle in radians", math.Tan},
-		{"asin", "arc sine, in radians", math.Asin},
-		{"acos", "arc cosine, in radians", math.Acos},
-		{"atan", "arc tangent, in radians", math.Atan},
+		{"exp", "e raised to x", fpmath.Exp},
+		{"ln", "natural logarithm", fpmath.Log},
+		{"log10", "base-10 logarithm", fpmath.Log10},
+		{"sin", "sine of an angle in radians", fpmath.Sin},
+		{"cos", "cosine of an angle in radians", fpmath.Cos},
+		{"tan", "tangent of an angle in radians", fpmath.Tan},
+		{"asin", "arc sine, in radians", fpmath.Asin},
+		{"acos", "arc cosine, in radians", fpmath.Acos},
+		{"atan", "arc tangent, in radians", fpmath.Atan},
 		{"floor", "largest whole number not above x", math.Floor},
 		{"ceil", "smallest whole number not below x", math.Ceil},
 		{"round", "nearest whole number, halves away from zero", math.Round},

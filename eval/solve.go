@@ -113,13 +113,13 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 	if err != nil {
 		return nil, err
 	}
-	if fa*fb > 0 {
+	if float64(fa*fb) > 0 {
 		_, ra, _ := f(a)
 		return nil, c.errAt(v, "the equation does not change sign between the bounds: left − right is %s at %s and %s at %s; choose bounds around the root",
 			quantityText(ra), quantityText(lo), quantityText(rb), quantityText(hi))
 	}
 	scale := math.Max(math.Abs(fa), math.Abs(fb)) // the residual's size at the bounds
-	tol := solveRelTol * (b - a)
+	tol := float64(solveRelTol * (b - a))
 	n := 2
 	cc, fc := a, fa
 	d := b - a
@@ -128,7 +128,7 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 		if fb == 0 {
 			break
 		}
-		if fb*fc > 0 {
+		if float64(fb*fc) > 0 {
 			cc, fc, d = a, fa, b-a
 			e = d
 		}
@@ -136,7 +136,7 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 			a, b, cc = b, cc, b
 			fa, fb, fc = fb, fc, fb
 		}
-		m := 0.5 * (cc - b)
+		m := float64(0.5 * (cc - b))
 		if math.Abs(m) <= tol {
 			break
 		}
@@ -160,10 +160,10 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 	// the equation rather than a root. Bisecting the last bracket down to adjacent numbers tells
 	// them apart: the residual of a continuous equation falls with the bracket, that of a step
 	// or a pole does not.
-	if math.Abs(fb) > rootResidual*scale {
+	if math.Abs(fb) > float64(rootResidual*scale) {
 		var ok bool
 		var extra int
-		if b, rb, ok, extra, err = settle(f, b, cc, fb, fc, rootResidual*scale); err != nil {
+		if b, rb, ok, extra, err = settle(f, b, cc, fb, fc, float64(rootResidual*scale)); err != nil {
 			return nil, err
 		}
 		n += extra
@@ -183,7 +183,7 @@ func (c *scope) brent(v *ast.CallNode, f residualFunc, lo, hi units.Quantity) (a
 func settle(f residualFunc, x0, x1, f0, f1, limit float64) (float64, units.Quantity, bool, int, *Error) {
 	n := 1
 	for i := 0; i < 1100; i++ { // enough halvings to reach adjacent float64 numbers
-		m := x0 + (x1-x0)/2
+		m := x0 + float64((x1-x0)/2)
 		if m == x0 || m == x1 {
 			break
 		}
@@ -222,18 +222,18 @@ func brentStep(a, b, c, fa, fb, fc, m, d, e, tol float64) (float64, float64) {
 	var p, q float64
 	s := fb / fa
 	if a == c {
-		p, q = 2*m*s, 1-s
+		p, q = float64(2*m*s), 1-s
 	} else {
 		qq, r := fa/fc, fb/fc
-		p = s * (2*m*qq*(qq-r) - (b-a)*(r-1))
-		q = (qq - 1) * (r - 1) * (s - 1)
+		p = float64(s * (float64(2*m*qq*(qq-r)) - float64((b-a)*(r-1))))
+		q = float64((qq - 1) * (r - 1) * (s - 1))
 	}
 	if p > 0 {
 		q = -q
 	} else {
 		p = -p
 	}
-	if 2*p < math.Min(3*m*q-math.Abs(tol*q), math.Abs(e*q)) {
+	if float64(2*p) < math.Min(float64(3*m*q)-math.Abs(float64(tol*q)), math.Abs(float64(e*q))) {
 		return p / q, d
 	}
 	return m, m

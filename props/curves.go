@@ -26,9 +26,9 @@ func Dome(fluid string, n int, tLow float64) ([]CurvePoint, error) {
 	for i := 0; i < n; i++ {
 		// Points crowd toward the critical point, where the dome turns.
 		f := float64(i) / float64(n-1)
-		T := tmin + (tc-tmin)*(1-(1-f)*(1-f))
+		T := tmin + float64((tc-tmin)*(1-float64((1-f)*(1-f))))
 		if i == n-1 {
-			T = tc - 1e-6*(tc-tmin)
+			T = tc - float64(1e-6*(tc-tmin))
 		}
 		s, err := sat(T)
 		if err != nil {
@@ -88,7 +88,7 @@ func addCorners(fluid string, p, h1, h2 float64, hs []float64) []float64 {
 			continue
 		}
 		i := 0
-		for i < len(hs) && (hs[i]-c)*(h2-h1) < 0 {
+		for i < len(hs) && float64((hs[i]-c)*(h2-h1)) < 0 {
 			i++
 		}
 		hs = append(hs[:i], append([]float64{c}, hs[i:]...)...)
@@ -126,7 +126,7 @@ func HeatPath(fluid string, p1, p2, h1, h2 float64, n int) ([]CurvePoint, error)
 	out := make([]CurvePoint, 0, n)
 	for i := 0; i < n; i++ {
 		f := float64(i) / float64(n-1)
-		p, h := p1+(p2-p1)*f, h1+(h2-h1)*f
+		p, h := p1+float64((p2-p1)*f), h1+float64((h2-h1)*f)
 		if i == n-1 {
 			p, h = p2, h2
 		}

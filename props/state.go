@@ -228,7 +228,7 @@ var stateSI = [fK + 1]string{"Pa", "K", "J/kg", "J/(kg*K)", "J/kg", "m^3/kg", "k
 func (s *State) why(i int, v float64) string {
 	name := stateFields[i]
 	bad := math.IsNaN(v) || math.IsInf(v, 0) || mustBePositive[i] && !(v > 0)
-	if !bad && !(i == fCp && !(v <= CritRatio*s.num[fCv])) {
+	if !bad && !(i == fCp && !(v <= float64(CritRatio*s.num[fCv]))) {
 		return ""
 	}
 	given := strings.TrimSpace(fmt.Sprintf("%s gives %s = %s %s", s.Formulation, name, showNum(v), stateSI[i]))

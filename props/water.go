@@ -197,7 +197,7 @@ func showValue(input string, v float64) string {
 	u := units.MustParse(unit)
 	s := showNum(v/u.Factor) + " " + unit
 	if input == "T" {
-		s += " (" + showNum(math.Round((v-273.15)*1e6)/1e6) + " °C)"
+		s += " (" + showNum(math.Round(float64((v-273.15)*1e6))/1e6) + " °C)"
 	}
 	return s
 }

@@ -144,7 +144,7 @@ func compare(d *calcdoc.Doc, e expectation, base string) (Check, error) {
 	c := Check{Group: GroupFirm, ID: fmt.Sprintf("%s:%s", base, e.name), Source: e.source,
 		What: fmt.Sprintf("%s: %s", base, e.name), Expected: strings.Fields(e.expect)[0],
 		Unit: e.unitText, ExpectedV: e.value, ToleranceS: e.tolText}
-	c.Tolerance = e.rel * math.Abs(e.value)
+	c.Tolerance = float64(e.rel * math.Abs(e.value))
 	if e.rel == 0 {
 		c.Tolerance = e.tol / e.unit.Factor
 	}

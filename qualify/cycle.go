@@ -44,7 +44,7 @@ func cycleChecks(Options) ([]Check, error) {
 		}
 		c := Check{Group: GroupCycle, ID: fmt.Sprintf("textbook-answers.csv:%d", i+1), Source: row[4],
 			What: fmt.Sprintf("%s: %s (SI)", file, name), Expected: row[2], Unit: "SI", ExpectedV: want,
-			Tolerance: rel * math.Abs(want), ToleranceS: fmt.Sprintf("±%g relative", rel)}
+			Tolerance: float64(rel * math.Abs(want)), ToleranceS: fmt.Sprintf("±%g relative", rel)}
 		got, err := result(d, name)
 		out = append(out, judge(c, got, err))
 	}

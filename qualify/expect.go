@@ -98,7 +98,7 @@ func parseExpectation(file string, n *yaml.Node) (expectation, error) {
 		if err != nil || !(v > 0) || u.Dim != e.unit.Dim || u.Kind != units.Linear && u.Kind != units.AbsTemp {
 			return e, at(tol, "tolerance must be a positive amount with a unit of the same kind as %q, e.g. 0.5 %s; got %q", e.expect, e.unitText, tol.Value)
 		}
-		e.tol, e.tolText = v*u.Factor, "±"+tol.Value
+		e.tol, e.tolText = float64(v*u.Factor), "±"+tol.Value
 	}
 	return e, nil
 }

@@ -50,12 +50,12 @@ func fluidChecks(opt Options) ([]Check, error) {
 		tol, rule := r.tolerance()
 		c := Check{Group: GroupFluids, ID: fmt.Sprintf("helmholtz_check-values.csv:%d", i+1), Source: r.source,
 			What: r.describe(f), Expected: r.value, Unit: r.unit, ExpectedV: want,
-			Tolerance: tol + 8*0x1p-52*math.Abs(want), ToleranceS: rule, Note: r.note}
+			Tolerance: tol + float64(8*0x1p-52*math.Abs(want)), ToleranceS: rule, Note: r.note}
 		if r.T > f.Tmax {
 			c.Note = joinNote(c.Note, fmt.Sprintf("outside the equation's stated range (T above %g K): evaluated without the range check, which calcs keep", f.Tmax))
 		}
 		got, err := r.compute(f)
-		out = append(out, judge(c, got*fluidScale(f, r.unit), err))
+		out = append(out, judge(c, float64(got*fluidScale(f, r.unit)), err))
 	}
 	return out, nil
 }
@@ -126,11 +126,11 @@ func (r fluidRow) compute(f *helmholtz.Fluid) (float64, error) {
 	case "single":
 		rho := r.rho
 		if r.rhoUnit == "mol/dm3" {
-			rho *= 1000 * f.M
+			rho = float64(rho * (1000 * f.M))
 		}
 		if math.IsNaN(rho) {
 			var err error
-			if rho, err = densityTP(f, r.T, r.p*1e6); err != nil {
+			if rho, err = densityTP(f, r.T, float64(r.p*1e6)); err != nil {
 				return 0, err
 			}
 		}
@@ -149,7 +149,7 @@ func (r fluidRow) compute(f *helmholtz.Fluid) (float64, error) {
 		var s helmholtz.Sat
 		var err error
 		if math.IsNaN(r.T) {
-			s, err = f.SatP(r.p * 1e6)
+			s, err = f.SatP(float64(r.p * 1e6))
 		} else {
 			s, err = f.SatT(r.T)
 		}
@@ -182,30 +182,30 @@ func alphaProp(f *helmholtz.Fluid, T, rho float64, prop string) float64 {
 		a = f.Alpha(tau, delta)
 	}
 	R := f.R
-	dr := delta * a.Ard
-	tt := tau * tau * (a.A0tt + a.Artt)
-	num := 1 + dr - delta*tau*a.Ardt
-	den := 1 + 2*dr + delta*delta*a.Ardd
-	cv := -R * tt
+	dr := float64(delta * a.Ard)
+	tt := float64(tau * tau * (a.A0tt + a.Artt))
+	num := 1 + dr - float64(delta*tau*a.Ardt)
+	den := 1 + float64(2*dr) + float64(delta*delta*a.Ardd)
+	cv := float64(-R * tt)
 	switch prop {
 	case "p":
-		return rho * R * T * (1 + dr)
+		return float64(rho * R * T * (1 + dr))
 	case "h":
-		return R * T * (1 + tau*(a.A0t+a.Art) + dr)
+		return float64(R * T * (1 + float64(tau*(a.A0t+a.Art)) + dr))
 	case "s":
-		return R * (tau*(a.A0t+a.Art) - a.A0 - a.Ar)
+		return float64(R * (float64(tau*(a.A0t+a.Art)) - a.A0 - a.Ar))
 	case "a":
-		return R * T * (a.A0 + a.Ar)
+		return float64(R * T * (a.A0 + a.Ar))
 	case "cv":
 		return cv
 	case "cp":
 		return cv + R*num*num/den
 	case "w":
-		return math.Sqrt(math.Max(R*T*(den-num*num/tt), 0))
+		return math.Sqrt(math.Max(float64(R*T*(den-num*num/tt)), 0))
 	case "rho":
 		return rho
 	case "cp0":
-		return R * (1 - tau*tau*a.A0tt)
+		return float64(R * (1 - float64(tau*tau*a.A0tt)))
 	}
 	return math.NaN()
 }
@@ -244,7 +244,7 @@ func densityTP(f *helmholtz.Fluid, T, p float64) (float64, error) {
 		return 0, fmt.Errorf("%v; no density up to %g kg/m3 reaches %g Pa", err, hi, p)
 	}
 	for range 200 {
-		mid := (lo + hi) / 2
+		mid := float64((lo + hi) / 2)
 		if mid == lo || mid == hi {
 			break
 		}
@@ -254,5 +254,5 @@ func densityTP(f *helmholtz.Fluid, T, p float64) (float64, error) {
 			hi = mid
 		}
 	}
-	return (lo + hi) / 2, nil
+	return float64((lo + hi) / 2), nil
 }

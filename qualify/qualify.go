@@ -231,5 +231,5 @@ func halfLastDigit(s string) (float64, error) {
 	if i := strings.IndexByte(mant, '.'); i >= 0 {
 		dec = len(mant) - i - 1
 	}
-	return 0.5 * math.Pow10(exp-dec), nil
+	return float64(0.5 * math.Pow10(exp-dec)), nil
 }

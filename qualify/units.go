@@ -28,9 +28,9 @@ func unitChecks(Options) ([]Check, error) {
 		}
 		c := Check{Group: GroupUnits, ID: fmt.Sprintf("unit-factors.csv:%d", i+1), Source: row[3],
 			What: "SI value of one " + row[0], Expected: row[1], Unit: "SI", ExpectedV: want,
-			Tolerance: 5e-7 * want, ToleranceS: "±5e-7 relative (half a unit of the 7th figure)"}
+			Tolerance: float64(5e-7 * want), ToleranceS: "±5e-7 relative (half a unit of the 7th figure)"}
 		if exact {
-			c.Tolerance, c.ToleranceS = 4e-16*want, "±4e-16 relative (an exact factor)"
+			c.Tolerance, c.ToleranceS = float64(4e-16*want), "±4e-16 relative (an exact factor)"
 		}
 		u, err := units.Parse(row[0])
 		out = append(out, judge(c, u.Factor, err))

@@ -231,10 +231,10 @@ func waterCheck(fns WaterFuncs, row []string, id string) (Check, error) {
 	c := Check{Group: waterGroup(table), ID: id, Source: row[7], What: fmt.Sprintf("%s: %s → %s", fn, inputs, out),
 		Expected: value, Unit: unit, ExpectedV: want, ToleranceS: "±0.5 unit of the last printed digit"}
 	if ex, ok := relTolExceptions[table+"|"+value]; ok {
-		tol, c.ToleranceS, c.Note = ex.rel*math.Abs(want), fmt.Sprintf("±%g relative", ex.rel), ex.note
+		tol, c.ToleranceS, c.Note = float64(ex.rel*math.Abs(want)), fmt.Sprintf("±%g relative", ex.rel), ex.note
 	}
 	// A few ulps of slack for the conversion from SI to the printed unit.
-	c.Tolerance = tol + 8*0x1p-52*math.Abs(want)
+	c.Tolerance = tol + float64(8*0x1p-52*math.Abs(want))
 	kind := waterKindOf(fn)
 	if kind == "" {
 		c.Verdict, c.Note = NotRun, notImplemented
@@ -299,7 +299,7 @@ func parseInputs(s string) (WaterInput, error) {
 		if !ok || err != nil || !known {
 			return x, fmt.Errorf("bad input %q", part)
 		}
-		v *= scale
+		v = float64(v * scale)
 		switch name {
 		case "p":
 			x.P = v

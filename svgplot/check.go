@@ -107,17 +107,17 @@ func labelBox(d *xml.Decoder, a map[string]string, group string) (rect, error) {
 		case xml.StartElement:
 			s := 1.0
 			if attrs(t)["baseline-shift"] == "sub" {
-				s, drop = subScale, subDrop*fs
+				s, drop = subScale, float64(subDrop*fs)
 			}
 			scale, depth = append(scale, s), depth+1
 		case xml.EndElement:
 			scale, depth = scale[:len(scale)-1], depth-1
 		case xml.CharData:
-			w += em * charEm * fs * scale[len(scale)-1] * float64(utf8.RuneCount(t))
+			w += float64(em * charEm * fs * scale[len(scale)-1] * float64(utf8.RuneCount(t)))
 		}
 	}
 	x, y := fnum(a["x"]), fnum(a["y"])
-	return rect{x - w/2, y - ascent*fs, x + w/2, y + drop}, nil
+	return rect{x - float64(w/2), y - float64(ascent*fs), x + float64(w/2), y + drop}, nil
 }
 
 // dataCoords returns the px coordinates an element draws at.

@@ -63,10 +63,10 @@ func clipSegment(a, c vec, b bounds) (vec, vec, bool) {
 	}
 	na, nc := a, c
 	if t0 > 0 {
-		na = b.clamp(vec{a.x + t0*dx, a.y + t0*dy})
+		na = b.clamp(vec{a.x + float64(t0*dx), a.y + float64(t0*dy)})
 	}
 	if t1 < 1 {
-		nc = b.clamp(vec{a.x + t1*dx, a.y + t1*dy})
+		nc = b.clamp(vec{a.x + float64(t1*dx), a.y + float64(t1*dy)})
 	}
 	if !isFinite(na.x) || !isFinite(na.y) || !isFinite(nc.x) || !isFinite(nc.y) {
 		return a, c, false

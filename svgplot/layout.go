@@ -33,7 +33,7 @@ func (r rect) overlap(o rect) float64 {
 	if w <= 0 || h <= 0 {
 		return 0
 	}
-	return w * h
+	return float64(w * h)
 }
 
 // contains reports whether o lies wholly inside r.
@@ -51,7 +51,7 @@ type axis struct {
 
 // px maps a data value to px.
 func (a *axis) px(v float64) float64 {
-	return a.p0 + (v-a.lo)/(a.hi-a.lo)*(a.p1-a.p0)
+	return a.p0 + float64((v-a.lo)/(a.hi-a.lo)*(a.p1-a.p0))
 }
 
 // layout holds the size, the plot area and the two scales.
@@ -63,7 +63,7 @@ type layout struct {
 
 // textWidth estimates the width in px of s at font size fs.
 func textWidth(s string, fs float64) float64 {
-	return charEm * fs * float64(utf8.RuneCountInString(s))
+	return float64(charEm * fs * float64(utf8.RuneCountInString(s)))
 }
 
 func orDefault(v, d float64) float64 {
@@ -133,7 +133,7 @@ func rightMargin(labels []string) float64 {
 	if len(labels) == 0 {
 		return 12
 	}
-	return math.Ceil(max(12, textWidth(labels[len(labels)-1], fontTick)/2+4))
+	return math.Ceil(max(12, float64(textWidth(labels[len(labels)-1], fontTick)/2)+4))
 }
 
 // extent is the data extent along one axis: of everything, and of the
@@ -182,7 +182,7 @@ func (s *span) add(v float64) {
 // padEnds widens lo..hi by pointPad of its length at each end that a point
 // lies within that distance of.
 func (e extent) padEnds(lo, hi float64) (float64, float64) {
-	pad := pointPad * (hi - lo)
+	pad := float64(pointPad * (hi - lo))
 	if e.pts[0] <= e.pts[1] {
 		lo = min(lo, e.pts[0]-pad)
 		hi = max(hi, e.pts[1]+pad)

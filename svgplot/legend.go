@@ -34,7 +34,7 @@ func drawLegend(w *writer, series []Series, drawn []vec, marks []mark, l *layout
 	w.empty("rect", "x", num(r.x0), "y", num(r.y0), "width", num(r.x1-r.x0), "height", num(r.y1-r.y0),
 		"fill", colPaper, "fill-opacity", "0.9", "stroke", "#bdbdbd", "stroke-width", "1")
 	for i, s := range named {
-		y := r.y0 + legendPad + float64(i)*legendRow + legendRow/2 - 2
+		y := r.y0 + legendPad + float64(float64(i)*legendRow) + legendRow/2 - 2
 		drawSample(w, s, r.x0+legendPad, y)
 		w.rich(legendText(s), "x", num(r.x0+legendPad+legendSample+legendGap), "y", num(y+0.35*fontTick), "fill", colInk)
 	}
@@ -65,7 +65,7 @@ func legendBox(named []Series, avoid []vec, box rect) rect {
 		tw = max(tw, legendText(s).width(fontTick))
 	}
 	wd := 2*legendPad + legendSample + legendGap + tw
-	ht := 2*legendPad + float64(len(named))*legendRow - 4
+	ht := 2*legendPad + float64(float64(len(named))*legendRow) - 4
 	l, r := box.x0+legendInset, box.x1-legendInset-wd
 	t, b := box.y0+legendInset, box.y1-legendInset-ht
 	corners := [...]rect{

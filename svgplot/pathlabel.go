@@ -1,6 +1,10 @@
 package svgplot
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // Path labels, in px: font size, least distance from the curve, and the
 // number of spots tried along it.
@@ -37,7 +41,7 @@ func drawPathLabels(w *writer, labels []PathLabel, pl *placer, l *layout) {
 		"paint-order", "stroke", "text-anchor", "middle")
 	for i, t := range texts {
 		r := boxes[i]
-		w.rich(t, "x", num((r.x0+r.x1)/2), "y", num(r.y1-t.drop(fontPath)))
+		w.rich(t, "x", num(float64((r.x0+r.x1)/2)), "y", num(r.y1-t.drop(fontPath)))
 	}
 	w.end("g")
 }
@@ -66,7 +70,7 @@ func (pl *placer) placeAlong(px []vec, w, h float64) (rect, bool) {
 			if !pl.box.contains(r) {
 				continue
 			}
-			cost := pl.cost(r) + costOffMid*math.Abs(f-0.5)*float64(len(spots)) + costStandoff*offs[j]
+			cost := pl.cost(r) + float64(costOffMid*math.Abs(f-0.5)*float64(len(spots))) + float64(costStandoff*offs[j])
 			if cost < bestCost {
 				best, bestCost = r, cost
 			}
@@ -92,18 +96,18 @@ func besideBoxes(sp spot, w, h float64) ([]rect, []float64) {
 	var out []rect
 	var off []float64
 	if tx := math.Abs(t.x); tx > 0 {
-		if dy := pathGap + math.Abs(t.y)/tx*w/2; dy <= maxStandoff {
+		if dy := pathGap + float64(math.Abs(t.y)/tx*w/2); dy <= maxStandoff {
 			out = append(out,
-				rect{c.x - w/2, c.y - dy - h, c.x + w/2, c.y - dy},
-				rect{c.x - w/2, c.y + dy, c.x + w/2, c.y + dy + h})
+				rect{c.x - float64(w/2), c.y - dy - h, c.x + float64(w/2), c.y - dy},
+				rect{c.x - float64(w/2), c.y + dy, c.x + float64(w/2), c.y + dy + h})
 			off = append(off, dy, dy)
 		}
 	}
 	if ty := math.Abs(t.y); ty > 0 {
-		if dx := pathGap + math.Abs(t.x)/ty*h/2; dx <= maxStandoff {
+		if dx := pathGap + float64(math.Abs(t.x)/ty*h/2); dx <= maxStandoff {
 			out = append(out,
-				rect{c.x + dx, c.y - h/2, c.x + dx + w, c.y + h/2},
-				rect{c.x - dx - w, c.y - h/2, c.x - dx, c.y + h/2})
+				rect{c.x + dx, c.y - float64(h/2), c.x + dx + w, c.y + float64(h/2)},
+				rect{c.x - dx - w, c.y - float64(h/2), c.x - dx, c.y + float64(h/2)})
 			off = append(off, dx, dx)
 		}
 	}
@@ -138,9 +142,9 @@ func alongSpots(px []vec, n int) []spot {
 		}
 		u := min((want-done)/d, 1)
 		t := vec{(b.x - a.x) / d, (b.y - a.y) / d}
-		out = append(out, spot{vec{a.x + u*(b.x-a.x), a.y + u*(b.y-a.y)}, t})
+		out = append(out, spot{vec{a.x + float64(u*(b.x-a.x)), a.y + float64(u*(b.y-a.y))}, t})
 	}
 	return out
 }
 
-func dist(a, b vec) float64 { return math.Hypot(b.x-a.x, b.y-a.y) }
+func dist(a, b vec) float64 { return fpmath.Hypot(b.x-a.x, b.y-a.y) }

@@ -1,6 +1,10 @@
 package svgplot
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // Point markers and their labels, in px.
 const (
@@ -89,12 +93,12 @@ func drawLabels(w *writer, pts []Point, marks []mark, drawn []vec, taken []rect,
 		if label == "" {
 			continue
 		}
-		r := pl.place(m.c, boldEm*textWidth(label, fontLabel), ascent*fontLabel)
+		r := pl.place(m.c, float64(boldEm*textWidth(label, fontLabel)), ascent*fontLabel)
 		out = append(out, placed{label, m.c, r})
 	}
 	var leaders []string
 	for _, p := range out {
-		if e := nearestOn(p.r, p.c); math.Hypot(e.x-p.c.x, e.y-p.c.y) > leaderMin {
+		if e := nearestOn(p.r, p.c); fpmath.Hypot(e.x-p.c.x, e.y-p.c.y) > leaderMin {
 			leaders = append(leaders, "x1", num(p.c.x), "y1", num(p.c.y), "x2", num(e.x), "y2", num(e.y))
 		}
 	}
@@ -109,7 +113,7 @@ func drawLabels(w *writer, pts []Point, marks []mark, drawn []vec, taken []rect,
 		"fill", colInk, "stroke", colPaper, "stroke-width", "3", "stroke-linejoin", "round",
 		"paint-order", "stroke", "text-anchor", "middle")
 	for _, p := range out {
-		w.text("text", p.label, "x", num((p.r.x0+p.r.x1)/2), "y", num(p.r.y1))
+		w.text("text", p.label, "x", num(float64((p.r.x0+p.r.x1)/2)), "y", num(p.r.y1))
 	}
 	w.end("g")
 	return pl
@@ -128,15 +132,15 @@ func (pl *placer) place(c vec, w, h float64) rect {
 	var best rect
 	bestCost := math.Inf(1)
 	for ring := range rings {
-		extra := float64(ring) * (h + 2*labelPad)
+		extra := float64(float64(ring) * (h + 2*labelPad))
 		for rank, d := range pl.order(c) {
 			r := shiftInto(labelRect(c, d, w, h, extra), pl.box)
-			cost := pl.cost(r) + float64(rank) + costRing*float64(ring)
+			cost := pl.cost(r) + float64(rank) + float64(costRing*float64(ring))
 			if cost < bestCost {
 				best, bestCost = r, cost
 			}
 		}
-		if bestCost < costRing*float64(ring+1) {
+		if bestCost < float64(costRing*float64(ring+1)) {
 			break // no later ring can be cheaper
 		}
 	}
@@ -151,8 +155,8 @@ func (pl *placer) order(c vec) []vec {
 	copy(out, dirs[:])
 	away := vec{c.x - pl.centre.x, c.y - pl.centre.y}
 	score := func(d vec) float64 {
-		n := math.Hypot(d.x, d.y)
-		return (d.x*away.x + d.y*away.y) / n
+		n := fpmath.Hypot(d.x, d.y)
+		return (float64(d.x*away.x) + float64(d.y*away.y)) / n
 	}
 	// insertion sort: stable, and the slice is tiny
 	for i := 1; i < len(out); i++ {
@@ -180,7 +184,7 @@ func (pl *placer) cost(r rect) float64 {
 			cost += costMarker
 		}
 	}
-	return cost + costVertex*float64(countInside(pl.drawn, r))
+	return cost + float64(costVertex*float64(countInside(pl.drawn, r)))
 }
 
 // labelRect puts a w×h box next to c in direction d, extra px further
@@ -188,7 +192,7 @@ func (pl *placer) cost(r rect) float64 {
 func labelRect(c, d vec, w, h, extra float64) rect {
 	g := labelGap + extra
 	if d.x != 0 && d.y != 0 {
-		g = g * 3 / 4
+		g = float64(g * 3 / 4)
 	}
 	var x0, y0 float64
 	switch {
@@ -197,7 +201,7 @@ func labelRect(c, d vec, w, h, extra float64) rect {
 	case d.x < 0:
 		x0 = c.x - g - w
 	default:
-		x0 = c.x - w/2
+		x0 = c.x - float64(w/2)
 	}
 	switch {
 	case d.y > 0:
@@ -205,7 +209,7 @@ func labelRect(c, d vec, w, h, extra float64) rect {
 	case d.y < 0:
 		y0 = c.y - g - h
 	default:
-		y0 = c.y - h/2
+		y0 = c.y - float64(h/2)
 	}
 	return rect{x0, y0, x0 + w, y0 + h}
 }

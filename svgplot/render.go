@@ -109,7 +109,7 @@ func drawTicks(w *writer, l *layout) {
 // drawAxisLabels writes the title and the axis labels.
 func drawAxisLabels(w *writer, p *Plot, l *layout) {
 	b := l.box
-	mid := num((b.x0 + b.x1) / 2)
+	mid := num(float64((b.x0 + b.x1) / 2))
 	if t := p.title(); !t.empty() {
 		w.rich(t, "class", "plot-title", "x", mid, "y", "22",
 			"text-anchor", "middle", "font-size", num(fontTitle), "font-weight", "bold", "fill", colInk)
@@ -119,7 +119,7 @@ func drawAxisLabels(w *writer, p *Plot, l *layout) {
 			"text-anchor", "middle", "font-size", num(fontAxis), "fill", colInk)
 	}
 	if t := p.yLabel(); !t.empty() {
-		x, y := num(6+fontAxis*0.8), num((b.y0+b.y1)/2)
+		x, y := num(6+fontAxis*0.8), num(float64((b.y0+b.y1)/2))
 		w.rich(t, "class", "axis-label", "x", x, "y", y,
 			"transform", "rotate(-90 "+x+" "+y+")",
 			"text-anchor", "middle", "font-size", num(fontAxis), "fill", colInk)

@@ -1,6 +1,6 @@
 package svgplot
 
-import "math"
+import "github.com/vouchcalc/vouch/internal/fpmath"
 
 // markerR is the radius of a dot of a Markers series, in px.
 const markerR = 2.4
@@ -134,10 +134,10 @@ func densify(px, drawn []vec) []vec {
 	for i, v := range px {
 		if i > 0 {
 			a := px[i-1]
-			n := int(min(math.Hypot(v.x-a.x, v.y-a.y)/densifyStep, maxSamples))
+			n := int(min(float64(fpmath.Hypot(v.x-a.x, v.y-a.y)/densifyStep), maxSamples))
 			for k := 1; k <= n; k++ {
 				t := float64(k) / float64(n+1)
-				drawn = append(drawn, vec{a.x + t*(v.x-a.x), a.y + t*(v.y-a.y)})
+				drawn = append(drawn, vec{a.x + float64(t*(v.x-a.x)), a.y + float64(t*(v.y-a.y))})
 			}
 		}
 		drawn = append(drawn, v)

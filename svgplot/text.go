@@ -65,7 +65,7 @@ func (t Text) empty() bool {
 func (t Text) drop(fs float64) float64 {
 	for _, r := range t {
 		if r.Sub && r.Text != "" {
-			return subDrop * fs
+			return float64(subDrop * fs)
 		}
 	}
 	return 0
@@ -77,9 +77,9 @@ func (t Text) width(fs float64) float64 {
 	for _, r := range t {
 		n := float64(utf8.RuneCountInString(r.Text))
 		if r.Sub {
-			n *= subScale
+			n = float64(n * subScale)
 		}
-		w += charEm * fs * n
+		w += float64(charEm * fs * n)
 	}
 	return w
 }

@@ -4,6 +4,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
 )
 
 // maxTickCount bounds the maxTicks argument of NiceTicks, so that tick
@@ -107,13 +109,13 @@ func decimal(n int64, exp int) float64 {
 func spanOK(lo, hi float64, maxTicks int) bool {
 	span := hi - lo
 	return isFinite(lo) && isFinite(hi) && lo < hi && maxTicks >= 2 &&
-		isFinite(span) && max(math.Abs(lo), math.Abs(hi)) <= maxRelSpan*span
+		isFinite(span) && max(math.Abs(lo), math.Abs(hi)) <= float64(maxRelSpan*span)
 }
 
 // firstStep returns a step no larger than any step that could fit.
 func firstStep(lo, hi float64, maxTicks int) step {
 	raw := (hi - lo) / float64(max(maxTicks, 2)-1)
-	return step{1, int(math.Floor(math.Log10(raw))) - 1}
+	return step{1, int(math.Floor(fpmath.Log10(raw))) - 1}
 }
 
 // chooseStep returns the smallest nice step giving at most maxTicks ticks in [lo, hi].
@@ -184,7 +186,7 @@ func maxExp(ticks []float64) int {
 	if m == 0 {
 		return 0
 	}
-	return int(math.Floor(math.Log10(m)))
+	return int(math.Floor(fpmath.Log10(m)))
 }
 
 // sciLabel formats v as "1.5e7" or "-2e-5".

@@ -4,6 +4,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
 )
 
 // displayChoices lists, per dimension, the units a value is shown in when the
@@ -67,7 +69,7 @@ func FormatSig(v float64, digits int) string {
 	}
 	// Round to significant figures first, then choose decimals.
 	r, _ := strconv.ParseFloat(strconv.FormatFloat(v, 'e', digits-1, 64), 64)
-	mag := int(math.Floor(math.Log10(math.Abs(r))))
+	mag := int(math.Floor(fpmath.Log10(math.Abs(r))))
 	return strconv.FormatFloat(r, 'f', max(digits-1-mag, 0), 64)
 }
 

@@ -253,7 +253,7 @@ func (p *parser) symbol() (Unit, error) {
 // finished unit's powers are checked (finish), so the order in which a unit
 // is written, and so its canonical text, cannot matter.
 func (u Unit) mul(v Unit) Unit {
-	out := Unit{Factor: u.Factor * v.Factor}
+	out := Unit{Factor: float64(u.Factor * v.Factor)}
 	for i := range out.wide {
 		out.wide[i] = u.wide[i] + v.wide[i]
 	}
@@ -309,7 +309,7 @@ func ipow(x float64, n int) float64 {
 	}
 	r := 1.0
 	for i := 0; i < n; i++ {
-		r *= x
+		r = float64(r * x)
 	}
 	return r
 }

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
 )
 
 // Temp tells how a temperature quantity may be combined.
@@ -59,10 +61,10 @@ func Num(v float64) Quantity { return Quantity{V: v} }
 // Q returns a quantity from a value in a unit; ctx supplies the atmosphere
 // for gauge units.
 func (u Unit) Q(v float64, ctx Context) Quantity {
-	q := Quantity{V: v*u.Factor + u.Offset, D: u.Dim}
+	q := Quantity{V: float64(v*u.Factor) + u.Offset, D: u.Dim}
 	switch {
 	case u.Kind == Gauge:
-		q.V = v*u.Factor + ctx.Atmosphere
+		q.V = float64(v*u.Factor) + ctx.Atmosphere
 		q.P = GaugeP
 	case u.Kind == AbsTemp:
 		q.T = Abs
@@ -231,7 +233,7 @@ func Mul(a, b Quantity) (Quantity, error) {
 	if err != nil {
 		return Quantity{}, err
 	}
-	return scaled(Quantity{V: a.V * b.V, D: d}, a, b), nil
+	return scaled(Quantity{V: float64(a.V * b.V), D: d}, a, b), nil
 }
 
 // Div returns a ÷ b; the caller checks for a zero divisor. A result holding
@@ -336,7 +338,7 @@ func Pow(a, b Quantity) (Quantity, error) {
 		return Quantity{}, fmt.Errorf("an exponent must be dimensionless, not %s (%s)", b.D.Name(), DefaultUnit(b))
 	}
 	if a.D.IsNone() {
-		return Num(math.Pow(a.V, b.V)), nil
+		return Num(fpmath.Pow(a.V, b.V)), nil
 	}
 	n := math.Round(b.V)
 	if n != b.V || math.Abs(n) > 12 {
@@ -346,7 +348,7 @@ func Pow(a, b Quantity) (Quantity, error) {
 	if err != nil {
 		return Quantity{}, err
 	}
-	return withKind(Quantity{V: math.Pow(a.V, n), D: d}, Scale), nil
+	return withKind(Quantity{V: fpmath.Pow(a.V, n), D: d}, Scale), nil
 }
 
 // Compare returns −1, 0 or +1 as a <, ==, > b. Comparing an absolute

@@ -156,7 +156,7 @@ func lookupAtom(sym string) (Atom, bool) {
 		}
 		out := *a
 		out.Symbol = sym
-		out.Factor *= p.factor
+		out.Factor = float64(out.Factor * p.factor)
 		out.Name = ""
 		if a.Symbol == "g" && p.sym == "k" {
 			out.Name = "kilogram"

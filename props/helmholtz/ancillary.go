@@ -1,6 +1,10 @@
 package helmholtz
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // Ancillary equations: smooth fits of the saturation line of each
 // equation, used only as starting values for the saturation solver and to
@@ -51,13 +55,13 @@ type ancSat struct{ p, rhoL, rhoV float64 }
 // products, then each from the one six before it, in six short chains
 // rather than one of 48 dependent products.
 func sixths(theta float64, pw *[49]float64) {
-	s := math.Cbrt(math.Sqrt(theta))
+	s := fpmath.Cbrt(math.Sqrt(theta))
 	pw[0] = 1
 	for k := 1; k <= 6; k++ {
-		pw[k] = pw[k-1] * s
+		pw[k] = float64(pw[k-1] * s)
 	}
 	for k := 7; k < len(pw); k++ {
-		pw[k] = pw[k-6] * pw[6]
+		pw[k] = float64(pw[k-6] * pw[6])
 	}
 }
 
@@ -67,18 +71,18 @@ func (a *ancillary) estimate(T float64) ancSat {
 	sixths(1-T/a.Tc, &pw)
 	var sp, sl, sv float64
 	for i := 0; i < nAnc; i++ {
-		sp += a.P[i] * pw[ancKP[i]]
-		sl += a.L[i] * pw[ancKL[i]]
-		sv += a.V[i] * pw[ancKV[i]]
+		sp += float64(a.P[i] * pw[ancKP[i]])
+		sl += float64(a.L[i] * pw[ancKL[i]])
+		sv += float64(a.V[i] * pw[ancKV[i]])
 	}
 	r := a.Tc / T
-	return ancSat{p: a.Pc * math.Exp(r*sp), rhoL: a.RhoC * (1 + sl), rhoV: a.RhoC * math.Exp(r*sv)}
+	return ancSat{p: float64(a.Pc * fpmath.Exp(float64(r*sp))), rhoL: float64(a.RhoC * (1 + sl)), rhoV: float64(a.RhoC * fpmath.Exp(float64(r*sv)))}
 }
 
 // tsatEstimate inverts the vapour-pressure ancillary by Newton's method in
 // T; p must lie below Pc.
 func (a *ancillary) tsatEstimate(p float64) float64 {
-	y := math.Log(p / a.Pc)
+	y := fpmath.Log(p / a.Pc)
 	T := a.Tc / (1 + y/a.P[0]) // first term only: ln(p/Pc) = P0 (Tc/T - 1)
 	for it := 0; it < 50; it++ {
 		theta := 1 - T/a.Tc
@@ -87,17 +91,17 @@ func (a *ancillary) tsatEstimate(p float64) float64 {
 		var S, dS float64 // sum and its derivative in theta
 		for i := 0; i < nAnc; i++ {
 			k := float64(ancKP[i]) / 6
-			S += a.P[i] * pw[ancKP[i]]
-			dS += a.P[i] * k * pw[ancKP[i]-6] // k >= 1: theta^(k-1)
+			S += float64(a.P[i] * pw[ancKP[i]])
+			dS += float64(a.P[i] * k * pw[ancKP[i]-6]) // k >= 1: theta^(k-1)
 		}
 		r := a.Tc / T
-		g := -r/T*S - dS/T // d/dT of r S
-		dT := (r*S - y) / g
-		dT = math.Max(math.Min(dT, 0.5*T), -0.5*(a.Tc-T))
+		g := float64(-r/T*S) - dS/T // d/dT of r S
+		dT := (float64(r*S) - y) / g
+		dT = math.Max(math.Min(dT, float64(0.5*T)), float64(-0.5*(a.Tc-T)))
 		T -= dT
 		// Convergence is quadratic: after a step below 1e-7 the error is
 		// far below that of the fit itself (about 1e-5 in T).
-		if math.Abs(dT) < 1e-7*T {
+		if math.Abs(dT) < float64(1e-7*T) {
 			break
 		}
 	}

@@ -11,22 +11,22 @@ func (f *Fluid) critical() (Tc, rhoC, pc float64) {
 	var tp tauPart
 	dmin := func(T float64) (float64, float64) {
 		f.eos.newTauPart(f.eos.tRed/T, false, &tp)
-		D := func(d float64) float64 { r := f.eos.residual(&tp, d); return 1 + 2*r.d + r.dd }
+		D := func(d float64) float64 { r := f.eos.residual(&tp, d); return 1 + float64(2*r.d) + r.dd }
 		d := goldenMin(D, 0.5, 1.6)
 		return D(d), d
 	}
-	lo, hi := 0.97*f.eos.tRed, 1.03*f.eos.tRed
-	for it := 0; it < 200 && hi-lo > 1e-13*hi; it++ {
-		mid := 0.5 * (lo + hi)
+	lo, hi := float64(0.97*f.eos.tRed), float64(1.03*f.eos.tRed)
+	for it := 0; it < 200 && hi-lo > float64(1e-13*hi); it++ {
+		mid := float64(0.5 * (lo + hi))
 		if v, _ := dmin(mid); v < 0 {
 			lo = mid
 		} else {
 			hi = mid
 		}
 	}
-	Tc = 0.5 * (lo + hi)
+	Tc = float64(0.5 * (lo + hi))
 	_, d := dmin(Tc)
-	rhoC = d * f.eos.rhoRed
+	rhoC = float64(d * f.eos.rhoRed)
 	pc, _ = f.pressure(&tp, Tc, rhoC)
 	return Tc, rhoC, math.Abs(pc)
 }

@@ -7,10 +7,10 @@ import "math"
 // guess (0 for the ideal-gas value). tp must be made for T.
 func (f *Fluid) densityIn(tp *tauPart, T, p, lo, hi, guess float64) (float64, bool) {
 	if guess == 0 {
-		guess = math.Min(p/(f.R*T), 0.5*(lo+hi))
+		guess = math.Min(p/(f.R*T), float64(0.5*(lo+hi)))
 	}
 	if !(guess > math.Min(lo, hi) && guess < math.Max(lo, hi)) {
-		guess = 0.5 * (lo + hi)
+		guess = float64(0.5 * (lo + hi))
 	}
 	fdf := f.densityFdf(tp, T, p)
 	fx, dfx := fdf(guess)
@@ -27,18 +27,18 @@ func (f *Fluid) densityFrom(tp *tauPart, T, p, lo, hi, x, fx, dfx float64) (floa
 // in tp.
 func (f *Fluid) densityFdf(tp *tauPart, T, p float64) func(float64) (float64, float64) {
 	rr := f.eos.rhoRed
-	RT := f.R * T
+	RT := float64(f.R * T)
 	return func(rho float64) (float64, float64) {
 		r := f.eos.residual(tp, rho/rr)
-		return rho*RT*(1+r.d) - p, RT * (1 + 2*r.d + r.dd)
+		return float64(rho*RT*(1+r.d)) - p, float64(RT * (1 + float64(2*r.d) + r.dd))
 	}
 }
 
 // pressure returns p(T, rho) for the tau factors in tp.
 func (f *Fluid) pressure(tp *tauPart, T, rho float64) (p, dpdrho float64) {
 	r := f.eos.residual(tp, rho/f.eos.rhoRed)
-	RT := f.R * T
-	return rho * RT * (1 + r.d), RT * (1 + 2*r.d + r.dd)
+	RT := float64(f.R * T)
+	return float64(rho * RT * (1 + r.d)), float64(RT * (1 + float64(2*r.d) + r.dd))
 }
 
 // vapourDensity solves for the vapour density at (T, p) with p below the
@@ -47,7 +47,7 @@ func (f *Fluid) pressure(tp *tauPart, T, rho float64) (p, dpdrho float64) {
 // saturated vapour density at a T within round-off of Tsat) is widened.
 func (f *Fluid) vapourDensity(tp *tauPart, T, p, rhoHi float64) (float64, bool) {
 	for _, e := range boundSteps {
-		hi := rhoHi * (1 + e)
+		hi := float64(rhoHi * (1 + e))
 		ph, dh := f.pressure(tp, T, hi)
 		if !(dh > 0) {
 			break
@@ -67,7 +67,7 @@ func (f *Fluid) vapourDensity(tp *tauPart, T, p, rhoHi float64) (float64, bool) 
 // is convex there; if it is not, the bound is widened.
 func (f *Fluid) liquidDensity(tp *tauPart, T, p, rhoLo float64) (float64, bool) {
 	for _, e := range boundSteps {
-		lo := rhoLo * (1 - e)
+		lo := float64(rhoLo * (1 - e))
 		pl, dl := f.pressure(tp, T, lo)
 		if !(dl > 0) {
 			break
@@ -87,7 +87,7 @@ var boundSteps = [...]float64{0, 1e-12, 1e-10, 1e-8, 1e-6}
 // and dp/drho = dl > 0. The tangent step is at least 1e-13 of lo: a
 // smaller one may not move the density at all.
 func (f *Fluid) liquidAbove(tp *tauPart, T, p, lo, pl, dl float64) (float64, bool) {
-	step := math.Max((p-pl)/dl, 1e-13*lo)
+	step := math.Max((p-pl)/dl, float64(1e-13*lo))
 	hi := lo + step
 	for i := 0; ; i++ {
 		ph, dh := f.pressure(tp, T, hi)
@@ -104,13 +104,13 @@ func (f *Fluid) liquidAbove(tp *tauPart, T, p, lo, pl, dl float64) (float64, boo
 // superDensity solves for the density at T at or above Tc, where p rises
 // with rho everywhere; the bracket runs from zero to beyond RhoMax.
 func (f *Fluid) superDensity(tp *tauPart, T, p float64) (float64, bool) {
-	hi := 1.2 * f.RhoMax
+	hi := float64(1.2 * f.RhoMax)
 	if ph, dh := f.pressure(tp, T, hi); !(ph > p) || !(dh > 0) {
 		return 0, false
 	}
 	guess := 0.0
 	if p > f.Pc {
-		guess = f.RhoC * 1.5
+		guess = float64(f.RhoC * 1.5)
 	}
 	return f.densityIn(tp, T, p, 0, hi, guess)
 }

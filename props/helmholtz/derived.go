@@ -16,14 +16,14 @@ func init() {
 				f.eos.expAt = append(f.eos.expAt, i)
 			}
 			k.fd, k.fl = float64(k.d), float64(k.l)
-			k.t2, k.d2, k.l2 = k.t*(k.t-1), k.fd*(k.fd-1), k.fl*(k.fl-1)
-			k.td, k.eta2, k.beta2 = k.t*k.fd, 2*k.eta, 2*k.beta
+			k.t2, k.d2, k.l2 = float64(k.t*(k.t-1)), float64(k.fd*(k.fd-1)), float64(k.fl*(k.fl-1))
+			k.td, k.eta2, k.beta2 = float64(k.t*k.fd), float64(2*k.eta), float64(2*k.beta)
 		}
 		a, ok := derivedTable[f.Name+"/"+f.Key]
 		if !ok {
 			continue
 		}
-		a.pFast = a.estimate(fastMax * a.Tc).p
+		a.pFast = a.estimate(float64(fastMax * a.Tc)).p
 		f.anc = a
 		f.Tc, f.Pc, f.RhoC, f.RhoMax = a.Tc, a.Pc, a.RhoC, a.RhoMax
 	}

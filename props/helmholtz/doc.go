@@ -28,3 +28,4 @@
 package helmholtz
 
 //go:generate go run ./gen
+//go:generate go run ../../internal/fpguard .

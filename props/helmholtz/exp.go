@@ -1,25 +1,29 @@
 package helmholtz
 
-import "math"
+import (
+	"math"
 
-// fastExp is exp(x) to within 2 units in the last place of math.Exp, in
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
+
+// fastExp is exp(x) to within 2 units in the last place of fpmath.Exp, in
 // about half its time where many are taken in a row, as in fused: x is
 // split as (k + j/128) ln 2 + r with |r| <= ln 2/256, and exp(x) is 2^k
 // times a table value 2^(j/128) times a polynomial in r of degree 5.
-// Outside [-708, 709] (and for NaN) it is math.Exp.
+// Outside [-708, 709] (and for NaN) it is fpmath.Exp.
 func fastExp(x float64) float64 {
 	if !(x > -708 && x < 709) {
-		return math.Exp(x)
+		return fpmath.Exp(x)
 	}
 	// Adding 1.5 * 2^52 rounds x N/ln2 to an integer in the low bits.
-	kd := x*expInvLn2N + expShift
+	kd := float64(x*expInvLn2N) + expShift
 	ki := math.Float64bits(kd)
 	kd -= expShift
-	r := x - kd*expLn2HiN - kd*expLn2LoN
+	r := x - float64(kd*expLn2HiN) - float64(kd*expLn2LoN)
 	s := math.Float64frombits(math.Float64bits(expTable[ki&(expN-1)]) + (ki>>expBits)<<52)
-	r2 := r * r
-	p := r + r2*(0.5+r*(1.0/6)) + r2*r2*(1.0/24+r*(1.0/120))
-	return s + s*p
+	r2 := float64(r * r)
+	p := r + float64(r2*(0.5+float64(r*(1.0/6)))) + float64(r2*r2*(1.0/24+float64(r*(1.0/120))))
+	return s + float64(s*p)
 }
 
 const (
@@ -36,6 +40,6 @@ var expTable [expN]float64
 
 func init() {
 	for j := range expTable {
-		expTable[j] = math.Exp2(float64(j) / expN)
+		expTable[j] = fpmath.Exp2(float64(float64(j) / expN))
 	}
 }

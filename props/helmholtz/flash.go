@@ -92,7 +92,7 @@ func (f *Fluid) stateIsobar(op string, p, target float64, by int) (Props, error)
 		if pr, ok := f.tryNewtonPY(p, target, by, sat); ok {
 			return pr, nil
 		}
-		dT := 1e-3 * d.Ts
+		dT := float64(1e-3 * d.Ts)
 		b := isobar{lo: math.Max(d.Ts-dT, f.Tmin), hi: f.Tmax}
 		if d.side < 0 {
 			b = isobar{lo: f.Tmin, hi: math.Min(d.Ts+dT, f.Tmax)}
@@ -221,9 +221,9 @@ func (f *Fluid) sideFast(p, target float64, by int) (dome, bool) {
 	f.eos.newTauPart(f.eos.tRed/T, true, &tp)
 	d := dome{Ts: T, ql: f.at(&tp, T, a.rhoL), qv: f.at(&tp, T, a.rhoV)}
 	yf, yg := pick(f.props(&d.ql), by), pick(f.props(&d.qv), by)
-	mf, mg := 0.02*(yg-yf), 0.02*(yg-yf)
+	mf, mg := float64(0.02*(yg-yf)), float64(0.02*(yg-yf))
 	if by == byV {
-		mf, mg = 0.02*yf, 0.02*yg
+		mf, mg = float64(0.02*yf), float64(0.02*yg)
 	}
 	switch {
 	case target < yf-mf:

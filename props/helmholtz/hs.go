@@ -1,6 +1,10 @@
 package helmholtz
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // StateHS returns the state at specific enthalpy h and entropy s. It
 // solves along the isentrope s for the pressure at which the enthalpy is h,
@@ -17,18 +21,18 @@ func (f *Fluid) StateHS(h, s float64) (Props, error) {
 	var last Props
 	var err error
 	eval := func(lnp float64) (float64, float64) {
-		p := math.Min(math.Exp(lnp), f.Pmax) // exp(ln Pmax) may round above Pmax
+		p := math.Min(fpmath.Exp(lnp), f.Pmax) // exp(ln Pmax) may round above Pmax
 		last, err = f.StatePS(p, s)
 		if err != nil {
 			return hsSignal(err), 0
 		}
-		return last.H - h, p * last.V
+		return last.H - h, float64(p * last.V)
 	}
-	lo, hi := math.Log(f.Pmin()/100), math.Log(f.Pmax)
-	lnp, _ := rtsafe(eval, lo, hi, math.Log(f.Pc/10), 1e-15)
+	lo, hi := fpmath.Log(f.Pmin()/100), fpmath.Log(f.Pmax)
+	lnp, _ := rtsafe(eval, lo, hi, fpmath.Log(f.Pc/10), 1e-15)
 	g, _ := eval(lnp)
-	scale := math.Max(math.Abs(h), f.R*f.Tc)
-	if err == nil && math.Abs(g) <= 1e-10*scale {
+	scale := math.Max(math.Abs(h), float64(f.R*f.Tc))
+	if err == nil && math.Abs(g) <= float64(1e-10*scale) {
 		return last, nil
 	}
 	// The search ended at an edge: of the pressure bracket, or of the

@@ -126,7 +126,7 @@ func (f *Fluid) stableSide(q *point, sp *satPoint, liquid bool) bool {
 		return false
 	}
 	// Far below Tsat some equations have rising branches inside the dome.
-	return f.anc.Tc == 0 || q.T > fastMax*f.Tc || q.rho > 0.95*f.anc.estimate(q.T).rhoL
+	return f.anc.Tc == 0 || q.T > float64(fastMax*f.Tc) || q.rho > float64(0.95*f.anc.estimate(q.T).rhoL)
 }
 
 // satNewtonPY runs the fast path from one saturated state of the exact

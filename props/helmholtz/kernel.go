@@ -1,6 +1,10 @@
 package helmholtz
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // Limits of the kernel's fixed-size work arrays; gen checks every table
 // against them.
@@ -76,20 +80,20 @@ type resid struct{ a, d, dd, t, tt, dt float64 }
 // each) and, if withIdeal, the ideal-gas part.
 func (e *equation) newTauPart(tau float64, withIdeal bool, tp *tauPart) {
 	tp.tau = tau
-	lt := math.Log(tau)
+	lt := fpmath.Log(tau)
 	for i := range e.terms {
 		k := &e.terms[i]
 		if k.beta == 0 {
-			tp.A[i] = k.n * math.Exp(k.t*lt)
+			tp.A[i] = float64(k.n * fpmath.Exp(float64(k.t*lt)))
 			tp.a1[i] = k.t
-			tp.a2[i] = k.t * (k.t - 1)
+			tp.a2[i] = float64(k.t * (k.t - 1))
 			continue
 		}
 		dt := tau - k.gamma
-		tp.A[i] = k.n * math.Exp(k.t*lt-k.beta*dt*dt)
-		a1 := k.t - 2*k.beta*tau*dt
+		tp.A[i] = float64(k.n * fpmath.Exp(float64(k.t*lt)-float64(k.beta*dt*dt)))
+		a1 := k.t - float64(2*k.beta*tau*dt)
 		tp.a1[i] = a1
-		tp.a2[i] = a1*a1 - k.t - 2*k.beta*tau*tau
+		tp.a2[i] = float64(a1*a1) - k.t - float64(2*k.beta*tau*tau)
 	}
 	tp.idealValid = withIdeal
 	if withIdeal {
@@ -104,96 +108,96 @@ func (e *equation) residual(tp *tauPart, delta float64) resid {
 	var pw [maxPow + 1]float64
 	pw[0] = 1
 	for i := 1; i <= maxPow; i++ {
-		pw[i] = pw[i-1] * delta
+		pw[i] = float64(pw[i-1] * delta)
 	}
 	var sa, sd, sdd, st, stt, sdt float64
 	terms := e.terms
 	np, ne := e.nPol, e.nPol+e.nExp
 	for i := range terms[:np] {
 		k := &terms[i]
-		g := tp.A[i] * pw[k.d]
+		g := float64(tp.A[i] * pw[k.d])
 		a1 := tp.a1[i]
 		sa += g
-		sd += g * k.fd
-		sdd += g * k.d2
-		st += g * a1
-		stt += g * tp.a2[i]
-		sdt += g * a1 * k.fd
+		sd += float64(g * k.fd)
+		sdd += float64(g * k.d2)
+		st += float64(g * a1)
+		stt += float64(g * tp.a2[i])
+		sdt += float64(g * a1 * k.fd)
 	}
 	var el [maxPow + 1]float64 // exp(-delta^l), computed once per l
 	for i := np; i < ne; i++ {
 		if l := terms[i].l; el[l] == 0 {
-			el[l] = math.Exp(-pw[l])
+			el[l] = fpmath.Exp(-pw[l])
 		}
 	}
 	var gs [maxTerms]float64 // the Gaussian factors in delta
 	for i := ne; i < len(terms); i++ {
 		k := &terms[i]
 		dd := delta - k.eps
-		gs[i] = math.Exp(-k.eta * dd * dd)
+		gs[i] = fpmath.Exp(float64(-k.eta * dd * dd))
 	}
 	for i := np; i < ne; i++ {
 		k := &terms[i]
-		g, a1, dl := tp.A[i]*(pw[k.d]*el[k.l]), tp.a1[i], pw[k.l]
-		b1 := k.fd - k.fl*dl
+		g, a1, dl := float64(tp.A[i]*(pw[k.d]*el[k.l])), tp.a1[i], pw[k.l]
+		b1 := k.fd - float64(k.fl*dl)
 		sa += g
-		sd += g * b1
-		sdd += g * (b1*b1 - k.fd - k.l2*dl)
-		st += g * a1
-		stt += g * tp.a2[i]
-		sdt += g * a1 * b1
+		sd += float64(g * b1)
+		sdd += float64(g * (float64(b1*b1) - k.fd - float64(k.l2*dl)))
+		st += float64(g * a1)
+		stt += float64(g * tp.a2[i])
+		sdt += float64(g * a1 * b1)
 	}
 	for i := ne; i < len(terms); i++ {
 		k := &terms[i]
-		g, a1 := tp.A[i]*(pw[k.d]*gs[i]), tp.a1[i]
-		b1 := k.fd - 2*k.eta*delta*(delta-k.eps)
+		g, a1 := float64(tp.A[i]*(pw[k.d]*gs[i])), tp.a1[i]
+		b1 := k.fd - float64(2*k.eta*delta*(delta-k.eps))
 		sa += g
-		sd += g * b1
-		sdd += g * (b1*b1 - k.fd - 2*k.eta*delta*delta)
-		st += g * a1
-		stt += g * tp.a2[i]
-		sdt += g * a1 * b1
+		sd += float64(g * b1)
+		sdd += float64(g * (float64(b1*b1) - k.fd - float64(2*k.eta*delta*delta)))
+		st += float64(g * a1)
+		stt += float64(g * tp.a2[i])
+		sdt += float64(g * a1 * b1)
 	}
 	return resid{a: sa, d: sd, dd: sdd, t: st, tt: stt, dt: sdt}
 }
 
 // idealAt evaluates the ideal-gas part without ln delta; lt = ln tau.
 func (e *equation) idealAt(tau, lt float64) idealTau {
-	v := idealTau{a: e.logTau * lt, t: e.logTau, tt: -e.logTau}
+	v := idealTau{a: float64(e.logTau * lt), t: e.logTau, tt: -e.logTau}
 	for _, p := range e.pow {
 		x := p.n
 		switch p.t {
 		case 0:
 		case 1:
-			x *= tau
+			x = float64(x * tau)
 		default:
-			x *= math.Exp(p.t * lt)
+			x = float64(x * fpmath.Exp(float64(p.t*lt)))
 		}
 		v.a += x
-		v.t += p.t * x
-		v.tt += p.t * (p.t - 1) * x
+		v.t += float64(p.t * x)
+		v.tt += float64(p.t * (p.t - 1) * x)
 	}
 	for _, p := range e.pe {
-		x := p.theta * tau
-		em := math.Exp(-x)
+		x := float64(p.theta * tau)
+		em := fpmath.Exp(-x)
 		q := 1 - em
-		v.a += p.n * math.Log1p(-em)
+		v.a += float64(p.n * fpmath.Log1p(-em))
 		v.t += p.n * x * em / q
 		v.tt -= p.n * x * x * em / (q * q)
 	}
 	for _, p := range e.sinh {
-		x := p.theta * tau
-		em := math.Exp(-2 * x)
+		x := float64(p.theta * tau)
+		em := fpmath.Exp(float64(-2 * x))
 		q := 1 - em
-		v.a += p.n * (x - math.Ln2 + math.Log1p(-em))
+		v.a += float64(p.n * (x - math.Ln2 + fpmath.Log1p(-em)))
 		v.t += p.n * x * (1 + em) / q
 		v.tt -= p.n * 4 * x * x * em / (q * q)
 	}
 	for _, p := range e.cosh {
-		x := p.theta * tau
-		em := math.Exp(-2 * x)
+		x := float64(p.theta * tau)
+		em := fpmath.Exp(float64(-2 * x))
 		q := 1 + em
-		v.a -= p.n * (x - math.Ln2 + math.Log1p(em))
+		v.a -= float64(p.n * (x - math.Ln2 + fpmath.Log1p(em)))
 		v.t -= p.n * x * (1 - em) / q
 		v.tt -= p.n * 4 * x * x * em / (q * q)
 	}
@@ -219,7 +223,7 @@ func (f *Fluid) Alpha(tau, delta float64) Reduced {
 	r := f.eos.residual(&tp, delta)
 	i := tp.ideal
 	return Reduced{
-		A0: i.a + math.Log(delta), A0t: i.t / tau, A0tt: i.tt / (tau * tau),
+		A0: i.a + fpmath.Log(delta), A0t: i.t / tau, A0tt: i.tt / (tau * tau),
 		Ar: r.a, Ard: r.d / delta, Ardd: r.dd / (delta * delta),
 		Art: r.t / tau, Artt: r.tt / (tau * tau), Ardt: r.dt / (delta * tau),
 	}

@@ -1,6 +1,10 @@
 package helmholtz
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // newtonPY solves p(T, rho) = p and y(T, rho) = target (y = h or s) by
 // Newton's method in (T, ln rho) from (T, rho). It is the fast path of the
@@ -8,7 +12,7 @@ import "math"
 func (f *Fluid) newtonPY(p, target float64, by int, T, rho float64) (point, bool) {
 	R := f.R
 	for it := 0; it < 40; it++ {
-		if !(T > 0.5*f.Tmin && T < 2*f.Tmax && rho > 0 && rho < 2*f.RhoMax) {
+		if !(T > float64(0.5*f.Tmin) && T < float64(2*f.Tmax) && rho > 0 && rho < float64(2*f.RhoMax)) {
 			return point{}, false
 		}
 		q := f.eval(T, rho)
@@ -18,26 +22,26 @@ func (f *Fluid) newtonPY(p, target float64, by int, T, rho float64) (point, bool
 		}
 		cv := q.cv(R)
 		// Rows: p and y; columns: d/dT and d/d(ln rho).
-		pT, pl := rho*R*num, rho*R*T*den
-		F1, F2, yT, yl := q.p(R)-p, q.h(R)-target, cv+R*num, R*T*(den-num)
+		pT, pl := float64(rho*R*num), float64(rho*R*T*den)
+		F1, F2, yT, yl := q.p(R)-p, q.h(R)-target, cv+float64(R*num), float64(R*T*(den-num))
 		switch by {
 		case byS:
-			F2, yT, yl = q.s(R)-target, cv/T, -R*num
+			F2, yT, yl = q.s(R)-target, cv/T, float64(-R*num)
 		case byV: // ln(rho v) = 0
-			F2, yT, yl = math.Log(rho*target), 0, 1
+			F2, yT, yl = fpmath.Log(float64(rho*target)), 0, 1
 		}
-		det := pT*yl - pl*yT
+		det := float64(pT*yl) - float64(pl*yT)
 		if det == 0 {
 			return point{}, false
 		}
-		dT := -(F1*yl - pl*F2) / det
-		dl := -(pT*F2 - yT*F1) / det
-		if math.Abs(dT) <= 1e-12*T && math.Abs(dl) <= 1e-12 {
-			return f.eval(T+dT, rho*math.Exp(dl)), true // quadratic: now at round-off
+		dT := -(float64(F1*yl) - float64(pl*F2)) / det
+		dl := -(float64(pT*F2) - float64(yT*F1)) / det
+		if math.Abs(dT) <= float64(1e-12*T) && math.Abs(dl) <= 1e-12 {
+			return f.eval(T+dT, float64(rho*fpmath.Exp(dl))), true // quadratic: now at round-off
 		}
 		s := math.Min(1, math.Min(0.1*T/math.Abs(dT), 0.5/math.Abs(dl)))
-		T += s * dT
-		rho *= math.Exp(s * dl)
+		T += float64(s * dT)
+		rho = float64(rho * fpmath.Exp(float64(s*dl)))
 	}
 	return point{}, false
 }
@@ -56,15 +60,15 @@ func (f *Fluid) stableAt(q *point, p float64, liquid bool) bool {
 	if q.T >= f.Tc {
 		return true
 	}
-	if f.anc.Tc == 0 || q.T > fastMax*f.Tc {
+	if f.anc.Tc == 0 || q.T > float64(fastMax*f.Tc) {
 		return false
 	}
 	a := f.anc.estimate(q.T)
-	m := 1e-4 + 10*f.anc.PErr
+	m := 1e-4 + float64(10*f.anc.PErr)
 	if liquid {
-		return p > a.p*(1+m) && q.rho > 0.95*a.rhoL
+		return p > float64(a.p*(1+m)) && q.rho > float64(0.95*a.rhoL)
 	}
-	return p < a.p*(1-m) && q.rho < 1.05*a.rhoV
+	return p < float64(a.p*(1-m)) && q.rho < float64(1.05*a.rhoV)
 }
 
 // isobarStart is a starting point for newtonPY on one side of the dome,
@@ -86,7 +90,7 @@ func (f *Fluid) isobarStart(sat *point, target float64, by int) (T, rho float64)
 	case sat.rho < f.RhoC:
 		rho = sat.rho * sat.T / T // ideal-gas-like vapour
 	case f.anc.Tc != 0 && T < f.Tc:
-		rho = f.anc.estimate(T).rhoL * 1.001 // compressed liquid
+		rho = float64(f.anc.estimate(T).rhoL * 1.001) // compressed liquid
 	default:
 		rho = sat.rho
 	}

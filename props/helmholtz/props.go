@@ -1,6 +1,10 @@
 package helmholtz
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // Phase tells which phase a state is in.
 type Phase int
@@ -65,28 +69,28 @@ func (f *Fluid) at(tp *tauPart, T, rho float64) point {
 // eval evaluates the equation at (T, rho) from scratch.
 func (f *Fluid) eval(T, rho float64) point {
 	tau := f.eos.tRed / T
-	lt := math.Log(tau)
+	lt := fpmath.Log(tau)
 	delta := rho / f.eos.rhoRed
 	return point{T: T, rho: rho, tau: tau, delta: delta, i: f.eos.idealAt(tau, lt), r: f.eos.fused(tau, lt, delta)}
 }
 
-func (q *point) p(R float64) float64  { return q.rho * R * q.T * (1 + q.r.d) }
-func (q *point) h(R float64) float64  { return R * q.T * (1 + q.i.t + q.r.t + q.r.d) }
-func (q *point) u(R float64) float64  { return R * q.T * (q.i.t + q.r.t) }
-func (q *point) cv(R float64) float64 { return -R * (q.i.tt + q.r.tt) }
+func (q *point) p(R float64) float64  { return float64(q.rho * R * q.T * (1 + q.r.d)) }
+func (q *point) h(R float64) float64  { return float64(R * q.T * (1 + q.i.t + q.r.t + q.r.d)) }
+func (q *point) u(R float64) float64  { return float64(R * q.T * (q.i.t + q.r.t)) }
+func (q *point) cv(R float64) float64 { return float64(-R * (q.i.tt + q.r.tt)) }
 
 // s is the entropy; alpha0 includes ln delta.
 func (q *point) s(R float64) float64 {
-	return R * (q.i.t + q.r.t - q.i.a - math.Log(q.delta) - q.r.a)
+	return float64(R * (q.i.t + q.r.t - q.i.a - fpmath.Log(q.delta) - q.r.a))
 }
 
 // g is the Gibbs energy.
 func (q *point) g(R float64) float64 {
-	return R * q.T * (1 + q.i.a + math.Log(q.delta) + q.r.a + q.r.d)
+	return float64(R * q.T * (1 + q.i.a + fpmath.Log(q.delta) + q.r.a + q.r.d))
 }
 
 // dpdrho is (dp/drho) at constant T, divided by R T.
-func (q *point) dpdrho() float64 { return 1 + 2*q.r.d + q.r.dd }
+func (q *point) dpdrho() float64 { return 1 + float64(2*q.r.d) + q.r.dd }
 
 // dpdT is (dp/dT) at constant rho, divided by rho R.
 func (q *point) dpdT() float64 { return 1 + q.r.d - q.r.dt }
@@ -100,7 +104,7 @@ func (f *Fluid) props(q *point) Props {
 	cv := q.cv(R)
 	num, den := q.dpdT(), q.dpdrho()
 	cp := cv + R*num*num/den
-	w2 := R * q.T * (den - num*num/(q.i.tt+q.r.tt))
+	w2 := float64(R * q.T * (den - num*num/(q.i.tt+q.r.tt)))
 	return Props{
 		P: q.p(R), T: q.T, V: 1 / q.rho, Rho: q.rho,
 		H: q.h(R), S: q.s(R), U: q.u(R),
@@ -110,10 +114,10 @@ func (f *Fluid) props(q *point) Props {
 
 // twoPhase mixes the saturated states by the lever rule.
 func twoPhase(s Sat, x float64) Props {
-	v := s.Vf + x*(s.Vg-s.Vf)
+	v := s.Vf + float64(x*(s.Vg-s.Vf))
 	return Props{
 		P: s.P, T: s.T, V: v, Rho: 1 / v,
-		H: s.Hf + x*(s.Hg-s.Hf), S: s.Sf + x*(s.Sg-s.Sf), U: s.Uf + x*(s.Ug-s.Uf),
+		H: s.Hf + float64(x*(s.Hg-s.Hf)), S: s.Sf + float64(x*(s.Sg-s.Sf)), U: s.Uf + float64(x*(s.Ug-s.Uf)),
 		X: x, Phase: TwoPhase,
 	}
 }

@@ -1,6 +1,10 @@
 package helmholtz
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // satTol is the convergence target of the saturation solver: equal
 // pressure and equal Gibbs energy on both phases to 1e-10 relative (it
@@ -64,7 +68,7 @@ func (f *Fluid) satT(op string, T float64) (satPoint, error) {
 }
 
 func (f *Fluid) satWhy(T float64) string {
-	if T > 0.999*f.Tc {
+	if T > float64(0.999*f.Tc) {
 		return whyCritical
 	}
 	return whyNoConv
@@ -89,24 +93,24 @@ func (f *Fluid) satNewton(tp *tauPart, T, rhoL, rhoV float64) (satPoint, bool) {
 	dL, dV := rhoL/f.eos.rhoRed, rhoV/f.eos.rhoRed
 	for it := 0; it < 40; it++ {
 		rL, rV := f.eos.residual(tp, dL), f.eos.residual(tp, dV)
-		pL, pV := dL*(1+rL.d), dV*(1+rV.d)
+		pL, pV := float64(dL*(1+rL.d)), float64(dV*(1+rV.d))
 		f1 := pL - pV
-		f2 := math.Log(dL/dV) + rL.a + rL.d - rV.a - rV.d
-		DL, DV := 1+2*rL.d+rL.dd, 1+2*rV.d+rV.dd
+		f2 := fpmath.Log(dL/dV) + rL.a + rL.d - rV.a - rV.d
+		DL, DV := 1+float64(2*rL.d)+rL.dd, 1+float64(2*rV.d)+rV.dd
 		if DL <= 0 || DV <= 0 || !(dL > dV) {
 			return satPoint{}, false
 		}
-		det := DL * DV * (1/dL - 1/dV)
+		det := float64(DL * DV * (1/dL - 1/dV))
 		// J = [[DL, -DV], [DL/dL, -DV/dV]]; solve J (xL, xV) = -(f1, f2).
-		xL := (-f1*(-DV/dV) + f2*(-DV)) / det
-		xV := (DL*(-f2) - DL/dL*(-f1)) / det
+		xL := (float64(-f1*(-DV/dV)) + float64(f2*(-DV))) / det
+		xV := (float64(DL*(-f2)) - float64(DL/dL*(-f1))) / det
 		// Far below Tc the liquid pressure is a small difference of large
 		// terms: its round-off, not satTol, bounds f1, and the iteration
 		// has converged when its steps are at round-off.
-		if math.Abs(f1) <= satTol*pV && math.Abs(f2) <= satTol {
+		if math.Abs(f1) <= float64(satTol*pV) && math.Abs(f2) <= satTol {
 			return f.satAt(tp, T, dL, dV, rL, rV), true
 		}
-		if math.Abs(xL) <= 1e-12*dL && math.Abs(xV) <= 1e-12*dV {
+		if math.Abs(xL) <= float64(1e-12*dL) && math.Abs(xV) <= float64(1e-12*dV) {
 			// One more step reaches round-off: convergence is quadratic.
 			return f.satDone(tp, T, dL+xL, dV+xV), true
 		}
@@ -119,20 +123,20 @@ func (f *Fluid) satNewton(tp *tauPart, T, rhoL, rhoV float64) (satPoint, bool) {
 // clampStep applies a Newton step to a density, keeping it positive and
 // within a factor of two.
 func clampStep(x, dx float64) float64 {
-	return math.Min(math.Max(x+dx, 0.5*x), 2*x)
+	return math.Min(math.Max(x+dx, float64(0.5*x)), float64(2*x))
 }
 
 func (f *Fluid) satDone(tp *tauPart, T, dL, dV float64) satPoint {
-	liq := f.at(tp, T, dL*f.eos.rhoRed)
-	vap := f.at(tp, T, dV*f.eos.rhoRed)
+	liq := f.at(tp, T, float64(dL*f.eos.rhoRed))
+	vap := f.at(tp, T, float64(dV*f.eos.rhoRed))
 	return satPoint{T: T, p: vap.p(f.R), liq: liq, vap: vap}
 }
 
 // satAt is satDone with the residual parts at dL and dV already known.
 func (f *Fluid) satAt(tp *tauPart, T, dL, dV float64, rL, rV resid) satPoint {
 	rr := f.eos.rhoRed
-	liq := point{T: T, rho: dL * rr, tau: tp.tau, delta: dL, i: tp.ideal, r: rL}
-	vap := point{T: T, rho: dV * rr, tau: tp.tau, delta: dV, i: tp.ideal, r: rV}
+	liq := point{T: T, rho: float64(dL * rr), tau: tp.tau, delta: dL, i: tp.ideal, r: rL}
+	vap := point{T: T, rho: float64(dV * rr), tau: tp.tau, delta: dV, i: tp.ideal, r: rV}
 	return satPoint{T: T, p: vap.p(f.R), liq: liq, vap: vap}
 }
 
@@ -144,36 +148,36 @@ func (f *Fluid) satBracket(tp *tauPart, T float64) (satPoint, bool) {
 	if !ok {
 		return satPoint{}, false
 	}
-	RT := f.R * T
-	pOf := func(d float64) float64 { return d * f.eos.rhoRed * RT * (1 + f.eos.residual(tp, d).d) }
+	RT := float64(f.R * T)
+	pOf := func(d float64) float64 { return float64(d * f.eos.rhoRed * RT * (1 + f.eos.residual(tp, d).d)) }
 	pHi := pOf(sV)
 	pLo := math.Max(pOf(sL), 0)
 	dg := func(lnp float64) float64 {
-		p := math.Exp(lnp)
-		dV, okV := f.densityIn(tp, T, p, 0, sV*f.eos.rhoRed, 0)
-		dL, okL := f.densityIn(tp, T, p, sL*f.eos.rhoRed, dHi*f.eos.rhoRed, dHi*f.eos.rhoRed)
+		p := fpmath.Exp(lnp)
+		dV, okV := f.densityIn(tp, T, p, 0, float64(sV*f.eos.rhoRed), 0)
+		dL, okL := f.densityIn(tp, T, p, float64(sL*f.eos.rhoRed), float64(dHi*f.eos.rhoRed), float64(dHi*f.eos.rhoRed))
 		if !okV || !okL {
 			return math.NaN()
 		}
 		dV, dL = dV/f.eos.rhoRed, dL/f.eos.rhoRed
 		rV, rL := f.eos.residual(tp, dV), f.eos.residual(tp, dL)
-		return math.Log(dL/dV) + rL.a + rL.d - rV.a - rV.d
+		return fpmath.Log(dL/dV) + rL.a + rL.d - rV.a - rV.d
 	}
-	hi := math.Log(pHi) - 1e-12
-	lo := math.Log(math.Max(pLo, pHi*1e-3))
+	hi := fpmath.Log(pHi) - 1e-12
+	lo := fpmath.Log(math.Max(pLo, float64(pHi*1e-3)))
 	for i := 0; i < 20 && pLo <= 0 && dg(lo) < 0; i++ {
-		lo -= math.Log(1e3)
+		lo -= fpmath.Log(1e3)
 	}
-	if pLo > 0 && math.Log(pLo) > lo {
-		lo = math.Log(pLo) + 1e-12
+	if pLo > 0 && fpmath.Log(pLo) > lo {
+		lo = fpmath.Log(pLo) + 1e-12
 	}
 	lnp, ok := brent(dg, lo, hi, 1e-15)
 	if !ok {
 		return satPoint{}, false
 	}
-	p := math.Exp(lnp)
-	dV, _ := f.densityIn(tp, T, p, 0, sV*f.eos.rhoRed, 0)
-	dL, _ := f.densityIn(tp, T, p, sL*f.eos.rhoRed, dHi*f.eos.rhoRed, dHi*f.eos.rhoRed)
+	p := fpmath.Exp(lnp)
+	dV, _ := f.densityIn(tp, T, p, 0, float64(sV*f.eos.rhoRed), 0)
+	dL, _ := f.densityIn(tp, T, p, float64(sL*f.eos.rhoRed), float64(dHi*f.eos.rhoRed), float64(dHi*f.eos.rhoRed))
 	return f.satNewton(tp, T, dL, dV)
 }
 
@@ -181,16 +185,16 @@ func (f *Fluid) satBracket(tp *tauPart, T float64) (satPoint, bool) {
 // the liquid spinodal sL at T, and a reduced density dHi on the stable
 // liquid branch whose pressure exceeds that of the vapour spinodal.
 func (f *Fluid) spinodals(tp *tauPart, T float64) (sV, sL, dHi float64, ok bool) {
-	D := func(d float64) float64 { r := f.eos.residual(tp, d); return 1 + 2*r.d + r.dd }
+	D := func(d float64) float64 { r := f.eos.residual(tp, d); return 1 + float64(2*r.d) + r.dd }
 	dm, ok := f.unstableDensity(tp, T, D)
 	if !ok {
 		return 0, 0, 0, false
 	}
 	// Vapour spinodal: the first zero of D coming up from zero density.
-	a := math.Min(1e-12, dm/2)
+	a := math.Min(1e-12, float64(dm/2))
 	b := a
 	for b < dm {
-		b = math.Min(b*1.05, dm)
+		b = math.Min(float64(b*1.05), dm)
 		if D(b) <= 0 {
 			break
 		}
@@ -198,12 +202,12 @@ func (f *Fluid) spinodals(tp *tauPart, T float64) (sV, sL, dHi float64, ok bool)
 	}
 	sV, _ = brent(D, a, b, 1e-14)
 	// Liquid spinodal: the first zero of D coming down from dense liquid.
-	RT := f.R * T
-	pV := sV * f.eos.rhoRed * RT * (1 + f.eos.residual(tp, sV).d)
+	RT := float64(f.R * T)
+	pV := float64(sV * f.eos.rhoRed * RT * (1 + f.eos.residual(tp, sV).d))
 	dHi = 0
 	for _, top := range []float64{6, 5, 4, 3} {
 		r := f.eos.residual(tp, top)
-		if top > dm && 1+2*r.d+r.dd > 0 && top*f.eos.rhoRed*RT*(1+r.d) > pV {
+		if top > dm && 1+float64(2*r.d)+r.dd > 0 && float64(top*f.eos.rhoRed*RT*(1+r.d)) > pV {
 			dHi = top
 			break
 		}
@@ -213,7 +217,7 @@ func (f *Fluid) spinodals(tp *tauPart, T float64) (sV, sL, dHi float64, ok bool)
 	}
 	a, b = dHi, dHi
 	for b > dm {
-		b = math.Max(b*0.995, dm)
+		b = math.Max(float64(b*0.995), dm)
 		if D(b) <= 0 {
 			break
 		}
@@ -226,8 +230,8 @@ func (f *Fluid) spinodals(tp *tauPart, T float64) (sV, sL, dHi float64, ok bool)
 // unstableDensity finds a reduced density where dp/drho < 0 at T: by a scan
 // away from the critical point and by minimising dp/drho near it.
 func (f *Fluid) unstableDensity(tp *tauPart, T float64, D func(float64) float64) (float64, bool) {
-	if T < 0.9*f.eos.tRed {
-		for d := 1e-6; d < 5; d *= 1.02 {
+	if T < float64(0.9*f.eos.tRed) {
+		for d := 1e-6; d < 5; d = float64(d * 1.02) {
 			if D(d) < 0 {
 				return d, true
 			}
@@ -240,20 +244,20 @@ func (f *Fluid) unstableDensity(tp *tauPart, T float64, D func(float64) float64)
 // goldenMin returns the minimiser of a unimodal f on [a, b].
 func goldenMin(f func(float64) float64, a, b float64) float64 {
 	const g = 0.6180339887498949
-	c, d := b-g*(b-a), a+g*(b-a)
+	c, d := b-float64(g*(b-a)), a+float64(g*(b-a))
 	fc, fd := f(c), f(d)
-	for it := 0; it < 100 && b-a > 1e-12*(a+b); it++ {
+	for it := 0; it < 100 && b-a > float64(1e-12*(a+b)); it++ {
 		if fc < fd {
 			b, d, fd = d, c, fc
-			c = b - g*(b-a)
+			c = b - float64(g*(b-a))
 			fc = f(c)
 		} else {
 			a, c, fc = c, d, fd
-			d = a + g*(b-a)
+			d = a + float64(g*(b-a))
 			fd = f(d)
 		}
 	}
-	return 0.5 * (a + b)
+	return float64(0.5 * (a + b))
 }
 
 // satP finds the saturation temperature at p by Newton's method on the
@@ -275,7 +279,7 @@ func (f *Fluid) satPFrom(op string, p float64, g satGuess) (satPoint, error) {
 	T := f.anc.tsatEstimate(p)
 	var best satPoint // the closest in p, for where round-off stalls the steps
 	for it := 0; it < 30; it++ {
-		T = math.Min(math.Max(T, f.Tmin), f.Tc*(1-1e-12))
+		T = math.Min(math.Max(T, f.Tmin), float64(f.Tc*(1-1e-12)))
 		sp, err := f.satT(op, T)
 		if err != nil {
 			break
@@ -286,12 +290,12 @@ func (f *Fluid) satPFrom(op string, p float64, g satGuess) (satPoint, error) {
 		// dp/dT = (s'' - s') / (v'' - v') (Clausius-Clapeyron)
 		dpdT := (sp.vap.s(f.R) - sp.liq.s(f.R)) / (1/sp.vap.rho - 1/sp.liq.rho)
 		dT := (sp.p - p) / dpdT
-		if math.Abs(sp.p-p) <= 1e-13*p || math.Abs(dT) <= 1e-14*T {
+		if math.Abs(sp.p-p) <= float64(1e-13*p) || math.Abs(dT) <= float64(1e-14*T) {
 			return sp, nil
 		}
 		T -= dT
 	}
-	if best.p != 0 && math.Abs(best.p-p) <= 1e-11*p {
+	if best.p != 0 && math.Abs(best.p-p) <= float64(1e-11*p) {
 		return best, nil
 	}
 	return f.satPBracket(op, p)
@@ -304,16 +308,16 @@ func (f *Fluid) satPBracket(op string, p float64) (satPoint, error) {
 		if err != nil {
 			return math.NaN()
 		}
-		return math.Log(sp.p / p)
+		return fpmath.Log(sp.p / p)
 	}
-	T, ok := brent(g, f.Tmin, f.Tc*(1-1e-9), 1e-14)
+	T, ok := brent(g, f.Tmin, float64(f.Tc*(1-1e-9)), 1e-14)
 	if ok {
-		if sp, err := f.satT(op, T); err == nil && math.Abs(sp.p-p) <= 1e-9*p {
+		if sp, err := f.satT(op, T); err == nil && math.Abs(sp.p-p) <= float64(1e-9*p) {
 			return sp, nil
 		}
 	}
 	why := whyNoConv
-	if p > 0.99*f.Pc {
+	if p > float64(0.99*f.Pc) {
 		why = whyCritical
 	}
 	return satPoint{}, &SolveError{Op: op, Reason: why}

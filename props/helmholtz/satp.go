@@ -1,6 +1,10 @@
 package helmholtz
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // satGuess is a start for satPNewton: T and the reduced densities, and,
 // where T is not 0, the residual parts at them.
@@ -23,31 +27,31 @@ func (f *Fluid) satPNewton(p float64, g satGuess) (satPoint, bool) {
 	}
 	var tp tauPart
 	for it := 0; it < 30; it++ {
-		if !(T > f.Tmin*0.99 && T < f.Tc && dL > dV && dV > 0) {
+		if !(T > float64(f.Tmin*0.99) && T < f.Tc && dL > dV && dV > 0) {
 			return satPoint{}, false
 		}
 		if it > 0 || g.T == 0 {
 			f.eos.newTauPart(f.eos.tRed/T, false, &tp)
 			rL, rV = f.eos.residual(&tp, dL), f.eos.residual(&tp, dV)
 		}
-		RT := f.R * T
-		pL, pV := dL*rr*RT*(1+rL.d), dV*rr*RT*(1+rV.d)
+		RT := float64(f.R * T)
+		pL, pV := float64(dL*rr*RT*(1+rL.d)), float64(dV*rr*RT*(1+rV.d))
 		var J [3][4]float64 // augmented rows: dF/dT, dF/d dL, dF/d dV | -F
-		J[0] = [4]float64{dL * rr * f.R * (1 + rL.d - rL.dt) / p, rr * RT * (1 + 2*rL.d + rL.dd) / p, 0, 1 - pL/p}
-		J[1] = [4]float64{dV * rr * f.R * (1 + rV.d - rV.dt) / p, 0, rr * RT * (1 + 2*rV.d + rV.dd) / p, 1 - pV/p}
-		J[2] = [4]float64{-(rL.t + rL.dt - rV.t - rV.dt) / T, (1 + 2*rL.d + rL.dd) / dL, -(1 + 2*rV.d + rV.dd) / dV,
-			-(math.Log(dL/dV) + rL.a + rL.d - rV.a - rV.d)}
+		J[0] = [4]float64{dL * rr * f.R * (1 + rL.d - rL.dt) / p, rr * RT * (1 + float64(2*rL.d) + rL.dd) / p, 0, 1 - pL/p}
+		J[1] = [4]float64{dV * rr * f.R * (1 + rV.d - rV.dt) / p, 0, rr * RT * (1 + float64(2*rV.d) + rV.dd) / p, 1 - pV/p}
+		J[2] = [4]float64{-(rL.t + rL.dt - rV.t - rV.dt) / T, (1 + float64(2*rL.d) + rL.dd) / dL, -(1 + float64(2*rV.d) + rV.dd) / dV,
+			-(fpmath.Log(dL/dV) + rL.a + rL.d - rV.a - rV.d)}
 		x, ok := solve3(&J)
 		if !ok {
 			return satPoint{}, false
 		}
 		s := math.Min(1, math.Min(0.05*T/math.Abs(x[0]), math.Min(0.5*dL/math.Abs(x[1]), 0.5*dV/math.Abs(x[2]))))
-		T, dL, dV = T+s*x[0], dL+s*x[1], dV+s*x[2]
+		T, dL, dV = T+float64(s*x[0]), dL+float64(s*x[1]), dV+float64(s*x[2])
 		// Convergence is quadratic: after full steps this small the error
 		// is near 1e-14, and satNewton finishes at this T.
-		if s == 1 && math.Abs(x[0]) <= 1e-8*T && math.Abs(x[1]) <= 1e-7*dL && math.Abs(x[2]) <= 1e-7*dV {
+		if s == 1 && math.Abs(x[0]) <= float64(1e-8*T) && math.Abs(x[1]) <= float64(1e-7*dL) && math.Abs(x[2]) <= float64(1e-7*dV) {
 			f.eos.newTauPart(f.eos.tRed/T, true, &tp)
-			sp, ok := f.satNewton(&tp, T, dL*rr, dV*rr)
+			sp, ok := f.satNewton(&tp, T, float64(dL*rr), float64(dV*rr))
 			return sp, ok && math.Abs(sp.p/p-1) <= 1e-11
 		}
 	}
@@ -71,7 +75,7 @@ func solve3(m *[3][4]float64) ([3]float64, bool) {
 		for r := c + 1; r < 3; r++ {
 			k := m[r][c] / m[c][c]
 			for j := c; j < 4; j++ {
-				m[r][j] -= k * m[c][j]
+				m[r][j] -= float64(k * m[c][j])
 			}
 		}
 	}
@@ -79,7 +83,7 @@ func solve3(m *[3][4]float64) ([3]float64, bool) {
 	for r := 2; r >= 0; r-- {
 		s := m[r][3]
 		for j := r + 1; j < 3; j++ {
-			s -= m[r][j] * x[j]
+			s -= float64(m[r][j] * x[j])
 		}
 		x[r] = s / m[r][r]
 	}

@@ -12,7 +12,7 @@ import "math"
 func rtsafe(fdf func(float64) (float64, float64), lo, hi, x0, tol float64) (float64, bool) {
 	x := x0
 	if !(x > math.Min(lo, hi) && x < math.Max(lo, hi)) {
-		x = 0.5 * (lo + hi)
+		x = float64(0.5 * (lo + hi))
 	}
 	f, df := fdf(x)
 	return rtsafeFrom(fdf, lo, hi, x, f, df, tol)
@@ -26,15 +26,15 @@ func rtsafeFrom(fdf func(float64) (float64, float64), lo, hi, x, f, df, tol floa
 	prev := 0.0 // the previous step, if it was a Newton step
 	for it := 0; it < 200; it++ {
 		newton := false
-		if ((x-hi)*df-f)*((x-lo)*df-f) > 0 || math.Abs(2*f) > math.Abs(dxOld*df) {
-			dxOld, dx = dx, 0.5*(hi-lo)
+		if float64((float64((x-hi)*df)-f)*(float64((x-lo)*df)-f)) > 0 || math.Abs(float64(2*f)) > math.Abs(float64(dxOld*df)) {
+			dxOld, dx = dx, float64(0.5*(hi-lo))
 			x = lo + dx
 		} else {
 			dxOld, dx = dx, f/df
 			x -= dx
 			newton = true
 		}
-		if math.Abs(dx) <= tol*math.Abs(x) || f == 0 || (newton && quadDone(dx, prev, x)) {
+		if math.Abs(dx) <= float64(tol*math.Abs(x)) || f == 0 || (newton && quadDone(dx, prev, x)) {
 			return x, true
 		}
 		prev = 0
@@ -58,7 +58,7 @@ func rtsafeFrom(fdf func(float64) (float64, float64), lo, hi, x, f, df, tol floa
 // phase.
 func quadDone(dx, prev, x float64) bool {
 	a, b := math.Abs(dx), math.Abs(prev)
-	return prev != 0 && a <= 1e-6*math.Abs(x) && a < b && a*a*a <= 0x1p-53*math.Abs(x)*b*b
+	return prev != 0 && a <= float64(1e-6*math.Abs(x)) && a < b && float64(a*a*a) <= float64(0x1p-53*math.Abs(x)*b*b)
 }
 
 // brent finds x in [a, b] with f(x) = 0 given f(a) and f(b) of opposite
@@ -66,14 +66,14 @@ func quadDone(dx, prev, x float64) bool {
 // bisection). It stops when the bracket is below tol*|x|.
 func brent(f func(float64) float64, a, b, tol float64) (float64, bool) {
 	fa, fb := f(a), f(b)
-	if fa*fb > 0 {
+	if float64(fa*fb) > 0 {
 		return 0, false
 	}
 	c, fc := a, fa
 	d := b - a
 	e := d
 	for it := 0; it < 200; it++ {
-		if fb*fc > 0 {
+		if float64(fb*fc) > 0 {
 			c, fc = a, fa
 			d = b - a
 			e = d
@@ -82,8 +82,8 @@ func brent(f func(float64) float64, a, b, tol float64) (float64, bool) {
 			a, b, c = b, c, b
 			fa, fb, fc = fb, fc, fb
 		}
-		tol1 := 2*1e-16*math.Abs(b) + 0.5*tol*math.Abs(b)
-		xm := 0.5 * (c - b)
+		tol1 := float64(2*1e-16*math.Abs(b)) + float64(0.5*tol*math.Abs(b))
+		xm := float64(0.5 * (c - b))
 		if math.Abs(xm) <= tol1 || fb == 0 {
 			return b, true
 		}
@@ -109,18 +109,18 @@ func brentStep(a, b, c, fa, fb, fc, xm, tol1, d, e float64) (float64, float64) {
 	var p, q float64
 	s := fb / fa
 	if a == c {
-		p, q = 2*xm*s, 1-s
+		p, q = float64(2*xm*s), 1-s
 	} else {
 		var r float64
 		q, r = fa/fc, fb/fc
-		p = s * (2*xm*q*(q-r) - (b-a)*(r-1))
-		q = (q - 1) * (r - 1) * (s - 1)
+		p = float64(s * (float64(2*xm*q*(q-r)) - float64((b-a)*(r-1))))
+		q = float64((q - 1) * (r - 1) * (s - 1))
 	}
 	if p > 0 {
 		q = -q
 	}
 	p = math.Abs(p)
-	if 2*p < math.Min(3*xm*q-math.Abs(tol1*q), math.Abs(e*q)) {
+	if float64(2*p) < math.Min(float64(3*xm*q)-math.Abs(float64(tol1*q)), math.Abs(float64(e*q))) {
 		return p / q, d
 	}
 	return xm, xm

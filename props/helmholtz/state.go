@@ -39,12 +39,12 @@ func (f *Fluid) StateTRho(T, rho float64) (Props, error) {
 // clearOfDome reports whether the ancillaries put rho well outside the
 // saturated densities at T, so that no saturation solve is needed.
 func (f *Fluid) clearOfDome(T, rho float64) bool {
-	if f.anc.Tc == 0 || T > fastMax*f.Tc {
+	if f.anc.Tc == 0 || T > float64(fastMax*f.Tc) {
 		return false
 	}
 	a := f.anc.estimate(T)
-	m := 1e-3 + 10*math.Max(f.anc.LErr, f.anc.VErr)
-	return rho > a.rhoL*(1+m) || rho < a.rhoV*(1-m)
+	m := 1e-3 + float64(10*math.Max(f.anc.LErr, f.anc.VErr))
+	return rho > float64(a.rhoL*(1+m)) || rho < float64(a.rhoV*(1-m))
 }
 
 // setPhase labels a single-phase state.
@@ -130,7 +130,7 @@ func (f *Fluid) densityAt(op string, tp *tauPart, T, p float64) (float64, bool, 
 	}
 	rho, ok, liquid := 0.0, false, p > sp.p
 	switch {
-	case math.Abs(p-sp.p) <= 1e-12*p:
+	case math.Abs(p-sp.p) <= float64(1e-12*p):
 		return 0, false, &SolveError{Op: op, Reason: whyOnSat}
 	case liquid:
 		rho, ok = f.liquidDensity(tp, T, p, sp.liq.rho)
@@ -153,20 +153,20 @@ func (f *Fluid) critWhy(T, p float64) string {
 // densityFast decides the phase from the ancillaries where p is clearly
 // off the saturation pressure, and solves within brackets it checks.
 func (f *Fluid) densityFast(tp *tauPart, T, p float64) (float64, bool, bool) {
-	if f.anc.Tc == 0 || T > fastMax*f.Tc {
+	if f.anc.Tc == 0 || T > float64(fastMax*f.Tc) {
 		return 0, false, false
 	}
 	a := f.anc.estimate(T)
-	mp := 1e-4 + 10*f.anc.PErr
+	mp := 1e-4 + float64(10*f.anc.PErr)
 	switch {
-	case p < a.p*(1-mp):
-		hi := a.rhoV * (1 + 1e-3 + 10*f.anc.VErr)
+	case p < float64(a.p*(1-mp)):
+		hi := float64(a.rhoV * (1 + 1e-3 + float64(10*f.anc.VErr)))
 		if ph, dh := f.pressure(tp, T, hi); ph > p && dh > 0 {
 			rho, ok := f.densityIn(tp, T, p, 0, hi, 0)
 			return rho, false, ok
 		}
-	case p > a.p*(1+mp):
-		lo := a.rhoL * (1 - 1e-3 - 10*f.anc.LErr)
+	case p > float64(a.p*(1+mp)):
+		lo := float64(a.rhoL * (1 - 1e-3 - float64(10*f.anc.LErr)))
 		rho, ok := f.liquidDensity(tp, T, p, lo)
 		return rho, true, ok
 	}

@@ -10,18 +10,18 @@ import "math"
 
 // T1PH returns T in K at p in Pa and h in J/kg for region 1, R7-97 Eq. (11), Table 6.
 func T1PH(p, h float64) float64 {
-	return t1ph(p*1e-6, h/2500e3+1)
+	return t1ph(float64(p*1e-6), h/2500e3+1)
 }
 
 // T1PS returns T in K at p in Pa and s in J/(kg·K) for region 1, R7-97 Eq. (13), Table 8.
 func T1PS(p, s float64) float64 {
-	return t1ps(p*1e-6, s*1e-3+2)
+	return t1ps(float64(p*1e-6), float64(s*1e-3)+2)
 }
 
 // T2PH returns T in K at p in Pa and h in J/kg for region 2: subregion 2a (p <= 4 MPa,
 // Eq. 22, Table 20), 2b (h >= h2bc(p), Eq. 23, Table 21) or 2c (Eq. 24, Table 22).
 func T2PH(p, h float64) float64 {
-	pi, eta := p*1e-6, h/2000e3
+	pi, eta := float64(p*1e-6), h/2000e3
 	switch {
 	case p <= 4e6:
 		return t2aph(pi, eta-2.1)
@@ -34,7 +34,7 @@ func T2PH(p, h float64) float64 {
 // T2PS returns T in K at p in Pa and s in J/(kg·K) for region 2: subregion 2a (p <= 4 MPa,
 // Eq. 25, Table 25), 2b (s >= 5.85 kJ/(kg·K), Eq. 26, Table 26) or 2c (Eq. 27, Table 27).
 func T2PS(p, s float64) float64 {
-	pi := p * 1e-6
+	pi := float64(p * 1e-6)
 	switch {
 	case p <= 4e6:
 		return t2aps(math.Sqrt(math.Sqrt(pi)), s/2000-2)

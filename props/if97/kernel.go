@@ -8,6 +8,7 @@ import "math"
 // in region3.go.
 
 //go:generate go run ./gen/r7
+//go:generate go run ../../internal/fpguard .
 
 // Bits of the want mask of the generated sum functions (r1Sums, r2rSums, ...): each selects one
 // field of termSums.
@@ -51,9 +52,9 @@ func (d *gibbs) props(p, T float64, region int) Props {
 // in place rather than copied on its way out.
 func (d *gibbs) setProps(st *Props, p, T float64, region int) {
 	d.setVHSU(st, p, T, region)
-	RT := R * T
-	a := d.gp - d.tau*d.gpt
-	cp := -R * d.tau * d.tau * d.gtt
+	RT := float64(R * T)
+	a := d.gp - float64(d.tau*d.gpt)
+	cp := float64(-R * d.tau * d.tau * d.gtt)
 	st.Cp = cp
 	st.Cv = cp + R*a*a/d.gpp
 	st.W = safeSqrt(RT * d.gp * d.gp / (a*a/(d.tau*d.tau*d.gtt) - d.gpp))
@@ -62,15 +63,15 @@ func (d *gibbs) setProps(st *Props, p, T float64, region int) {
 // setVHSU sets P, T, Region, V, Rho, H, S and U of *st as setProps does; it needs only γ, γπ
 // and γτ (wantF|wantX|wantY), which is all a two-phase mixture takes from its end points.
 func (d *gibbs) setVHSU(st *Props, p, T float64, region int) {
-	RT := R * T
-	tgt := d.tau * d.gt
-	pgp := d.pi * d.gp
+	RT := float64(R * T)
+	tgt := float64(d.tau * d.gt)
+	pgp := float64(d.pi * d.gp)
 	st.P, st.T, st.Region = p, T, region
-	st.V = RT / p * pgp
+	st.V = float64(RT / p * pgp)
 	st.Rho = 1 / st.V
-	st.H = RT * tgt
-	st.U = RT * (tgt - pgp)
-	st.S = R * (tgt - d.g)
+	st.H = float64(RT * tgt)
+	st.U = float64(RT * (tgt - pgp))
+	st.S = float64(R * (tgt - d.g))
 }
 
 // safeSqrt is math.Sqrt for x >= 0 and 0 otherwise, so that a property that is not defined

@@ -23,7 +23,7 @@ func MetastableVapourPT(p, T float64) (Props, error) {
 	d := r2mGibbs(p, T, wantAll)
 	st := d.props(p, T, 2)
 	hf, hg := h1(p, Ts), h2(p, Ts)
-	if hmin := hf + 0.95*(hg-hf); st.H < hmin {
+	if hmin := hf + float64(0.95*(hg-hf)); st.H < hmin {
 		return Props{}, below("T", T, metaTMin(p, hmin, Ts), "below the equilibrium-moisture limit of the metastable-vapour equation")
 	}
 	st.Phase, st.X = Vapour, 1
@@ -35,9 +35,9 @@ func MetastableVapourPT(p, T float64) (Props, error) {
 func metaTMin(p, hmin, Ts float64) float64 {
 	lo, hi := TMin, Ts
 	for i := 0; i < 60; i++ {
-		m := (lo + hi) / 2
+		m := float64((lo + hi) / 2)
 		d := r2mGibbs(p, m, wantY)
-		if R*m*d.tau*d.gt < hmin {
+		if float64(R*m*d.tau*d.gt) < hmin {
 			lo = m
 		} else {
 			hi = m

@@ -1,6 +1,6 @@
 package if97
 
-import "math"
+import "github.com/vouchcalc/vouch/internal/fpmath"
 
 // This file evaluates the Gibbs-energy basic equations of IAPWS R7-97(2012): region 1
 // (Eq. 7, Table 2), region 2 (Eqs. 15-17, Tables 10 and 11), the metastable-vapour region
@@ -26,8 +26,8 @@ func r1Gibbs(p, T float64, want uint8) gibbs {
 	var s termSums
 	r1Sums(x, y, want, &s)
 	ix, iy := 1/x, 1/y
-	return gibbs{pi: pi, tau: tau, g: s.f, gp: -s.x * ix, gt: s.y * iy,
-		gpp: s.xx * ix * ix, gtt: s.yy * iy * iy, gpt: -s.xy * ix * iy, gttt: s.yyy * iy * iy * iy}
+	return gibbs{pi: pi, tau: tau, g: s.f, gp: float64(-s.x * ix), gt: float64(s.y * iy),
+		gpp: float64(s.xx * ix * ix), gtt: float64(s.yy * iy * iy), gpt: float64(-s.xy * ix * iy), gttt: float64(s.yyy * iy * iy * iy)}
 }
 
 // idealGibbs adds the ideal-gas part γ° = ln π + Σ n°_i τ^J°_i (R7-97 Eqs. 16, 33; Tables 13,
@@ -39,13 +39,13 @@ func idealGibbs(pi, lnPi, tau, y float64, o, r *termSums, want uint8) gibbs {
 	if want&wantF != 0 {
 		d.g = lnPi + o.f + r.f
 	}
-	d.gp = ip + r.x*ip
-	d.gpp = (r.xx - 1) * ip * ip
-	d.gt = o.y*it + r.y*iy
-	d.gtt = o.yy*it*it + r.yy*iy*iy
-	d.gpt = r.xy * ip * iy
+	d.gp = ip + float64(r.x*ip)
+	d.gpp = float64((r.xx - 1) * ip * ip)
+	d.gt = float64(o.y*it) + float64(r.y*iy)
+	d.gtt = float64(o.yy*it*it) + float64(r.yy*iy*iy)
+	d.gpt = float64(r.xy * ip * iy)
 	if want&wantYYY != 0 {
-		d.gttt = o.yyy*it*it*it + r.yyy*iy*iy*iy
+		d.gttt = float64(o.yyy*it*it*it) + float64(r.yyy*iy*iy*iy)
 	}
 	return d
 }
@@ -66,7 +66,7 @@ func r2Gibbs(p, T float64, want uint8) gibbs {
 // that the logarithm, which depends on p alone, runs alongside them.
 func lnPiFor(pi float64, want uint8) float64 {
 	if want&wantF != 0 {
-		return math.Log(pi)
+		return fpmath.Log(pi)
 	}
 	return 0
 }
@@ -109,19 +109,19 @@ func gibbsAt(region int, p, T float64, want uint8) gibbs {
 // hG returns h = RT τ γτ of region 1, 2 or 5 at (p, T).
 func hG(region int, p, T float64) float64 {
 	d := gibbsAt(region, p, T, wantY)
-	return R * T * d.tau * d.gt
+	return float64(R * T * d.tau * d.gt)
 }
 
 // sG returns s = R(τγτ - γ) of region 1, 2 or 5 at (p, T).
 func sG(region int, p, T float64) float64 {
 	d := gibbsAt(region, p, T, wantF|wantY)
-	return R * (d.tau*d.gt - d.g)
+	return float64(R * (float64(d.tau*d.gt) - d.g))
 }
 
 // vG returns v = (RT/p) π γπ of region 1, 2 or 5 at (p, T).
 func vG(region int, p, T float64) float64 {
 	d := gibbsAt(region, p, T, wantX)
-	return R * T / p * d.pi * d.gp
+	return float64(R * T / p * d.pi * d.gp)
 }
 
 // h1 returns the specific enthalpy of region 1, R7-97 Table 3, at (p, T) without range checks.
@@ -139,5 +139,5 @@ func h2(p, T float64) float64 {
 	var o, r termSums
 	r2oSums(tau, wantY, &o)
 	r2rSumsY(p/r2PStar, y, &r)
-	return R * r2TStar * (o.y/tau + r.y/y)
+	return float64(R * r2TStar * (o.y/tau + r.y/y))
 }

@@ -17,23 +17,23 @@ var PSat623 = psatEq(T13)
 // psatEq is R7-97 Eq. (30) in SI units, without range checks.
 func psatEq(T float64) float64 {
 	th := T + satN[9]/(T-satN[10])
-	A := (th+satN[1])*th + satN[2]
-	B := (satN[3]*th+satN[4])*th + satN[5]
-	C := (satN[6]*th+satN[7])*th + satN[8]
-	x := 2 * C / (-B + math.Sqrt(B*B-4*A*C))
-	x *= x
-	return x * x * 1e6
+	A := float64((th+satN[1])*th) + satN[2]
+	B := float64((float64(satN[3]*th)+satN[4])*th) + satN[5]
+	C := float64((float64(satN[6]*th)+satN[7])*th) + satN[8]
+	x := 2 * C / (-B + math.Sqrt(float64(B*B)-float64(4*A*C)))
+	x = float64(x * x)
+	return float64(x * x * 1e6)
 }
 
 // tsatEq is R7-97 Eq. (31) in SI units, without range checks.
 func tsatEq(p float64) float64 {
-	beta := math.Sqrt(math.Sqrt(p * 1e-6))
-	E := (beta+satN[3])*beta + satN[6]
-	F := (satN[1]*beta+satN[4])*beta + satN[7]
-	G := (satN[2]*beta+satN[5])*beta + satN[8]
-	D := 2 * G / (-F - math.Sqrt(F*F-4*E*G))
+	beta := math.Sqrt(math.Sqrt(float64(p * 1e-6)))
+	E := float64((beta+satN[3])*beta) + satN[6]
+	F := float64((float64(satN[1]*beta)+satN[4])*beta) + satN[7]
+	G := float64((float64(satN[2]*beta)+satN[5])*beta) + satN[8]
+	D := 2 * G / (-F - math.Sqrt(float64(F*F)-float64(4*E*G)))
 	nd := satN[10] + D
-	return (nd - math.Sqrt(nd*nd-4*(satN[9]+satN[10]*D))) / 2
+	return float64((nd - math.Sqrt(float64(nd*nd)-float64(4*(satN[9]+float64(satN[10]*D))))) / 2)
 }
 
 // Psat returns the saturation pressure in Pa at temperature T in K, R7-97 Eq. (30), for
@@ -80,24 +80,24 @@ func checkSatP(p float64) error {
 // PB23 returns the pressure in Pa of the boundary between regions 2 and 3 at temperature T in K,
 // R7-97 Eq. (5), meant for 623.15 K <= T <= 863.15 K; no range check.
 func PB23(T float64) float64 {
-	return (b23N[1] + (b23N[2]+b23N[3]*T)*T) * 1e6
+	return float64((b23N[1] + float64((b23N[2]+float64(b23N[3]*T))*T)) * 1e6)
 }
 
 // TB23 returns the temperature in K of the boundary between regions 2 and 3 at pressure p in
 // Pa, R7-97 Eq. (6), meant for 16.5292 MPa <= p <= 100 MPa; no range check.
 func TB23(p float64) float64 {
-	return b23N[4] + math.Sqrt(math.Max(0, (p*1e-6-b23N[5])/b23N[3]))
+	return b23N[4] + math.Sqrt(math.Max(0, (float64(p*1e-6)-b23N[5])/b23N[3]))
 }
 
 // PB2bc returns the pressure in Pa on the boundary between subregions 2b and 2c at specific
 // enthalpy h in J/kg, R7-97 Eq. (20); no range check.
 func PB2bc(h float64) float64 {
-	eta := h * 1e-3
-	return (b2bcN[1] + (b2bcN[2]+b2bcN[3]*eta)*eta) * 1e6
+	eta := float64(h * 1e-3)
+	return float64((b2bcN[1] + float64((b2bcN[2]+float64(b2bcN[3]*eta))*eta)) * 1e6)
 }
 
 // HB2bc returns the specific enthalpy in J/kg on the boundary between subregions 2b and 2c at
 // pressure p in Pa, R7-97 Eq. (21); no range check.
 func HB2bc(p float64) float64 {
-	return (b2bcN[4] + math.Sqrt(math.Max(0, (p*1e-6-b2bcN[5])/b2bcN[3]))) * 1e3
+	return float64((b2bcN[4] + math.Sqrt(math.Max(0, (float64(p*1e-6)-b2bcN[5])/b2bcN[3]))) * 1e3)
 }

@@ -1,6 +1,10 @@
 package if97
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // This file computes saturated states (region 4 of IAPWS R7-97(2012)): below 623.15 K the
 // saturated liquid from region 1 and the saturated vapour from region 2 at (ps(T), T); above,
@@ -62,21 +66,21 @@ func sat3Densities(ps, T float64) (rf, rg float64) {
 		return Rhoc, Rhoc
 	}
 	th := 1 - T/Tc
-	t1 := math.Cbrt(th) // ϑ^(1/3)
-	t2 := t1 * t1
-	t5 := t2 * t2 * t1
-	t16 := t5 * t5 * t5 * t1
-	t43 := t16 * t16 * t5 * t5 * t1
-	t110 := t43 * t43 * t16 * t5 * t2 * t1
-	rf = Rhoc * (1 + 1.99274064*t1 + 1.09965342*t2 - 0.510839303*t5 - 1.75493479*t16 - 45.5170352*t43 - 6.74694450e5*t110)
+	t1 := fpmath.Cbrt(th) // ϑ^(1/3)
+	t2 := float64(t1 * t1)
+	t5 := float64(t2 * t2 * t1)
+	t16 := float64(t5 * t5 * t5 * t1)
+	t43 := float64(t16 * t16 * t5 * t5 * t1)
+	t110 := float64(t43 * t43 * t16 * t5 * t2 * t1)
+	rf = float64(Rhoc * (1 + float64(1.99274064*t1) + float64(1.09965342*t2) - float64(0.510839303*t5) - float64(1.75493479*t16) - float64(45.5170352*t43) - float64(6.74694450e5*t110)))
 	u := math.Sqrt(t1) // ϑ^(1/6)
-	u2 := u * u
-	u4 := u2 * u2
-	u8 := u4 * u4
-	u18 := u8 * u8 * u2
-	u37 := u18 * u18 * u
-	u71 := u37 * u18 * u8 * u8
-	rg = Rhoc * math.Exp(-2.03150240*u2-2.68302940*u4-5.38626492*u8-17.2991605*u18-44.7586581*u37-63.9201063*u71)
+	u2 := float64(u * u)
+	u4 := float64(u2 * u2)
+	u8 := float64(u4 * u4)
+	u18 := float64(u8 * u8 * u2)
+	u37 := float64(u18 * u18 * u)
+	u71 := float64(u37 * u18 * u8 * u8)
+	rg = float64(Rhoc * fpmath.Exp(float64(-2.03150240*u2)-float64(2.68302940*u4)-float64(5.38626492*u8)-float64(17.2991605*u18)-float64(44.7586581*u37)-float64(63.9201063*u71)))
 	rf = satRoot(ps, T, rf, true)
 	rg = satRoot(ps, T, rg, false)
 	return rf, rg
@@ -92,21 +96,21 @@ func satRoot(ps, T, rho float64, liquid bool) float64 {
 		if dp <= 0 {
 			// Inside the spinodal: move outward, away from the critical density.
 			if liquid {
-				rho += 0.1 * (rho - Rhoc + 1)
+				rho += float64(0.1 * (rho - Rhoc + 1))
 			} else {
-				rho -= 0.1 * (Rhoc - rho + 1)
+				rho -= float64(0.1 * (Rhoc - rho + 1))
 			}
 			continue
 		}
 		step := (ps - a.p()) / dp
-		if lim := 0.05 * rho; math.Abs(step) > lim {
+		if lim := float64(0.05 * rho); math.Abs(step) > lim {
 			step = math.Copysign(lim, step)
 		}
 		if liquid && rho+step < Rhoc || !liquid && rho+step > Rhoc {
-			step /= 2
+			step = float64(step / 2)
 		}
 		rho += step
-		if math.Abs(step) <= 1e-14*rho {
+		if math.Abs(step) <= float64(1e-14*rho) {
 			break
 		}
 	}
@@ -149,11 +153,11 @@ func mix(l, g *Props, x float64) Props {
 		return *g
 	}
 	m := Props{P: l.P, T: l.T, X: x, Region: 4, Phase: TwoPhase}
-	m.V = l.V + x*(g.V-l.V)
+	m.V = l.V + float64(x*(g.V-l.V))
 	m.Rho = 1 / m.V
-	m.H = l.H + x*(g.H-l.H)
-	m.S = l.S + x*(g.S-l.S)
-	m.U = l.U + x*(g.U-l.U)
+	m.H = l.H + float64(x*(g.H-l.H))
+	m.S = l.S + float64(x*(g.S-l.S))
+	m.U = l.U + float64(x*(g.U-l.U))
 	return m
 }
 

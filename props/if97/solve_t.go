@@ -15,11 +15,11 @@ func ySlope(region int, p, T float64, k yKind) (y, dy float64) {
 		want |= wantF
 	}
 	d := gibbsAt(region, p, T, want)
-	cp := -R * d.tau * d.tau * d.gtt
+	cp := float64(-R * d.tau * d.tau * d.gtt)
 	if k == byH {
-		return R * T * d.tau * d.gt, cp
+		return float64(R * T * d.tau * d.gt), cp
 	}
-	return R * (d.tau*d.gt - d.g), cp / T
+	return float64(R * (float64(d.tau*d.gt) - d.g)), cp / T
 }
 
 // yCurve returns h and its first two T-derivatives cp and dcp/dT, or s, cp/T and
@@ -27,12 +27,12 @@ func ySlope(region int, p, T float64, k yKind) (y, dy float64) {
 // With τ = T*/T, dcp/dT = R τ² (2 γττ + τ γτττ) / T.
 func yCurve(region int, p, T float64, k yKind) (y, dy, d2y float64) {
 	d := curveGibbs(region, p, T, k)
-	cp := -R * d.tau * d.tau * d.gtt
-	dcp := R * d.tau * d.tau * (2*d.gtt + d.tau*d.gttt) / T
+	cp := float64(-R * d.tau * d.tau * d.gtt)
+	dcp := R * d.tau * d.tau * (float64(2*d.gtt) + float64(d.tau*d.gttt)) / T
 	if k == byH {
-		return R * T * d.tau * d.gt, cp, dcp
+		return float64(R * T * d.tau * d.gt), cp, dcp
 	}
-	return R * (d.tau*d.gt - d.g), cp / T, (dcp - cp/T) / T
+	return float64(R * (float64(d.tau*d.gt) - d.g)), cp / T, (dcp - cp/T) / T
 }
 
 // curveGibbs returns γτ, γττ and γτττ (and γ for s) of region 1, 2 or 5, as gibbsAt with
@@ -54,7 +54,7 @@ func curveGibbs(region int, p, T float64, k yKind) gibbs {
 			r1SumsCurveS(7.1-pi, y, &s)
 		}
 		iy := 1 / y
-		return gibbs{pi: pi, tau: tau, g: s.f, gt: s.y * iy, gtt: s.yy * iy * iy, gttt: s.yyy * iy * iy * iy}
+		return gibbs{pi: pi, tau: tau, g: s.f, gt: float64(s.y * iy), gtt: float64(s.yy * iy * iy), gttt: float64(s.yyy * iy * iy * iy)}
 	case 2:
 		pi, tau := p/r2PStar, r2TStar/T
 		lnPi := lnPiFor(pi, want)
@@ -82,7 +82,7 @@ func halleyT(region int, p, y float64, k yKind, T0, lo, hi float64) (T1, c float
 	}
 	f, f1, f2 := yCurve(region, p, T0, k)
 	e := f - y
-	den := 2*f1*f1 - e*f2
+	den := float64(2*f1*f1) - float64(e*f2)
 	if !(f1 > 0 && den > 0) {
 		return T0, 0, false
 	}
@@ -91,7 +91,7 @@ func halleyT(region int, p, y float64, k yKind, T0, lo, hi float64) (T1, c float
 	if k == byS {
 		c += 1 / T0
 	}
-	return T1, c, T1 > lo && T1 < hi && math.Abs(T1-T0) <= 1e-3*T0
+	return T1, c, T1 > lo && T1 < hi && math.Abs(T1-T0) <= float64(1e-3*T0)
 }
 
 // yAt returns h or s at (p, T) in region 1, 2 or 5.
@@ -115,7 +115,7 @@ func solveT(region int, p, y float64, k yKind, T, lo, hi float64) (float64, int)
 	for it := 0; it < 100; it++ {
 		f, df := ySlope(region, p, T, k)
 		e := f - y
-		if e == 0 || (T <= lo || T >= hi) && math.Abs(e) <= 1e-12*math.Abs(y) {
+		if e == 0 || (T <= lo || T >= hi) && math.Abs(e) <= float64(1e-12*math.Abs(y)) {
 			return T, 0
 		}
 		if e < 0 {
@@ -140,12 +140,12 @@ func solveT(region int, p, y float64, k yKind, T, lo, hi float64) (float64, int)
 			case e > 0 && !aOK:
 				next = a
 			default:
-				next = (a + b) / 2
+				next = float64((a + b) / 2)
 			}
 		}
 		// Newton converges quadratically here: after a step below 1e-7 T the error left is
 		// far below 1e-13 T, so the next evaluation can be skipped.
-		if math.Abs(next-T) <= 1e-7*T && next > a && next < b && df > 0 {
+		if math.Abs(next-T) <= float64(1e-7*T) && next > a && next < b && df > 0 {
 			return next, 0
 		}
 		T = next
@@ -173,14 +173,14 @@ func solveState(region int, p, y float64, k yKind, T0, lo, hi float64) (st Props
 			e, dy = st.S-y, cp/T1
 		}
 		delta := -e / dy
-		if T2 := T1 + delta; math.Abs(delta)*(1/T1+math.Abs(c)) <= 1e-13 && T2 > lo && T2 < hi {
-			dvdT := R / p * d.pi * (d.gp - d.tau*d.gpt) // (∂v/∂T)_p
+		if T2 := T1 + delta; float64(math.Abs(delta)*(1/T1+math.Abs(c))) <= 1e-13 && T2 > lo && T2 < hi {
+			dvdT := float64(R / p * d.pi * (d.gp - float64(d.tau*d.gpt))) // (∂v/∂T)_p
 			st.T = T2
-			st.H += cp * delta
-			st.S += cp / T1 * delta
-			st.V += dvdT * delta
+			st.H += float64(cp * delta)
+			st.S += float64(cp / T1 * delta)
+			st.V += float64(dvdT * delta)
 			st.Rho = 1 / st.V
-			st.U += (cp - p*dvdT) * delta
+			st.U += float64((cp - float64(p*dvdT)) * delta)
 			setPhase(&st)
 			return st, T2, 0
 		}

@@ -23,7 +23,7 @@ const srS2bc = 5.85e3
 func P1HS(h, s float64) float64 {
 	eta := h / 3400e3
 	sigma := s / 7.6e3
-	return srSumP1HS(eta+0.05, sigma+0.05) * 100e6
+	return float64(srSumP1HS(eta+0.05, sigma+0.05) * 100e6)
 }
 
 // H2abS returns the specific enthalpy h in J/kg on the boundary between subregions 2a and 2b
@@ -34,7 +34,7 @@ func P1HS(h, s float64) float64 {
 // region 2 (between the saturated-vapour line and 1073.15 K); P2HS uses it only for
 // s ≥ 5.85 kJ/(kg·K).
 func H2abS(s float64) float64 {
-	return srSumH2abS(s/1e3) * 1e3
+	return float64(srSumH2abS(s/1e3) * 1e3)
 }
 
 // P2HS returns the pressure p in Pa of region 2 from the specific enthalpy h in J/kg and the
@@ -49,18 +49,18 @@ func P2HS(h, s float64) float64 {
 	switch {
 	case s < srS2bc:
 		// Subregion 2c: p* = 100 MPa, h* = 3500 kJ/kg, s* = 5.9 kJ/(kg·K).
-		return srPow4(srSumP2cHS(h/3500e3-0.7, s/5.9e3-1.1)) * 100e6
+		return float64(srPow4(srSumP2cHS(h/3500e3-0.7, s/5.9e3-1.1)) * 100e6)
 	case h <= H2abS(s):
 		// Subregion 2a: p* = 4 MPa, h* = 4200 kJ/kg, s* = 12 kJ/(kg·K).
-		return srPow4(srSumP2aHS(h/4200e3-0.5, s/12e3-1.2)) * 4e6
+		return float64(srPow4(srSumP2aHS(h/4200e3-0.5, s/12e3-1.2)) * 4e6)
 	default:
 		// Subregion 2b: p* = 100 MPa, h* = 4100 kJ/kg, s* = 7.9 kJ/(kg·K).
-		return srPow4(srSumP2bHS(h/4100e3-0.6, s/7.9e3-1.01)) * 100e6
+		return float64(srPow4(srSumP2bHS(h/4100e3-0.6, s/7.9e3-1.01)) * 100e6)
 	}
 }
 
 // srPow4 returns x⁴, the outer power of the "[Σ …]^4" equations.
 func srPow4(x float64) float64 {
-	x *= x
-	return x * x
+	x = float64(x * x)
+	return float64(x * x)
 }

@@ -12,6 +12,7 @@ package if97
 // to the table-driven sums, which stay the reference.
 
 //go:generate go run ./gen/sr
+//go:generate go run ../../internal/fpguard .
 
 // srTerm is one term n · x^i · y^j of a supplementary-release equation.
 type srTerm struct {
@@ -39,12 +40,12 @@ func (t *srTable) sum(x, y float64) float64 {
 	k := 0
 	for ; k+1 < len(ts); k += 2 {
 		a, b := &ts[k], &ts[k+1]
-		s0 += a.n * xp[int(a.i)-iMin] * yp[int(a.j)-jMin]
-		s1 += b.n * xp[int(b.i)-iMin] * yp[int(b.j)-jMin]
+		s0 += float64(a.n * xp[int(a.i)-iMin] * yp[int(a.j)-jMin])
+		s1 += float64(b.n * xp[int(b.i)-iMin] * yp[int(b.j)-jMin])
 	}
 	if k < len(ts) {
 		a := &ts[k]
-		s0 += a.n * xp[int(a.i)-iMin] * yp[int(a.j)-jMin]
+		s0 += float64(a.n * xp[int(a.i)-iMin] * yp[int(a.j)-jMin])
 	}
 	return s0 + s1
 }
@@ -56,7 +57,7 @@ func (t *srTable) sum1(x float64) float64 {
 	srPowers(&xp, x, t.iMin, t.iMax)
 	s := 0.0
 	for _, a := range t.terms {
-		s += a.n * xp[int(a.i)-t.iMin]
+		s += float64(a.n * xp[int(a.i)-t.iMin])
 	}
 	return s
 }
@@ -69,14 +70,14 @@ func srPowers(p *[srPowLen]float64, x float64, lo, hi int) {
 	case lo > 0:
 		p[0] = srIntPow(x, lo)
 		for k := 1; k <= hi-lo; k++ {
-			p[k] = p[k-1] * x
+			p[k] = float64(p[k-1] * x)
 		}
 	case hi < 0:
 		r := 1 / x
 		n := hi - lo
 		p[n] = srIntPow(r, -hi)
 		for k := n - 1; k >= 0; k-- {
-			p[k] = p[k+1] * r
+			p[k] = float64(p[k+1] * r)
 		}
 	default:
 		// lo <= 0 <= hi: x^0 sits at index z = -lo.
@@ -86,13 +87,13 @@ func srPowers(p *[srPowLen]float64, x float64, lo, hi int) {
 			p[z+1] = x
 		}
 		for k := 2; k <= hi; k++ {
-			p[z+k] = p[z+(k>>1)] * p[z+k-(k>>1)]
+			p[z+k] = float64(p[z+(k>>1)] * p[z+k-(k>>1)])
 		}
 		if z >= 1 {
 			r := 1 / x
 			p[z-1] = r
 			for k := 2; k <= z; k++ {
-				p[z-k] = p[z-(k>>1)] * p[z-k+(k>>1)]
+				p[z-k] = float64(p[z-(k>>1)] * p[z-k+(k>>1)])
 			}
 		}
 	}
@@ -103,9 +104,9 @@ func srIntPow(x float64, n int) float64 {
 	r := 1.0
 	for n > 0 {
 		if n&1 != 0 {
-			r *= x
+			r = float64(r * x)
 		}
-		x *= x
+		x = float64(x * x)
 		n >>= 1
 	}
 	return r

@@ -24,7 +24,7 @@ const srSc = 4.41202148223476e3
 // Domain: pc = 22.064 MPa ≤ p ≤ 100 MPa (it starts at the critical point). Below pc the
 // boundary between 3a and 3b is the saturation line.
 func H3abP(p float64) float64 {
-	return srSumH3abP(p/1e6) * 1e3
+	return float64(srSumH3abP(p/1e6) * 1e3)
 }
 
 // T3PH returns the temperature T in K of region 3 from the pressure p in Pa and the specific
@@ -36,9 +36,9 @@ func H3abP(p float64) float64 {
 func T3PH(p, h float64) float64 {
 	pi := p / 100e6
 	if h <= H3abP(p) {
-		return srSumT3aPH(pi+0.240, h/2300e3-0.615) * 760
+		return float64(srSumT3aPH(pi+0.240, h/2300e3-0.615) * 760)
 	}
-	return srSumT3bPH(pi+0.298, h/2800e3-0.720) * 860
+	return float64(srSumT3bPH(pi+0.298, h/2800e3-0.720) * 860)
 }
 
 // V3PH returns the specific volume v in m³/kg of region 3 from the pressure p in Pa and the
@@ -50,9 +50,9 @@ func T3PH(p, h float64) float64 {
 func V3PH(p, h float64) float64 {
 	pi := p / 100e6
 	if h <= H3abP(p) {
-		return srSumV3aPH(pi+0.128, h/2100e3-0.727) * 0.0028
+		return float64(srSumV3aPH(pi+0.128, h/2100e3-0.727) * 0.0028)
 	}
-	return srSumV3bPH(pi+0.0661, h/2800e3-0.720) * 0.0088
+	return float64(srSumV3bPH(pi+0.0661, h/2800e3-0.720) * 0.0088)
 }
 
 // T3PS returns the temperature T in K of region 3 from the pressure p in Pa and the specific
@@ -65,9 +65,9 @@ func V3PH(p, h float64) float64 {
 func T3PS(p, s float64) float64 {
 	pi := p / 100e6
 	if s <= srSc {
-		return srSumT3aPS(pi+0.240, s/4.4e3-0.703) * 760
+		return float64(srSumT3aPS(pi+0.240, s/4.4e3-0.703) * 760)
 	}
-	return srSumT3bPS(pi+0.760, s/5.3e3-0.818) * 860
+	return float64(srSumT3bPS(pi+0.760, s/5.3e3-0.818) * 860)
 }
 
 // V3PS returns the specific volume v in m³/kg of region 3 from the pressure p in Pa and the
@@ -79,9 +79,9 @@ func T3PS(p, s float64) float64 {
 func V3PS(p, s float64) float64 {
 	pi := p / 100e6
 	if s <= srSc {
-		return srSumV3aPS(pi+0.187, s/4.4e3-0.755) * 0.0028
+		return float64(srSumV3aPS(pi+0.187, s/4.4e3-0.755) * 0.0028)
 	}
-	return srSumV3bPS(pi+0.298, s/5.3e3-0.816) * 0.0088
+	return float64(srSumV3bPS(pi+0.298, s/5.3e3-0.816) * 0.0088)
 }
 
 // P3SatH returns the saturation pressure p in Pa of region 3 from the specific enthalpy h in
@@ -93,7 +93,7 @@ func V3PS(p, s float64) float64 {
 // the saturation pressure of the basic equations (they differ by up to 0.00043 %).
 func P3SatH(h float64) float64 {
 	eta := h / 2600e3
-	return srSumP3SatH(eta-1.02, eta-0.608) * 22e6
+	return float64(srSumP3SatH(eta-1.02, eta-0.608) * 22e6)
 }
 
 // P3SatS returns the saturation pressure p in Pa of region 3 from the specific entropy s in
@@ -104,5 +104,5 @@ func P3SatH(h float64) float64 {
 // (SR3-03 Section 4.3); as P3SatH, a region test, not the basic saturation pressure.
 func P3SatS(s float64) float64 {
 	sigma := s / 5.2e3
-	return srSumP3SatS(sigma-1.03, sigma-0.699) * 22e6
+	return float64(srSumP3SatS(sigma-1.03, sigma-0.699) * 22e6)
 }

@@ -5,329 +5,329 @@ package if97
 // srSumV3u is srV3u.tab.sum as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumV3u(x, y float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	x5 := x2 * x3
-	x6 := x3 * x3
-	x7 := x3 * x4
-	x8 := x4 * x4
-	x10 := x5 * x5
-	x12 := x6 * x6
-	x14 := x7 * x7
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	x5 := float64(x2 * x3)
+	x6 := float64(x3 * x3)
+	x7 := float64(x3 * x4)
+	x8 := float64(x4 * x4)
+	x10 := float64(x5 * x5)
+	x12 := float64(x6 * x6)
+	x14 := float64(x7 * x7)
 	xi := 1 / x
-	xi2 := xi * xi
-	xi3 := xi * xi2
-	xi4 := xi2 * xi2
-	xi5 := xi2 * xi3
-	xi6 := xi3 * xi3
-	xi8 := xi4 * xi4
-	xi10 := xi5 * xi5
-	xi12 := xi6 * xi6
-	y2 := y * y
-	y3 := y * y2
-	y4 := y2 * y2
-	y5 := y2 * y3
-	y6 := y3 * y3
-	y7 := y3 * y4
-	y8 := y4 * y4
-	y10 := y5 * y5
-	y12 := y6 * y6
-	y14 := y7 * y7
+	xi2 := float64(xi * xi)
+	xi3 := float64(xi * xi2)
+	xi4 := float64(xi2 * xi2)
+	xi5 := float64(xi2 * xi3)
+	xi6 := float64(xi3 * xi3)
+	xi8 := float64(xi4 * xi4)
+	xi10 := float64(xi5 * xi5)
+	xi12 := float64(xi6 * xi6)
+	y2 := float64(y * y)
+	y3 := float64(y * y2)
+	y4 := float64(y2 * y2)
+	y5 := float64(y2 * y3)
+	y6 := float64(y3 * y3)
+	y7 := float64(y3 * y4)
+	y8 := float64(y4 * y4)
+	y10 := float64(y5 * y5)
+	y12 := float64(y6 * y6)
+	y14 := float64(y7 * y7)
 	yi := 1 / y
-	yi2 := yi * yi
-	yi3 := yi * yi2
-	yi4 := yi2 * yi2
-	yi5 := yi2 * yi3
-	yi6 := yi3 * yi3
-	yi8 := yi4 * yi4
-	yi10 := yi5 * yi5
-	yi12 := yi6 * yi6
-	s0 := 0.122088349258355e18*xi12*y14 - 0.882666931564652e16*xi10*y12 + 0.222612779142211e15*xi8*y10 - 0.314432577551552e22*xi8*y14 + 0.159079648196849e21*xi6*y12 + 0.884387651337836e13*xi5*y8 + 0.114178193518022e2*xi3*y2 - 0.106201671767107e3*xi*y - 0.693996270370852e28*xi*y14 + 0.718957567127851e4*y - 0.651903203602581e15*x2*y5 - 0.510254294237837e-8*x3*yi5 + 0.677143292290144e12*x5*y2 + 0.116862983141686e-1*x6*yi5 + 0.169719813884840e-7*x8*yi8 - 0.108016904560140e5*x10*yi4 + 0.536116483602738e7*x12*yi4 - 0.488731565776210e-9*x14*yi12 - 0.227700464643920e5*x14*yi6
-	s1 := 0.104216468608488e10*xi10*y10 + 0.259929510849499e20*xi10*y14 - 0.878473585050085e18*xi8*y12 - 0.216934916996285e13*xi6*y8 - 0.339567617303423e3*xi5*y4 - 0.843405926846418e21*xi5*y12 - 0.122708229235641e-3*xi*yi + 0.903443213959313e25*xi*y12 + 0.648916718965575e-8*yi3 + 0.105581745346187e-2*x*yi2 - 0.160116813274676e25*x2*y10 - 0.152355388953402*x5*yi4 + 0.276378438378930e15*x5*y3 - 0.301426947980171e14*x6*y2 + 0.104674840020929e27*x8*y8 - 0.990623601934295e-12*x12*yi12 + 0.226145963747881e22*x12*y4 + 0.151001548880670e-4*x14*yi10 - 0.781754507698846e28*x14*y6
+	yi2 := float64(yi * yi)
+	yi3 := float64(yi * yi2)
+	yi4 := float64(yi2 * yi2)
+	yi5 := float64(yi2 * yi3)
+	yi6 := float64(yi3 * yi3)
+	yi8 := float64(yi4 * yi4)
+	yi10 := float64(yi5 * yi5)
+	yi12 := float64(yi6 * yi6)
+	s0 := float64(0.122088349258355e18*xi12*y14) - float64(0.882666931564652e16*xi10*y12) + float64(0.222612779142211e15*xi8*y10) - float64(0.314432577551552e22*xi8*y14) + float64(0.159079648196849e21*xi6*y12) + float64(0.884387651337836e13*xi5*y8) + float64(0.114178193518022e2*xi3*y2) - float64(0.106201671767107e3*xi*y) - float64(0.693996270370852e28*xi*y14) + float64(0.718957567127851e4*y) - float64(0.651903203602581e15*x2*y5) - float64(0.510254294237837e-8*x3*yi5) + float64(0.677143292290144e12*x5*y2) + float64(0.116862983141686e-1*x6*yi5) + float64(0.169719813884840e-7*x8*yi8) - float64(0.108016904560140e5*x10*yi4) + float64(0.536116483602738e7*x12*yi4) - float64(0.488731565776210e-9*x14*yi12) - float64(0.227700464643920e5*x14*yi6)
+	s1 := float64(0.104216468608488e10*xi10*y10) + float64(0.259929510849499e20*xi10*y14) - float64(0.878473585050085e18*xi8*y12) - float64(0.216934916996285e13*xi6*y8) - float64(0.339567617303423e3*xi5*y4) - float64(0.843405926846418e21*xi5*y12) - float64(0.122708229235641e-3*xi*yi) + float64(0.903443213959313e25*xi*y12) + float64(0.648916718965575e-8*yi3) + float64(0.105581745346187e-2*x*yi2) - float64(0.160116813274676e25*x2*y10) - float64(0.152355388953402*x5*yi4) + float64(0.276378438378930e15*x5*y3) - float64(0.301426947980171e14*x6*y2) + float64(0.104674840020929e27*x8*y8) - float64(0.990623601934295e-12*x12*yi12) + float64(0.226145963747881e22*x12*y4) + float64(0.151001548880670e-4*x14*yi10) - float64(0.781754507698846e28*x14*y6)
 	return s0 + s1
 }
 
 // srSumV3v is srV3v.tab.sum as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumV3v(x, y float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	x5 := x2 * x3
-	x6 := x3 * x3
-	x7 := x3 * x4
-	x8 := x4 * x4
-	x10 := x5 * x5
-	x12 := x6 * x6
-	x14 := x7 * x7
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	x5 := float64(x2 * x3)
+	x6 := float64(x3 * x3)
+	x7 := float64(x3 * x4)
+	x8 := float64(x4 * x4)
+	x10 := float64(x5 * x5)
+	x12 := float64(x6 * x6)
+	x14 := float64(x7 * x7)
 	xi := 1 / x
-	xi2 := xi * xi
-	xi3 := xi * xi2
-	xi4 := xi2 * xi2
-	xi5 := xi2 * xi3
-	xi6 := xi3 * xi3
-	xi8 := xi4 * xi4
-	xi10 := xi5 * xi5
-	y2 := y * y
-	y3 := y * y2
-	y4 := y2 * y2
-	y5 := y2 * y3
-	y6 := y3 * y3
-	y7 := y3 * y4
-	y8 := y4 * y4
-	y10 := y5 * y5
-	y12 := y6 * y6
-	y14 := y7 * y7
+	xi2 := float64(xi * xi)
+	xi3 := float64(xi * xi2)
+	xi4 := float64(xi2 * xi2)
+	xi5 := float64(xi2 * xi3)
+	xi6 := float64(xi3 * xi3)
+	xi8 := float64(xi4 * xi4)
+	xi10 := float64(xi5 * xi5)
+	y2 := float64(y * y)
+	y3 := float64(y * y2)
+	y4 := float64(y2 * y2)
+	y5 := float64(y2 * y3)
+	y6 := float64(y3 * y3)
+	y7 := float64(y3 * y4)
+	y8 := float64(y4 * y4)
+	y10 := float64(y5 * y5)
+	y12 := float64(y6 * y6)
+	y14 := float64(y7 * y7)
 	yi := 1 / y
-	yi2 := yi * yi
-	yi3 := yi * yi2
-	yi4 := yi2 * yi2
-	yi5 := yi2 * yi3
-	yi6 := yi3 * yi3
-	yi8 := yi4 * yi4
-	yi10 := yi5 * yi5
-	yi12 := yi6 * yi6
-	s0 := -0.415652812061591e-54*xi10*yi8 - 0.357078668203377e-54*xi6*yi12 - 0.259123736380269e2*xi6*y5 - 0.624184007103158e11*xi6*y8 + 0.105006446192036e-8*xi5*y + 0.654144373749937e6*xi5*y6 - 0.697595750347391e19*xi5*y10 + 0.119563135540666e-47*xi4*yi12 + 0.926990036530639e-29*xi4*yi6 + 0.280375725094731e-17*xi3*yi3 + 0.742705723302738e27*xi3*y12 + 0.820612048645469e7*xi2*y4 + 0.184587261114837e-1*xi - 0.723681885626348e17*y6 - 0.111526741826431e-34*x*yi12 + 0.134856491567853e15*x3*y3 + 0.510655119774360e17*x4*y3 - 0.760667491183279e16*x5*y2 + 0.312545677756104e14*x10*yi2 + 0.247761392329058e27*x14*y
-	s1 := 0.177441742924043e-60*xi8*yi12 + 0.359252213604114e-25*xi6*yi3 + 0.594619766193460e5*xi6*y6 + 0.313080299915944e17*xi6*y10 - 0.192824336984852e-5*xi5*y2 + 0.513117462865044e13*xi5*y8 - 0.103977184454767e29*xi5*y14 - 0.436677034051655e-41*xi4*yi10 + 0.587793105620748e21*xi4*y10 - 0.192359972440634e23*xi3*y10 - 0.517429682450605e2*xi2*y2 - 0.188214882341448e-8*xi*yi2 - 0.135830407782663e-5*yi2 - 0.223449194054124e27*y10 + 0.276032601145151e-28*x*yi10 + 0.652440293345860e-9*x4*yi6 - 0.468138358908732e32*x4*y10 - 0.417247986986821e-18*x8*yi12 - 0.100375333864186e15*x12*yi3
+	yi2 := float64(yi * yi)
+	yi3 := float64(yi * yi2)
+	yi4 := float64(yi2 * yi2)
+	yi5 := float64(yi2 * yi3)
+	yi6 := float64(yi3 * yi3)
+	yi8 := float64(yi4 * yi4)
+	yi10 := float64(yi5 * yi5)
+	yi12 := float64(yi6 * yi6)
+	s0 := float64(-0.415652812061591e-54*xi10*yi8) - float64(0.357078668203377e-54*xi6*yi12) - float64(0.259123736380269e2*xi6*y5) - float64(0.624184007103158e11*xi6*y8) + float64(0.105006446192036e-8*xi5*y) + float64(0.654144373749937e6*xi5*y6) - float64(0.697595750347391e19*xi5*y10) + float64(0.119563135540666e-47*xi4*yi12) + float64(0.926990036530639e-29*xi4*yi6) + float64(0.280375725094731e-17*xi3*yi3) + float64(0.742705723302738e27*xi3*y12) + float64(0.820612048645469e7*xi2*y4) + float64(0.184587261114837e-1*xi) - float64(0.723681885626348e17*y6) - float64(0.111526741826431e-34*x*yi12) + float64(0.134856491567853e15*x3*y3) + float64(0.510655119774360e17*x4*y3) - float64(0.760667491183279e16*x5*y2) + float64(0.312545677756104e14*x10*yi2) + float64(0.247761392329058e27*x14*y)
+	s1 := float64(0.177441742924043e-60*xi8*yi12) + float64(0.359252213604114e-25*xi6*yi3) + float64(0.594619766193460e5*xi6*y6) + float64(0.313080299915944e17*xi6*y10) - float64(0.192824336984852e-5*xi5*y2) + float64(0.513117462865044e13*xi5*y8) - float64(0.103977184454767e29*xi5*y14) - float64(0.436677034051655e-41*xi4*yi10) + float64(0.587793105620748e21*xi4*y10) - float64(0.192359972440634e23*xi3*y10) - float64(0.517429682450605e2*xi2*y2) - float64(0.188214882341448e-8*xi*yi2) - float64(0.135830407782663e-5*yi2) - float64(0.223449194054124e27*y10) + float64(0.276032601145151e-28*x*yi10) + float64(0.652440293345860e-9*x4*yi6) - float64(0.468138358908732e32*x4*y10) - float64(0.417247986986821e-18*x8*yi12) - float64(0.100375333864186e15*x12*yi3)
 	return s0 + s1
 }
 
 // srSumV3w is srV3w.tab.sum as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumV3w(x, y float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	x5 := x2 * x3
-	x8 := x4 * x4
-	x10 := x5 * x5
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	x5 := float64(x2 * x3)
+	x8 := float64(x4 * x4)
+	x10 := float64(x5 * x5)
 	xi := 1 / x
-	xi2 := xi * xi
-	xi3 := xi * xi2
-	xi4 := xi2 * xi2
-	xi5 := xi2 * xi3
-	xi6 := xi3 * xi3
-	xi8 := xi4 * xi4
-	xi10 := xi5 * xi5
-	xi12 := xi6 * xi6
-	y2 := y * y
-	y3 := y * y2
-	y4 := y2 * y2
-	y6 := y3 * y3
-	y7 := y3 * y4
-	y8 := y4 * y4
-	y14 := y7 * y7
+	xi2 := float64(xi * xi)
+	xi3 := float64(xi * xi2)
+	xi4 := float64(xi2 * xi2)
+	xi5 := float64(xi2 * xi3)
+	xi6 := float64(xi3 * xi3)
+	xi8 := float64(xi4 * xi4)
+	xi10 := float64(xi5 * xi5)
+	xi12 := float64(xi6 * xi6)
+	y2 := float64(y * y)
+	y3 := float64(y * y2)
+	y4 := float64(y2 * y2)
+	y6 := float64(y3 * y3)
+	y7 := float64(y3 * y4)
+	y8 := float64(y4 * y4)
+	y14 := float64(y7 * y7)
 	yi := 1 / y
-	yi2 := yi * yi
-	yi3 := yi * yi2
-	yi4 := yi2 * yi2
-	yi5 := yi2 * yi3
-	yi6 := yi3 * yi3
-	yi8 := yi4 * yi4
-	yi10 := yi5 * yi5
-	yi12 := yi6 * yi6
-	s0 := -0.586219133817016e-7*xi12*y8 + 0.531168037519774e-30*xi10*yi - 0.575368389425212e-1*xi8*y6 - 0.158548609655002e19*xi8*y14 - 0.634987981190669e-24*xi6*yi3 - 0.961109240985747e8*xi6*y8 - 0.471103725498077e-12*xi4*yi + 0.187768525763682e-38*xi3*yi10 - 0.662552816342168e-1*xi2*y + 0.237416732616644e-26*xi*yi8 - 0.907886213483600e2*xi*y + 0.156792067854621e3*y - 0.597865988422577e1*x2*yi - 0.399441390042203e-29*x3*yi12 + 0.812036983370565e-19*x5*yi10 - 0.340821291419719e-6*x5*yi6 - 0.856711586510214e-12*x8*yi10 + 0.858133791857099e-5*x10*yi8
-	s1 := -0.894460355005526e11*xi12*y14 + 0.109892402329239*xi10*y8 + 0.228276853990249e5*xi8*y8 + 0.329865748576503e-27*xi6*yi4 + 0.615762068640611e-8*xi6*y2 - 0.406274286652625e-44*xi5*yi10 + 0.725937724828145*xi4*y3 - 0.103308436323771e4*xi3*y3 + 0.579514041765710e3*xi2*y2 + 0.271700235739893e-14*xi*yi4 - 0.171242509570207e-36*yi12 + 0.923261357901470*x*yi + 0.321988767636389e7*x2*y2 + 0.493429086046981e-7*x3*yi5 - 0.207610284654137e-11*x5*yi8 + 0.542000573372233e-17*x8*yi12 + 0.266170454405981e-13*x10*yi12
+	yi2 := float64(yi * yi)
+	yi3 := float64(yi * yi2)
+	yi4 := float64(yi2 * yi2)
+	yi5 := float64(yi2 * yi3)
+	yi6 := float64(yi3 * yi3)
+	yi8 := float64(yi4 * yi4)
+	yi10 := float64(yi5 * yi5)
+	yi12 := float64(yi6 * yi6)
+	s0 := float64(-0.586219133817016e-7*xi12*y8) + float64(0.531168037519774e-30*xi10*yi) - float64(0.575368389425212e-1*xi8*y6) - float64(0.158548609655002e19*xi8*y14) - float64(0.634987981190669e-24*xi6*yi3) - float64(0.961109240985747e8*xi6*y8) - float64(0.471103725498077e-12*xi4*yi) + float64(0.187768525763682e-38*xi3*yi10) - float64(0.662552816342168e-1*xi2*y) + float64(0.237416732616644e-26*xi*yi8) - float64(0.907886213483600e2*xi*y) + float64(0.156792067854621e3*y) - float64(0.597865988422577e1*x2*yi) - float64(0.399441390042203e-29*x3*yi12) + float64(0.812036983370565e-19*x5*yi10) - float64(0.340821291419719e-6*x5*yi6) - float64(0.856711586510214e-12*x8*yi10) + float64(0.858133791857099e-5*x10*yi8)
+	s1 := float64(-0.894460355005526e11*xi12*y14) + float64(0.109892402329239*xi10*y8) + float64(0.228276853990249e5*xi8*y8) + float64(0.329865748576503e-27*xi6*yi4) + float64(0.615762068640611e-8*xi6*y2) - float64(0.406274286652625e-44*xi5*yi10) + float64(0.725937724828145*xi4*y3) - float64(0.103308436323771e4*xi3*y3) + float64(0.579514041765710e3*xi2*y2) + float64(0.271700235739893e-14*xi*yi4) - float64(0.171242509570207e-36*yi12) + float64(0.923261357901470*x*yi) + float64(0.321988767636389e7*x2*y2) + float64(0.493429086046981e-7*x3*yi5) - float64(0.207610284654137e-11*x5*yi8) + float64(0.542000573372233e-17*x8*yi12) + float64(0.266170454405981e-13*x10*yi12)
 	return s0 + s1
 }
 
 // srSumV3x is srV3x.tab.sum as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumV3x(x, y float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	x5 := x2 * x3
-	x6 := x3 * x3
-	x7 := x3 * x4
-	x8 := x4 * x4
-	x10 := x5 * x5
-	x12 := x6 * x6
-	x14 := x7 * x7
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	x5 := float64(x2 * x3)
+	x6 := float64(x3 * x3)
+	x7 := float64(x3 * x4)
+	x8 := float64(x4 * x4)
+	x10 := float64(x5 * x5)
+	x12 := float64(x6 * x6)
+	x14 := float64(x7 * x7)
 	xi := 1 / x
-	xi2 := xi * xi
-	xi3 := xi * xi2
-	xi4 := xi2 * xi2
-	xi5 := xi2 * xi3
-	xi6 := xi3 * xi3
-	xi8 := xi4 * xi4
-	y2 := y * y
-	y3 := y * y2
-	y4 := y2 * y2
-	y5 := y2 * y3
-	y6 := y3 * y3
-	y7 := y3 * y4
-	y8 := y4 * y4
-	y10 := y5 * y5
-	y12 := y6 * y6
-	y14 := y7 * y7
+	xi2 := float64(xi * xi)
+	xi3 := float64(xi * xi2)
+	xi4 := float64(xi2 * xi2)
+	xi5 := float64(xi2 * xi3)
+	xi6 := float64(xi3 * xi3)
+	xi8 := float64(xi4 * xi4)
+	y2 := float64(y * y)
+	y3 := float64(y * y2)
+	y4 := float64(y2 * y2)
+	y5 := float64(y2 * y3)
+	y6 := float64(y3 * y3)
+	y7 := float64(y3 * y4)
+	y8 := float64(y4 * y4)
+	y10 := float64(y5 * y5)
+	y12 := float64(y6 * y6)
+	y14 := float64(y7 * y7)
 	yi := 1 / y
-	yi2 := yi * yi
-	yi3 := yi * yi2
-	yi4 := yi2 * yi2
-	yi5 := yi2 * yi3
-	yi6 := yi3 * yi3
-	yi8 := yi4 * yi4
-	yi10 := yi5 * yi5
-	yi12 := yi6 * yi6
-	s0 := 0.377373741298151e19*xi8*y14 - 0.103363225598860e16*xi5*y10 - 0.924729378390945e-3*xi4*y2 - 0.462307771873973e-12*xi3*yi2 + 0.648662492280682e11*xi*y5 - 0.851535733484258e10*y4 + 0.215780222509020e-26*x*yi10 - 0.382642448458610e17*x2*y6 - 0.563199253391666e6*x3 + 0.397949001553184e14*x4*y3 + 0.162234569738433e5*x5*yi2 - 0.592874245598610e12*x6*y + 0.157338197797544e7*x8*yi3 + 0.262413209706358e25*x8*y8 + 0.220213765905426e-2*x12*yi10 + 0.847004870612087e7*x12*yi5 - 0.183027173269660e-4*x14*yi12 - 0.119228759669889e4*x14*yi8
-	s1 := -0.507100883722913e13*xi6*y10 + 0.184790814320773e-5*xi4*y - 0.425999562292738e24*xi4*y14 + 0.107319065855767e22*xi3*y12 + 0.244200600688281e1 + 0.169894481433592e22*y10 - 0.320850551367334*x*yi - 0.275386077674421e-28*x3*yi12 - 0.326068646279314e21*x3*y8 + 0.100824008584757e-6*x5*yi6 - 0.432355225319745e11*x5*y + 0.133061647281106e1*x8*yi6 + 0.258189614270853e14*x8*y - 0.920011937431142e-1*x10*yi8 - 0.110433759109547e2*x12*yi8 - 0.592910695762536e9*x12*yi4 + 0.181339603516302*x14*yi10 + 0.430867658061468e7*x14*yi6
+	yi2 := float64(yi * yi)
+	yi3 := float64(yi * yi2)
+	yi4 := float64(yi2 * yi2)
+	yi5 := float64(yi2 * yi3)
+	yi6 := float64(yi3 * yi3)
+	yi8 := float64(yi4 * yi4)
+	yi10 := float64(yi5 * yi5)
+	yi12 := float64(yi6 * yi6)
+	s0 := float64(0.377373741298151e19*xi8*y14) - float64(0.103363225598860e16*xi5*y10) - float64(0.924729378390945e-3*xi4*y2) - float64(0.462307771873973e-12*xi3*yi2) + float64(0.648662492280682e11*xi*y5) - float64(0.851535733484258e10*y4) + float64(0.215780222509020e-26*x*yi10) - float64(0.382642448458610e17*x2*y6) - float64(0.563199253391666e6*x3) + float64(0.397949001553184e14*x4*y3) + float64(0.162234569738433e5*x5*yi2) - float64(0.592874245598610e12*x6*y) + float64(0.157338197797544e7*x8*yi3) + float64(0.262413209706358e25*x8*y8) + float64(0.220213765905426e-2*x12*yi10) + float64(0.847004870612087e7*x12*yi5) - float64(0.183027173269660e-4*x14*yi12) - float64(0.119228759669889e4*x14*yi8)
+	s1 := float64(-0.507100883722913e13*xi6*y10) + float64(0.184790814320773e-5*xi4*y) - float64(0.425999562292738e24*xi4*y14) + float64(0.107319065855767e22*xi3*y12) + 0.244200600688281e1 + float64(0.169894481433592e22*y10) - float64(0.320850551367334*x*yi) - float64(0.275386077674421e-28*x3*yi12) - float64(0.326068646279314e21*x3*y8) + float64(0.100824008584757e-6*x5*yi6) - float64(0.432355225319745e11*x5*y) + float64(0.133061647281106e1*x8*yi6) + float64(0.258189614270853e14*x8*y) - float64(0.920011937431142e-1*x10*yi8) - float64(0.110433759109547e2*x12*yi8) - float64(0.592910695762536e9*x12*yi4) + float64(0.181339603516302*x14*yi10) + float64(0.430867658061468e7*x14*yi6)
 	return s0 + s1
 }
 
 // srSumV3y is srV3y.tab.sum as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumV3y(x, y float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	x5 := x2 * x3
-	x6 := x3 * x3
-	x8 := x4 * x4
-	x10 := x5 * x5
-	x12 := x6 * x6
-	y2 := y * y
-	y3 := y * y2
-	y4 := y2 * y2
-	y5 := y2 * y3
-	y6 := y3 * y3
-	y8 := y4 * y4
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	x5 := float64(x2 * x3)
+	x6 := float64(x3 * x3)
+	x8 := float64(x4 * x4)
+	x10 := float64(x5 * x5)
+	x12 := float64(x6 * x6)
+	y2 := float64(y * y)
+	y3 := float64(y * y2)
+	y4 := float64(y2 * y2)
+	y5 := float64(y2 * y3)
+	y6 := float64(y3 * y3)
+	y8 := float64(y4 * y4)
 	yi := 1 / y
-	yi2 := yi * yi
-	yi3 := yi * yi2
-	yi4 := yi2 * yi2
-	yi5 := yi2 * yi3
-	yi6 := yi3 * yi3
-	yi8 := yi4 * yi4
-	s0 := -0.525597995024633e-9*yi3 - 0.134778968457925e17*y5 - 0.159096490904708e27*x*y8 + 0.496212197158239e3*x2*yi - 0.527114657850696e22*x2*y5 + 0.705106224399834e21*x3*y4 - 0.145370512554562e-7*x4*yi6 - 0.149795620287641e8*x5*yi2 + 0.724660165585797e-4*x8*yi8 + 0.514411468376383e10*x10*yi5
-	s1 := 0.583441305228407e4*y + 0.118973500934212e26*y8 - 0.315839902302021e-6*x2*yi4 + 0.327777227273171e19*x2*y4 + 0.210017506281863e-16*x3*yi8 - 0.266713136106469e31*x3*y8 + 0.149333917053130e28*x4*y6 - 0.381881906271100e16*x5*y - 0.937808169550193e14*x8*yi2 - 0.828198594040141e5*x12*yi8
+	yi2 := float64(yi * yi)
+	yi3 := float64(yi * yi2)
+	yi4 := float64(yi2 * yi2)
+	yi5 := float64(yi2 * yi3)
+	yi6 := float64(yi3 * yi3)
+	yi8 := float64(yi4 * yi4)
+	s0 := float64(-0.525597995024633e-9*yi3) - float64(0.134778968457925e17*y5) - float64(0.159096490904708e27*x*y8) + float64(0.496212197158239e3*x2*yi) - float64(0.527114657850696e22*x2*y5) + float64(0.705106224399834e21*x3*y4) - float64(0.145370512554562e-7*x4*yi6) - float64(0.149795620287641e8*x5*yi2) + float64(0.724660165585797e-4*x8*yi8) + float64(0.514411468376383e10*x10*yi5)
+	s1 := float64(0.583441305228407e4*y) + float64(0.118973500934212e26*y8) - float64(0.315839902302021e-6*x2*yi4) + float64(0.327777227273171e19*x2*y4) + float64(0.210017506281863e-16*x3*yi8) - float64(0.266713136106469e31*x3*y8) + float64(0.149333917053130e28*x4*y6) - float64(0.381881906271100e16*x5*y) - float64(0.937808169550193e14*x8*yi2) - float64(0.828198594040141e5*x12*yi8)
 	return s0 + s1
 }
 
 // srSumV3z is srV3z.tab.sum as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumV3z(x, y float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	x6 := x3 * x3
-	x8 := x4 * x4
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	x6 := float64(x3 * x3)
+	x8 := float64(x4 * x4)
 	xi := 1 / x
-	xi2 := xi * xi
-	xi3 := xi * xi2
-	xi4 := xi2 * xi2
-	xi5 := xi2 * xi3
-	xi6 := xi3 * xi3
-	xi8 := xi4 * xi4
-	y2 := y * y
-	y3 := y * y2
-	y4 := y2 * y2
-	y5 := y2 * y3
-	y6 := y3 * y3
-	y8 := y4 * y4
+	xi2 := float64(xi * xi)
+	xi3 := float64(xi * xi2)
+	xi4 := float64(xi2 * xi2)
+	xi5 := float64(xi2 * xi3)
+	xi6 := float64(xi3 * xi3)
+	xi8 := float64(xi4 * xi4)
+	y2 := float64(y * y)
+	y3 := float64(y * y2)
+	y4 := float64(y2 * y2)
+	y5 := float64(y2 * y3)
+	y6 := float64(y3 * y3)
+	y8 := float64(y4 * y4)
 	yi := 1 / y
-	yi2 := yi * yi
-	yi3 := yi * yi2
-	yi4 := yi2 * yi2
-	yi5 := yi2 * yi3
-	yi6 := yi3 * yi3
-	yi8 := yi4 * yi4
-	s0 := 0.244007892290650e-10*xi8*y3 + 0.728803274777712e10*xi5*y6 - 0.110598170118409e10*xi4*y5 + 0.923814007023245e16*xi4*y8 + 0.663221436245506e12*xi3*y5 + 0.253749358701391e4*xi2*y2 + 0.328380587890663e12*y3 + 0.803197957462023e21*x2*y6 - 0.378391047055938e4*x3*yi2 + 0.154355721681459e2*x6*yi5 - 0.682859011374572e11*x6*yi + 0.394536049497068e7*x8*yi4
-	s1 := -0.463057430331242e7*xi6*y6 + 0.327776302858856e16*xi5*y8 - 0.323899915729957e13*xi4*y6 + 0.842250080413712e-12*xi3*yi2 - 0.167170186672139e15*xi3*y6 - 0.819731559610523e-20*xi*yi6 - 0.625004791171543e8*x*y - 0.204397011338353e-10*x3*yi6 + 0.972876545938620e-2*x6*yi6 - 0.373962862928643e4*x6*yi4 - 0.248488015614543e-3*x8*yi8
+	yi2 := float64(yi * yi)
+	yi3 := float64(yi * yi2)
+	yi4 := float64(yi2 * yi2)
+	yi5 := float64(yi2 * yi3)
+	yi6 := float64(yi3 * yi3)
+	yi8 := float64(yi4 * yi4)
+	s0 := float64(0.244007892290650e-10*xi8*y3) + float64(0.728803274777712e10*xi5*y6) - float64(0.110598170118409e10*xi4*y5) + float64(0.923814007023245e16*xi4*y8) + float64(0.663221436245506e12*xi3*y5) + float64(0.253749358701391e4*xi2*y2) + float64(0.328380587890663e12*y3) + float64(0.803197957462023e21*x2*y6) - float64(0.378391047055938e4*x3*yi2) + float64(0.154355721681459e2*x6*yi5) - float64(0.682859011374572e11*x6*yi) + float64(0.394536049497068e7*x8*yi4)
+	s1 := float64(-0.463057430331242e7*xi6*y6) + float64(0.327776302858856e16*xi5*y8) - float64(0.323899915729957e13*xi4*y6) + float64(0.842250080413712e-12*xi3*yi2) - float64(0.167170186672139e15*xi3*y6) - float64(0.819731559610523e-20*xi*yi6) - float64(0.625004791171543e8*x*y) - float64(0.204397011338353e-10*x3*yi6) + float64(0.972876545938620e-2*x6*yi6) - float64(0.373962862928643e4*x6*yi4) - float64(0.248488015614543e-3*x8*yi8)
 	return s0 + s1
 }
 
 // srSumT3ab is srTabT3ab.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3ab(x float64) float64 {
-	x2 := x * x
+	x2 := float64(x * x)
 	xi := 1 / x
-	xi2 := xi * xi
-	return 0.154793642129415e4 - 0.187661219490113e3*x + 0.213144632222113e2*x2 - 0.191887498864292e4*xi + 0.918419702359447e3*xi2
+	xi2 := float64(xi * xi)
+	return 0.154793642129415e4 - float64(0.187661219490113e3*x) + float64(0.213144632222113e2*x2) - float64(0.191887498864292e4*xi) + float64(0.918419702359447e3*xi2)
 }
 
 // srSumT3cd is srTabT3cd.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3cd(x float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	return 0.585276966696349e3 + 0.278233532206915e1*x - 0.127283549295878e-1*x2 + 0.159090746562729e-3*x3
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	return 0.585276966696349e3 + float64(0.278233532206915e1*x) - float64(0.127283549295878e-1*x2) + float64(0.159090746562729e-3*x3)
 }
 
 // srSumT3gh is srTabT3gh.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3gh(x float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	return -0.249284240900418e5 + 0.428143584791546e4*x - 0.269029173140130e3*x2 + 0.751608051114157e1*x3 - 0.787105249910383e-1*x4
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	return -0.249284240900418e5 + float64(0.428143584791546e4*x) - float64(0.269029173140130e3*x2) + float64(0.751608051114157e1*x3) - float64(0.787105249910383e-1*x4)
 }
 
 // srSumT3ij is srTabT3ij.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3ij(x float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	return 0.584814781649163e3 - 0.616179320924617*x + 0.260763050899562*x2 - 0.587071076864459e-2*x3 + 0.515308185433082e-4*x4
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	return 0.584814781649163e3 - float64(0.616179320924617*x) + float64(0.260763050899562*x2) - float64(0.587071076864459e-2*x3) + float64(0.515308185433082e-4*x4)
 }
 
 // srSumT3jk is srTabT3jk.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3jk(x float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	x4 := x2 * x2
-	return 0.617229772068439e3 - 0.770600270141675e1*x + 0.697072596851896*x2 - 0.157391839848015e-1*x3 + 0.137897492684194e-3*x4
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	x4 := float64(x2 * x2)
+	return 0.617229772068439e3 - float64(0.770600270141675e1*x) + float64(0.697072596851896*x2) - float64(0.157391839848015e-1*x3) + float64(0.137897492684194e-3*x4)
 }
 
 // srSumT3mn is srTabT3mn.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3mn(x float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	return 0.535339483742384e3 + 0.761978122720128e1*x - 0.158365725441648*x2 + 0.192871054508108e-2*x3
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	return 0.535339483742384e3 + float64(0.761978122720128e1*x) - float64(0.158365725441648*x2) + float64(0.192871054508108e-2*x3)
 }
 
 // srSumT3op is srTabT3op.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3op(x float64) float64 {
-	x2 := x * x
+	x2 := float64(x * x)
 	xi := 1 / x
-	xi2 := xi * xi
-	return 0.969461372400213e3 - 0.332500170441278e3*x + 0.642859598466067e2*x2 + 0.773845935768222e3*xi - 0.152313732937084e4*xi2
+	xi2 := float64(xi * xi)
+	return 0.969461372400213e3 - float64(0.332500170441278e3*x) + float64(0.642859598466067e2*x2) + float64(0.773845935768222e3*xi) - float64(0.152313732937084e4*xi2)
 }
 
 // srSumT3qu is srTabT3qu.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3qu(x float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	return 0.565603648239126e3 + 0.529062258221222e1*x - 0.102020639611016*x2 + 0.122240301070145e-2*x3
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	return 0.565603648239126e3 + float64(0.529062258221222e1*x) - float64(0.102020639611016*x2) + float64(0.122240301070145e-2*x3)
 }
 
 // srSumT3rx is srTabT3rx.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3rx(x float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	return 0.584561202520006e3 - 0.102961025163669e1*x + 0.243293362700452*x2 - 0.294905044740799e-2*x3
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	return 0.584561202520006e3 - float64(0.102961025163669e1*x) + float64(0.243293362700452*x2) - float64(0.294905044740799e-2*x3)
 }
 
 // srSumT3uv is srTabT3uv.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3uv(x float64) float64 {
-	x2 := x * x
-	x3 := x * x2
-	return 0.528199646263062e3 + 0.890579602135307e1*x - 0.222814134903755*x2 + 0.286791682263697e-2*x3
+	x2 := float64(x * x)
+	x3 := float64(x * x2)
+	return 0.528199646263062e3 + float64(0.890579602135307e1*x) - float64(0.222814134903755*x2) + float64(0.286791682263697e-2*x3)
 }
 
 // srSumT3wx is srTabT3wx.sum1 as straight-line code: the same products and additions in the
 // same order, hence the same result bit for bit.
 func srSumT3wx(x float64) float64 {
-	x2 := x * x
+	x2 := float64(x * x)
 	xi := 1 / x
-	xi2 := xi * xi
-	return 0.728052609145380e1 + 0.973505869861952e2*x + 0.147370491183191e2*x2 + 0.329196213998375e3*xi + 0.873371668682417e3*xi2
+	xi2 := float64(xi * xi)
+	return 0.728052609145380e1 + float64(0.973505869861952e2*x) + float64(0.147370491183191e2*x2) + float64(0.329196213998375e3*xi) + float64(0.873371668682417e3*xi2)
 }

@@ -1,6 +1,10 @@
 package if97
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // Backward equations v(p,T) for region 3 of IAPWS-IF97, from IAPWS SR5-05(2016), "Revised
 // Supplementary Release on Backward Equations for Specific Volume as a Function of Pressure and
@@ -40,11 +44,11 @@ func (r *srSubregion) v(pMPa, t float64) float64 {
 	w := r.sum(x, y)
 	switch r.e {
 	case 0:
-		w = math.Exp(w)
+		w = fpmath.Exp(w)
 	case 4:
 		w = srPow4(w)
 	}
-	return w * r.vStar
+	return float64(w * r.vStar)
 }
 
 // Pressures that bound the rows of the subregion selection, in MPa
@@ -60,21 +64,21 @@ const (
 // srT3ab .. srT3wx are the subregion boundaries T3xy(p) of IAPWS SR5-05(2016): Table 1 with
 // Eq. (1), θ = Σ n_i π^I_i, or Eq. (2), θ = Σ n_i (ln π)^I_i (3ab, 3op), and Table 9 for the
 // auxiliary boundaries 3uv (Eq. (1)) and 3wx (Eq. (2)). p is in MPa (p* = 1 MPa), T in K.
-func srT3ab(p float64) float64 { return srSumT3ab(math.Log(p)) }
+func srT3ab(p float64) float64 { return srSumT3ab(fpmath.Log(p)) }
 func srT3cd(p float64) float64 { return srSumT3cd(p) }
 func srT3gh(p float64) float64 { return srSumT3gh(p) }
 func srT3ij(p float64) float64 { return srSumT3ij(p) }
 func srT3jk(p float64) float64 { return srSumT3jk(p) }
 func srT3mn(p float64) float64 { return srSumT3mn(p) }
-func srT3op(p float64) float64 { return srSumT3op(math.Log(p)) }
+func srT3op(p float64) float64 { return srSumT3op(fpmath.Log(p)) }
 func srT3qu(p float64) float64 { return srSumT3qu(p) }
 func srT3rx(p float64) float64 { return srSumT3rx(p) }
 func srT3uv(p float64) float64 { return srSumT3uv(p) }
-func srT3wx(p float64) float64 { return srSumT3wx(math.Log(p)) }
+func srT3wx(p float64) float64 { return srSumT3wx(fpmath.Log(p)) }
 
 // srT3ef is the boundary T3ef(p) of IAPWS SR5-05(2016) Eq. (3), the tangent of the saturation
 // curve at the critical point: θ = 3.727888004 (π − 22.064) + 647.096, p in MPa, T in K.
-func srT3ef(p float64) float64 { return 3.727888004*(p-22.064) + 647.096 }
+func srT3ef(p float64) float64 { return float64(3.727888004*(p-22.064)) + 647.096 }
 
 // srTs returns the saturation temperature in K at p in MPa by the saturation-temperature
 // equation of IAPWS R7-97(2012), Eq. (31), with the coefficients of Table 34. SR5-05 Tables 2
@@ -82,13 +86,13 @@ func srT3ef(p float64) float64 { return 3.727888004*(p-22.064) + 647.096 }
 func srTs(p float64) float64 {
 	n := srTabSat.terms
 	beta := math.Sqrt(math.Sqrt(p))
-	b2 := beta * beta
-	e := b2 + n[2].n*beta + n[5].n
-	f := n[0].n*b2 + n[3].n*beta + n[6].n
-	g := n[1].n*b2 + n[4].n*beta + n[7].n
-	d := 2 * g / (-f - math.Sqrt(f*f-4*e*g))
+	b2 := float64(beta * beta)
+	e := b2 + float64(n[2].n*beta) + n[5].n
+	f := float64(n[0].n*b2) + float64(n[3].n*beta) + n[6].n
+	g := float64(n[1].n*b2) + float64(n[4].n*beta) + n[7].n
+	d := 2 * g / (-f - math.Sqrt(float64(f*f)-float64(4*e*g)))
 	nd := n[9].n + d
-	return (nd - math.Sqrt(nd*nd-4*(n[8].n+n[9].n*d))) / 2
+	return float64((nd - math.Sqrt(float64(nd*nd)-float64(4*(n[8].n+float64(n[9].n*d))))) / 2)
 }
 
 // Region3Subregion returns the subregion, 'a' to 't', or the auxiliary subregion near the

@@ -1,6 +1,10 @@
 package if97
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // This file holds StateHS: the state from specific enthalpy and specific entropy. The region is
 // placed with the boundary equations of IAPWS SR4-04(2014) (saturation lines h'(s), h''(s),
@@ -69,7 +73,7 @@ func StateHS(h, s float64) (Props, error) {
 			if err := checkPT(p, T); err != nil {
 				return Props{}, err
 			}
-			if region == 1 && p < psatEq(math.Min(T, Tc))*(1-1e-9) {
+			if region == 1 && p < float64(psatEq(math.Min(T, Tc))*(1-1e-9)) {
 				return Props{}, below("p", p, psatEq(T), "the state (h, s) would be a liquid below its saturation pressure")
 			}
 			if inRegion(region, p, T) {
@@ -98,13 +102,13 @@ func inRegion(region int, p, T float64) bool {
 	const tol = 1e-9
 	switch region {
 	case 1:
-		return T <= T13 && p >= psatEq(T)*(1-tol)
+		return T <= T13 && p >= float64(psatEq(T)*(1-tol))
 	case 2:
 		switch {
 		case T <= T13:
-			return p <= psatEq(T)*(1+tol)
+			return p <= float64(psatEq(T)*(1+tol))
 		case T <= TB23Max:
-			return p <= PB23(T)*(1+tol) && T <= T25
+			return p <= float64(PB23(T)*(1+tol)) && T <= T25
 		}
 		return T <= T25
 	}
@@ -152,36 +156,36 @@ func gibbsHS(region int, h, s, p, T float64) (float64, float64, bool) {
 	}
 	for it := 0; it < 100; it++ {
 		d := gibbsAt(region, p, T, wantAll)
-		hh := R * T * d.tau * d.gt
-		ss := R * (d.tau*d.gt - d.g)
-		cp := -R * d.tau * d.tau * d.gtt
+		hh := float64(R * T * d.tau * d.gt)
+		ss := float64(R * (float64(d.tau*d.gt) - d.g))
+		cp := float64(-R * d.tau * d.tau * d.gtt)
 		v := R * T * d.gp / ps
-		dvdT := R * (d.gp - d.tau*d.gpt) / ps
-		hq, sq := p*(v-T*dvdT), -p*dvdT // derivatives with respect to q = ln p
+		dvdT := R * (d.gp - float64(d.tau*d.gpt)) / ps
+		hq, sq := float64(p*(v-float64(T*dvdT))), float64(-p*dvdT) // derivatives with respect to q = ln p
 		hT, sT := cp, cp/T
 		f1, f2 := hh-h, ss-s
-		det := hq*sT - hT*sq
+		det := float64(hq*sT) - float64(hT*sq)
 		if !(det != 0) || math.IsNaN(det) {
 			return p, T, false
 		}
-		dq := -(f1*sT - hT*f2) / det
-		dT := -(hq*f2 - f1*sq) / det
+		dq := -(float64(f1*sT) - float64(hT*f2)) / det
+		dT := -(float64(hq*f2) - float64(f1*sq)) / det
 		sc := 1.0
 		if math.Abs(dq) > 0.5 {
 			sc = 0.5 / math.Abs(dq)
 		}
-		if math.Abs(dT)*sc > 50 {
+		if float64(math.Abs(dT)*sc) > 50 {
 			sc = 50 / math.Abs(dT)
 		}
-		p *= math.Exp(sc * dq)
-		T += sc * dT
+		p = float64(p * fpmath.Exp(float64(sc*dq)))
+		T += float64(sc * dT)
 		if region == 1 && p > 1.1*PMax {
 			p = 1.1 * PMax // keep 7.1 - π of Eq. (7) positive
 		}
 		// In compressed liquid at low pressure p hardly moves h and s, so the residuals are
 		// the better test there.
-		small := math.Abs(f1) <= 1e-13*math.Max(math.Abs(h), 1e4) && math.Abs(f2) <= 1e-13*math.Max(math.Abs(s), 1e2)
-		if small || math.Abs(dq) <= 1e-13 && math.Abs(dT) <= 1e-13*T {
+		small := math.Abs(f1) <= float64(1e-13*math.Max(math.Abs(h), 1e4)) && math.Abs(f2) <= float64(1e-13*math.Max(math.Abs(s), 1e2))
+		if small || math.Abs(dq) <= 1e-13 && math.Abs(dT) <= float64(1e-13*T) {
 			return p, T, true
 		}
 	}
@@ -197,25 +201,25 @@ func region3HS(h, s, p, T float64) (Props, bool) {
 		f1, f2 := a.h()-h, a.s()-s
 		h1, h2 := a.dhdrho(), a.dhdT()
 		s1, s2 := a.dsdrho(), a.dsdT()
-		det := h1*s2 - h2*s1
+		det := float64(h1*s2) - float64(h2*s1)
 		if !(det != 0) {
 			break
 		}
-		dr := -(f1*s2 - h2*f2) / det
-		dT := -(h1*f2 - f1*s1) / det
+		dr := -(float64(f1*s2) - float64(h2*f2)) / det
+		dT := -(float64(h1*f2) - float64(f1*s1)) / det
 		sc := 1.0
-		if l := 0.05 * rho; math.Abs(dr) > l {
+		if l := float64(0.05 * rho); math.Abs(dr) > l {
 			sc = l / math.Abs(dr)
 		}
-		if math.Abs(dT)*sc > 5 {
+		if float64(math.Abs(dT)*sc) > 5 {
 			sc = 5 / math.Abs(dT)
 		}
-		rho += sc * dr
-		T += sc * dT
-		if math.Abs(dr) <= 1e-13*rho && math.Abs(dT) <= 1e-13*T {
+		rho += float64(sc * dr)
+		T += float64(sc * dT)
+		if math.Abs(dr) <= float64(1e-13*rho) && math.Abs(dT) <= float64(1e-13*T) {
 			st := r3Helm(rho, T, wantAll)
 			out := st.props()
-			ok := out.P <= PMax && T >= T13 && out.P >= PB23(math.Min(T, TB23Max))*(1-1e-9)
+			ok := out.P <= PMax && T >= T13 && out.P >= float64(PB23(math.Min(T, TB23Max))*(1-1e-9))
 			return out, ok
 		}
 	}
@@ -233,7 +237,7 @@ func twoPhaseHS(h, s float64) (Props, bool) {
 		}
 		l, v := satStates(p, T)
 		if T >= Tc {
-			return l.H + T*(s-l.S) - h
+			return l.H + float64(T*(s-l.S)) - h
 		}
 		return l.H + (s-l.S)*(v.H-l.H)/(v.S-l.S) - h
 	}
@@ -246,7 +250,7 @@ func twoPhaseHS(h, s float64) (Props, bool) {
 	}
 	a, fa := TMin, g(TMin)
 	b, fb := Tend, g(Tend)
-	if fa > 0 && fa <= 1e-9*math.Abs(h) {
+	if fa > 0 && fa <= float64(1e-9*math.Abs(h)) {
 		fa = 0
 	}
 	if fa > 0 || fb < 0 {
@@ -254,22 +258,22 @@ func twoPhaseHS(h, s float64) (Props, bool) {
 	}
 	side := 0
 	T := a
-	for it := 0; it < 200 && b-a > 1e-12*b; it++ {
-		T = (a*fb - b*fa) / (fb - fa)
+	for it := 0; it < 200 && b-a > float64(1e-12*b); it++ {
+		T = (float64(a*fb) - float64(b*fa)) / (fb - fa)
 		f := g(T)
 		if f == 0 {
 			break
 		}
-		if f*fb > 0 {
+		if float64(f*fb) > 0 {
 			b, fb = T, f
 			if side == -1 {
-				fa /= 2
+				fa = float64(fa / 2)
 			}
 			side = -1
 		} else {
 			a, fa = T, f
 			if side == +1 {
-				fb /= 2
+				fb = float64(fb / 2)
 			}
 			side = +1
 		}
@@ -328,7 +332,7 @@ func snapLimit(p, T float64) float64 {
 	if T > T25 {
 		lim = P5Max
 	}
-	if p > lim && p <= lim*(1+1e-9) {
+	if p > lim && p <= float64(lim*(1+1e-9)) {
 		return lim
 	}
 	return p

@@ -66,8 +66,8 @@ var psLo, psHi = psBounds()
 
 func psBounds() (lo, hi [psN]float64) {
 	for k := range psN {
-		lo[k] = psatEq(TMin+float64(k)*psStep) * (1 - 1e-12)
-		hi[k] = psatEq(TMin+float64(k+1)*psStep) * (1 + 1e-12)
+		lo[k] = float64(psatEq(TMin+float64(float64(k)*psStep)) * (1 - 1e-12))
+		hi[k] = float64(psatEq(TMin+float64(float64(k+1)*psStep)) * (1 + 1e-12))
 	}
 	return lo, hi
 }
@@ -84,7 +84,7 @@ func aboveSat(p, T float64) bool {
 
 // psCell returns the cell of the ps(T) grid that holds T, TMin <= T <= T13.
 func psCell(T float64) uint {
-	return min(uint((T-TMin)*(1/psStep)), psN-1)
+	return min(uint(float64((T-TMin)*(1/psStep))), psN-1)
 }
 
 // onSatLine reports whether p lies within 1e-12 of ps(T) (R7-97 Eq. 30), for T < Tc. Below
@@ -92,11 +92,11 @@ func psCell(T float64) uint {
 func onSatLine(p, T float64) bool {
 	if T <= T13 {
 		k := psCell(T)
-		if p > psHi[k]*(1+1e-12) || p < psLo[k]*(1-1e-12) {
+		if p > float64(psHi[k]*(1+1e-12)) || p < float64(psLo[k]*(1-1e-12)) {
 			return false
 		}
 	}
-	return math.Abs(p-psatEq(T)) <= 1e-12*p
+	return math.Abs(p-psatEq(T)) <= float64(1e-12*p)
 }
 
 // phaseOf classifies a single-phase state; ps is used only for T < Tc.

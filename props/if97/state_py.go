@@ -177,7 +177,7 @@ var satBandsH, satBandsS = satBands()
 func satBands() (bh, bs [psN]satBand) {
 	var hf, hg, sf, sg [psN + 1]float64
 	for k := range psN + 1 {
-		T := TMin + float64(k)*psStep
+		T := TMin + float64(float64(k)*psStep)
 		p := psatEq(T)
 		hf[k], hg[k] = hG(1, p, T), hG(2, p, T)
 		sf[k], sg[k] = sG(1, p, T), sG(2, p, T)
@@ -194,7 +194,7 @@ func satBands() (bh, bs [psN]satBand) {
 
 // satBandAt returns the band of h or s for the saturation temperature Ts.
 func satBandAt(Ts float64, k yKind) *satBand {
-	c := min(max(int((Ts-TMin)*(1/psStep)), 0), psN-1)
+	c := min(max(int(float64((Ts-TMin)*(1/psStep))), 0), psN-1)
 	if k == byH {
 		return &satBandsH[c]
 	}
@@ -224,7 +224,7 @@ func vapBounds() (bh, bs, tlo []float64) {
 		hi := math.Min(math.Float64frombits(uint64(c+1)<<vapShift), PSat623)
 		mh, ms := math.Inf(-1), math.Inf(-1)
 		for i := 0; i <= 16; i++ {
-			p := lo + (hi-lo)*float64(i)/16
+			p := lo + float64((hi-lo)*float64(i)/16)
 			Ts := tsatEq(p)
 			mh, ms = math.Max(mh, hG(2, p, Ts)), math.Max(ms, sG(2, p, Ts))
 		}
@@ -294,7 +294,7 @@ func superPY(p, y float64, k yKind) (Props, error) {
 				ps = P3SatS(y)
 			}
 		}
-		if p <= ps*1.01 {
+		if p <= float64(ps*1.01) {
 			Ts := tsatEq(p)
 			l, g := satStates(p, Ts)
 			yf, yg := l.H, g.H
@@ -332,16 +332,16 @@ func region3PY(p, y float64, k yKind) Props {
 		}
 		// Damp steps that would leave the neighbourhood of the start.
 		sc := 1.0
-		if l := 0.05 * rho; math.Abs(dr) > l {
+		if l := float64(0.05 * rho); math.Abs(dr) > l {
 			sc = l / math.Abs(dr)
 		}
-		if math.Abs(dT)*sc > 5 {
+		if float64(math.Abs(dT)*sc) > 5 {
 			sc = 5 / math.Abs(dT)
 		}
-		rho += sc * dr
-		T += sc * dT
-		r := sc * max(math.Abs(dr)/rho, math.Abs(dT)/T)
-		if r <= 1e-13 || it > 0 && r <= 1e-7 && r*r*r <= 1e-14*prev*prev {
+		rho += float64(sc * dr)
+		T += float64(sc * dT)
+		r := float64(sc * max(math.Abs(dr)/rho, math.Abs(dT)/T))
+		if r <= 1e-13 || it > 0 && r <= 1e-7 && float64(r*r*r) <= float64(1e-14*prev*prev) {
 			break
 		}
 		prev = r
@@ -364,9 +364,9 @@ func region3Step(a *helm, p, y float64, k yKind) (dr, dT float64, ok bool) {
 		f2, y1, y2 = a.s()-y, a.dsdrho(), a.dsdT()
 	}
 	p1, p2 := a.dpdrho(), a.dpdT()
-	det := p1*y2 - p2*y1
+	det := float64(p1*y2) - float64(p2*y1)
 	if det == 0 {
 		return 0, 0, false
 	}
-	return -(f1*y2 - p2*f2) / det, -(p1*f2 - f1*y1) / det, true
+	return -(float64(f1*y2) - float64(p2*f2)) / det, -(float64(p1*f2) - float64(f1*y1)) / det, true
 }

@@ -1,6 +1,10 @@
 package if97
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // This file holds StateTV and StatePV: the state from temperature or pressure and specific
 // volume, found by Newton steps on the basic equations of IAPWS R7-97(2012) (in region 3,
@@ -20,7 +24,7 @@ func rising(f func(x float64) (v, dv float64), y, x, lo, hi float64) (float64, i
 	for it := 0; it < 200; it++ {
 		v, dv := f(x)
 		e := v - y
-		if e == 0 || (x <= lo || x >= hi) && math.Abs(e) <= 1e-12*(math.Abs(y)+1) {
+		if e == 0 || (x <= lo || x >= hi) && math.Abs(e) <= float64(1e-12*(math.Abs(y)+1)) {
 			return x, 0
 		}
 		if e < 0 {
@@ -42,10 +46,10 @@ func rising(f func(x float64) (v, dv float64), y, x, lo, hi float64) (float64, i
 			case e > 0 && !aOK:
 				next = a
 			default:
-				next = (a + b) / 2
+				next = float64((a + b) / 2)
 			}
 		}
-		if math.Abs(next-x) <= 1e-14*math.Abs(x) {
+		if math.Abs(next-x) <= float64(1e-14*math.Abs(x)) {
 			return next, 0
 		}
 		x = next
@@ -67,10 +71,10 @@ func checkV(v float64) error {
 // with q.
 func pOfTV(region int, T, v, lo, hi, p0 float64) (float64, int) {
 	f := func(q float64) (float64, float64) {
-		p := math.Exp(-q)
+		p := fpmath.Exp(-q)
 		d := gibbsAt(region, p, T, wantX|wantXX)
 		// v = RT γπ / p*, so d ln v / d ln p = π γππ / γπ.
-		return math.Log(d.gp), -d.pi * d.gpp / d.gp
+		return fpmath.Log(d.gp), -d.pi * d.gpp / d.gp
 	}
 	var ps float64
 	switch region {
@@ -81,9 +85,9 @@ func pOfTV(region int, T, v, lo, hi, p0 float64) (float64, int) {
 	default:
 		ps = r5PStar
 	}
-	target := math.Log(v * ps / (R * T))
-	q, out := rising(f, target, -math.Log(p0), -math.Log(hi), -math.Log(lo))
-	return math.Exp(-q), -out
+	target := fpmath.Log(v * ps / (R * T))
+	q, out := rising(f, target, -fpmath.Log(p0), -fpmath.Log(hi), -fpmath.Log(lo))
+	return fpmath.Exp(-q), -out
 }
 
 // StateTV returns the state at temperature T (K) and specific volume v (m³/kg), single-phase or
@@ -123,11 +127,11 @@ func StateTV(T, v float64) (Props, error) {
 func gibbsTV(region int, T, v, lo, hi float64) (Props, error) {
 	p0 := R * T / v // ideal gas
 	if region == 1 {
-		p0 = (lo + hi) / 2
+		p0 = float64((lo + hi) / 2)
 	}
 	lo0 := lo
 	if lo0 == 0 {
-		lo0 = 1e-12 * hi
+		lo0 = float64(1e-12 * hi)
 	}
 	p0 = math.Min(hi, math.Max(lo0, p0))
 	p, out := pOfTV(region, T, v, lo0, hi, p0)
@@ -156,7 +160,7 @@ func region3TV(T, v float64) (Props, error) {
 	rhoMax := rho3(PMax, T)
 	a := r3Helm(rho, T, wantAll)
 	st := a.props()
-	if rho > rhoMax*(1+1e-12) || !(st.P > 0 && st.P <= PMax*(1+1e-9)) {
+	if rho > float64(rhoMax*(1+1e-12)) || !(st.P > 0 && st.P <= PMax*(1+1e-9)) {
 		return Props{}, below("v", v, 1/rhoMax, "below the value at the highest pressure of IAPWS-IF97")
 	}
 	return finish(st), nil
@@ -205,7 +209,7 @@ func vOfT(region int, p, T float64) (float64, float64) {
 		ps = r1PStar
 	}
 	// v = RT γπ / p*; dv/dT = R(γπ - τγπτ)/p*.
-	return R * T * d.gp / ps, R * (d.gp - d.tau*d.gpt) / ps
+	return R * T * d.gp / ps, R * (d.gp - float64(d.tau*d.gpt)) / ps
 }
 
 func vapourPV(p, v, Tmin float64) (Props, error) {
@@ -252,7 +256,7 @@ func liquidPV(p, v, Tmax float64) (Props, error) {
 		}
 		lo = Tm
 	}
-	T, out := rising(f, v, (lo+Tmax)/2, lo, Tmax)
+	T, out := rising(f, v, float64((lo+Tmax)/2), lo, Tmax)
 	if out < 0 {
 		return Props{}, below("v", v, vG(1, p, lo), "below the lowest value at this pressure")
 	}
@@ -280,7 +284,7 @@ func region3PV(p, v float64) (Props, error) {
 		a := r3Helm(rho, T, wantX|wantXY)
 		return a.p(), a.dpdT()
 	}
-	T, _ := rising(f, p, (lo+hi)/2, lo, hi)
+	T, _ := rising(f, p, float64((lo+hi)/2), lo, hi)
 	st := r3Helm(rho, T, wantAll)
 	out := st.props()
 	out.P = p

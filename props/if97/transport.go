@@ -1,6 +1,10 @@
 package if97
 
-import "math"
+import (
+	"math"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
+)
 
 // This file holds the transport properties in their industrial forms: the viscosity of IAPWS
 // R12-08 (Eqs. 10-12 with μ2 = 1), the thermal conductivity of IAPWS R15-11 (Eqs. 10-16, with
@@ -79,13 +83,13 @@ func Viscosity(rho, T float64) (float64, error) {
 	if err := checkTransport(rho, T); err != nil {
 		return 0, err
 	}
-	return muBar(rho/trRhoStar, T/trTStar) * trMuStar, nil
+	return float64(muBar(rho/trRhoStar, T/trTStar) * trMuStar), nil
 }
 
 // muBar returns μ̄0 μ̄1 of R12-08 Eqs. (11), (12).
 func muBar(rb, tb float64) float64 {
 	it := 1 / tb
-	den := muH0[0] + it*(muH0[1]+it*(muH0[2]+it*muH0[3]))
+	den := muH0[0] + float64(it*(muH0[1]+float64(it*(muH0[2]+float64(it*muH0[3])))))
 	mu0 := 100 * math.Sqrt(tb) / den
 	a, r := it-1, rb-1
 	s, ai := 0.0, 1.0
@@ -93,18 +97,18 @@ func muBar(rb, tb float64) float64 {
 		row := &muH1[i]
 		inner := 0.0
 		for j := 6; j >= 0; j-- {
-			inner = inner*r + row[j]
+			inner = float64(inner*r) + row[j]
 		}
-		s += ai * inner
-		ai *= a
+		s += float64(ai * inner)
+		ai = float64(ai * a)
 	}
-	return mu0 * math.Exp(rb*s)
+	return float64(mu0 * fpmath.Exp(float64(rb*s)))
 }
 
 // lamBackground returns λ̄0 λ̄1 of R15-11 Eqs. (16), (17).
 func lamBackground(rb, tb float64) float64 {
 	it := 1 / tb
-	den := lamL0[0] + it*(lamL0[1]+it*(lamL0[2]+it*(lamL0[3]+it*lamL0[4])))
+	den := lamL0[0] + float64(it*(lamL0[1]+float64(it*(lamL0[2]+float64(it*(lamL0[3]+float64(it*lamL0[4])))))))
 	l0 := math.Sqrt(tb) / den
 	a, r := it-1, rb-1
 	s, ai := 0.0, 1.0
@@ -112,12 +116,12 @@ func lamBackground(rb, tb float64) float64 {
 		row := &lamL1[i]
 		inner := 0.0
 		for j := 5; j >= 0; j-- {
-			inner = inner*r + row[j]
+			inner = float64(inner*r) + row[j]
 		}
-		s += ai * inner
-		ai *= a
+		s += float64(ai * inner)
+		ai = float64(ai * a)
 	}
-	return l0 * math.Exp(rb*s)
+	return float64(l0 * fpmath.Exp(float64(rb*s)))
 }
 
 // zetaRef returns ζ(T̄R, ρ̄) of R15-11 Eq. (26) with Table 6.
@@ -129,7 +133,7 @@ func zetaRef(rb float64) float64 {
 	row := &lamA[k]
 	s := 0.0
 	for j := 5; j >= 0; j-- {
-		s = s*rb + row[j]
+		s = float64(s*rb) + row[j]
 	}
 	return 1 / s
 }
@@ -155,18 +159,18 @@ func lamCritical(rb, tb, cp, cv, drdp, mub float64) float64 {
 		kappa = 1e13
 	}
 	zeta := drdp * trPStar / trRhoStar
-	dchi := rb * (zeta - zetaRef(rb)*tR/tb)
+	dchi := float64(rb * (zeta - zetaRef(rb)*tR/tb))
 	if !(dchi > 0) {
 		return 0
 	}
-	xi := xi0 * math.Pow(dchi/gamma0, nu/gam)
-	y := qD * xi
+	xi := float64(xi0 * fpmath.Pow(dchi/gamma0, nu/gam))
+	y := float64(qD * xi)
 	if y < 1.2e-7 {
 		return 0
 	}
 	ik := 1 / kappa
-	z := 2 / (math.Pi * y) * (((1-ik)*math.Atan(y) + ik*y) - (1 - math.Exp(-1/(1/y+y*y/(3*rb*rb)))))
-	return lambda * rb * cpb * tb / mub * z
+	z := float64(2 / (math.Pi * y) * ((float64((1-ik)*fpmath.Atan(y)) + float64(ik*y)) - (1 - fpmath.Exp(-1/(1/y+y*y/(3*rb*rb))))))
+	return float64(lambda * rb * cpb * tb / mub * z)
 }
 
 // Conductivity returns the thermal conductivity in W/(m·K) at density rho (kg/m³) and
@@ -180,7 +184,7 @@ func Conductivity(rho, T float64) (float64, error) {
 		return 0, err
 	}
 	if rho == 0 {
-		return lamBackground(0, T/trTStar) * trLamStar, nil
+		return float64(lamBackground(0, T/trTStar) * trLamStar), nil
 	}
 	st, err := StateTV(T, 1/rho)
 	if err != nil {
@@ -216,7 +220,7 @@ func ViscosityOf(st *Props) (float64, error) {
 	if err := checkTransportState(st); err != nil {
 		return 0, err
 	}
-	return muBar(st.Rho/trRhoStar, st.T/trTStar) * trMuStar, nil
+	return float64(muBar(st.Rho/trRhoStar, st.T/trTStar) * trMuStar), nil
 }
 
 // checkTransportState refuses a two-phase mixture and a state outside the transport range.
@@ -232,7 +236,7 @@ func conductivityOf(st *Props) float64 {
 	rho, T := st.Rho, st.T
 	rb, tb := rho/trRhoStar, T/trTStar
 	l := lamBackground(rb, tb) + lamCritical(rb, tb, st.Cp, st.Cv, drhodp(st), muBar(rb, tb))
-	return l * trLamStar
+	return float64(l * trLamStar)
 }
 
 // drhodp returns (∂ρ/∂p)_T in kg/(m³·Pa) from the basic equation the state lies on: region 3
@@ -260,7 +264,7 @@ func drhodp(st *Props) float64 {
 		ps = r1PStar
 	}
 	dvdp := R * st.T * d.gpp / (ps * ps)
-	return -st.Rho * st.Rho * dvdp
+	return float64(-st.Rho * st.Rho * dvdp)
 }
 
 // twoPhaseRho reports a density inside the two-phase region, naming the nearer saturated
@@ -285,5 +289,5 @@ func SurfaceTension(T float64) (float64, error) {
 		return 0, above("T", T, Tc, "there is no surface tension above the critical temperature")
 	}
 	tau := 1 - T/Tc
-	return 235.8e-3 * math.Pow(tau, 1.256) * (1 - 0.625*tau), nil
+	return float64(235.8e-3 * fpmath.Pow(tau, 1.256) * (1 - float64(0.625*tau))), nil
 }

@@ -8,7 +8,7 @@ package if97
 // temperature T (K). It makes no range check: the release's Table 4 includes
 // states outside IAPWS-IF97. Use Conductivity for property values.
 func ConductivityBackground(rho, T float64) float64 {
-	return lamBackground(rho/trRhoStar, T/trTStar) * trLamStar
+	return float64(lamBackground(rho/trRhoStar, T/trTStar) * trLamStar)
 }
 
 // SubregionBoundaryT returns the temperature (K) of the IAPWS SR5-05 region-3

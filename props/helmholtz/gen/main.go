@@ -20,6 +20,8 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+
+	"github.com/vouchcalc/vouch/internal/fpmath"
 )
 
 // meta is what the generator adds to a coefficient file: the names a user
@@ -277,7 +279,7 @@ func emit(f *file) (string, error) {
 	fmt.Fprintf(&b, "\tEquation: %q,\n\tCitation: %q,\n\tReference: %q,\n\tStatus: %q,\n", m.equation, f.header["paper"], ref, f.header["status"])
 	fmt.Fprintf(&b, "\tM: %se-3,\n\tRmolar: %s,\n\tR: %s / %se-3,\n", mg, lit(R), lit(R), mg)
 	fmt.Fprintf(&b, "\tTred: %s,\n\tRhoRed: %s,\n", lit(tRed), rhoRed)
-	fmt.Fprintf(&b, "\tTtriple: %s,\n\tTmin: %s,\n\tTmax: %s,\n\tPmax: %s,\n", lit(f.num("T_triple_K")), lit(tMin), lit(f.num("T_max_K")), lit(f.num("p_max_MPa")*1e6))
+	fmt.Fprintf(&b, "\tTtriple: %s,\n\tTmin: %s,\n\tTmax: %s,\n\tPmax: %s,\n", lit(f.num("T_triple_K")), lit(tMin), lit(f.num("T_max_K")), lit(float64(f.num("p_max_MPa")*1e6)))
 	fmt.Fprintf(&b, "\teos: equation{\n\t\ttRed: %s,\n\t\trhoRed: %s,\n%s%s\t},\n}\n\n", lit(tRed), rhoRed, terms, ideal)
 	return b.String(), nil
 }
@@ -349,7 +351,7 @@ func idealPart(f *file, R, tRed float64) (logTau float64, pow []string, rest str
 				continue
 			}
 			// cp0 += n T^k integrates to alpha0 += -(n/R) Tred^k tau^-k / (k (k+1)).
-			pow = append(pow, fmt.Sprintf("{%s, %s}", lit(-n/R*math.Pow(tRed, t)/(t*(t+1))), lit(-t)))
+			pow = append(pow, fmt.Sprintf("{%s, %s}", lit(-n/R*fpmath.Pow(tRed, t)/(t*(t+1))), lit(-t)))
 		case "cp0_pe":
 			hasCp0 = true
 			pe = append(pe, fmt.Sprintf("{%s, %s / %s}", lit(n), lit(t), lit(tRed)))

@@ -207,7 +207,7 @@ func read(name string, xScale int) table {
 				if err != nil {
 					fail("%s: %v", name, err)
 				}
-				iv := v * float64(xScale)
+				iv := float64(v * float64(xScale))
 				if iv != float64(int(iv)) {
 					fail("%s: exponent %v not a multiple of 1/%d", name, v, xScale)
 				}
