@@ -211,19 +211,3 @@ func quantityText(q units.Quantity, u units.Unit, digits int, ctx units.Context)
 	}
 	return s
 }
-
-// plainName writes a calc name as plain text for places without markup
-// (plot titles and axes): the symbol as a Greek letter when it names one,
-// the subscript after an underscore: "η_th".
-func plainName(name string) string {
-	base, sub, ok := strings.Cut(name, "_")
-	if r, isDot := cutWord(sub, "dot"); ok && isDot {
-		base, sub, ok = greekText(base)+"\u0307", r, r != ""
-	} else {
-		base = greekText(base)
-	}
-	if !ok {
-		return base
-	}
-	return base + "_" + sub
-}

@@ -34,7 +34,6 @@ var (
 	benchTl = units.Quantity{V: 353.15, D: units.DimTemperature, T: units.Abs}
 	benchTo = units.Quantity{V: 400, D: units.DimTemperature, T: units.Abs}
 	benchH  = units.Quantity{V: 2.5e6, D: units.DimSpecificEnergy}
-	benchX1 = units.Num(1)
 )
 
 // BenchmarkWaterPTh: a superheated steam state (10 MPa, 500 °C) and its h.

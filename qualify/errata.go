@@ -33,7 +33,6 @@ var (
 // errataNode wraps a YAML node with the file name for messages.
 type errataNode struct {
 	file string
-	n    *yaml.Node
 }
 
 func (e errataNode) errf(n *yaml.Node, format string, a ...any) error {

@@ -195,7 +195,8 @@ var keyLineTypes = map[string]string{
 	ssh.KeyAlgoRSA:        ssh.KeyAlgoRSA,
 	ssh.KeyAlgoRSASHA256:  ssh.KeyAlgoRSA,
 	ssh.KeyAlgoRSASHA512:  ssh.KeyAlgoRSA,
-	ssh.KeyAlgoDSA:        ssh.KeyAlgoDSA, //nolint:staticcheck // OpenSSH 9 still reads DSA key lines
+	//lint:ignore SA1019 OpenSSH 9 still reads DSA key lines
+	ssh.KeyAlgoDSA: ssh.KeyAlgoDSA,
 
 	ssh.CertAlgoED25519v01:    ssh.CertAlgoED25519v01,
 	ssh.CertAlgoSKED25519v01:  ssh.CertAlgoSKED25519v01,
@@ -206,7 +207,8 @@ var keyLineTypes = map[string]string{
 	ssh.CertAlgoRSAv01:        ssh.CertAlgoRSAv01,
 	ssh.CertAlgoRSASHA256v01:  ssh.CertAlgoRSAv01,
 	ssh.CertAlgoRSASHA512v01:  ssh.CertAlgoRSAv01,
-	ssh.CertAlgoDSAv01:        ssh.CertAlgoDSAv01, //nolint:staticcheck // as above
+	//lint:ignore SA1019 OpenSSH 9 still reads DSA certificates
+	ssh.CertAlgoDSAv01: ssh.CertAlgoDSAv01,
 }
 
 // readKey reads "KEYTYPE BASE64 [COMMENT]" as OpenSSH's sshkey_read does:
