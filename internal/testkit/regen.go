@@ -2,69 +2,114 @@ package testkit
 
 import (
 	"bytes"
+	"io/fs"
 	"os"
 	"os/exec"
 	"path/filepath"
+	"strings"
 	"testing"
 )
 
-// Regenerate runs a code generator (a `go run` package path such as
-// "./gen/r7", relative to the package under test) in a scratch folder that
-// sees the package's testdata, with args, and fails the test for every file
-// the generator writes that differs from the package's committed file of the
-// same name, and when it writes fewer than min files. It is the
-// regenerate-and-compare check of every generator: a hand edit of generated
-// code, or a generator change whose output was not committed, fails.
-func Regenerate(t *testing.T, gen string, min int, args ...string) {
+// Regenerate runs `go generate` for the package under test in a scratch
+// copy of the module and fails the test for every Go file of the package
+// that the generators (and the float guard they run after) write
+// differently from the committed file, and when fewer than min files are
+// generated. It is the regenerate-and-compare check of every generator: a
+// hand edit of generated code, or a generator change whose output was not
+// committed, fails.
+func Regenerate(t *testing.T, min int) {
 	t.Helper()
 	if testing.Short() {
-		t.Skip("regenerating needs a go build; skipped with -short")
+		t.Skip("regenerating builds the generators; skipped with -short")
 	}
 	pkgDir, err := os.Getwd()
 	if err != nil {
 		t.Fatal(err)
 	}
-	genDir, err := filepath.Abs(gen)
+	root := pkgDir
+	for {
+		if _, err := os.Stat(filepath.Join(root, "go.mod")); err == nil {
+			break
+		}
+		up := filepath.Dir(root)
+		if up == root {
+			t.Fatal("no go.mod above " + pkgDir)
+		}
+		root = up
+	}
+	rel, err := filepath.Rel(root, pkgDir)
 	if err != nil {
 		t.Fatal(err)
 	}
 	tmp := t.TempDir()
-	if err := os.Symlink(filepath.Join(pkgDir, "testdata"), filepath.Join(tmp, "testdata")); err != nil {
+	if err := copyTree(root, tmp); err != nil {
 		t.Fatal(err)
 	}
-	// Build the generator, then run it in the scratch folder, as go
-	// generate runs it in the package's folder.
-	bin := filepath.Join(t.TempDir(), "gen")
-	build := exec.Command("go", "build", "-o", bin, ".")
-	build.Dir = genDir
-	if out, err := build.CombinedOutput(); err != nil {
-		t.Fatalf("go build %s: %v\n%s", gen, err, out)
+	scratch := filepath.Join(tmp, rel)
+	before := stamps(t, scratch)
+	gen := exec.Command("go", "generate", "./"+filepath.ToSlash(rel))
+	gen.Dir = tmp
+	if out, err := gen.CombinedOutput(); err != nil {
+		t.Fatalf("go generate ./%s: %v\n%s", rel, err, out)
 	}
-	run := exec.Command(bin, args...)
-	run.Dir = tmp
-	if out, err := run.CombinedOutput(); err != nil {
-		t.Fatalf("%s: %v\n%s", gen, err, out)
-	}
-	files, err := filepath.Glob(filepath.Join(tmp, "*.go"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	if len(files) < min {
-		t.Fatalf("%s wrote %d Go files, want at least %d", gen, len(files), min)
-	}
-	for _, f := range files {
-		got, err := os.ReadFile(f)
+	n := 0
+	for name, old := range stamps(t, scratch) {
+		got, err := os.ReadFile(filepath.Join(scratch, name))
 		if err != nil {
 			t.Fatal(err)
 		}
-		name := filepath.Base(f)
-		want, err := os.ReadFile(filepath.Join(pkgDir, name))
-		if err != nil {
-			t.Errorf("%s writes %s, which the package does not have: %v", gen, name, err)
-			continue
+		if before[name] != old {
+			n++ // written by the generators
 		}
-		if !bytes.Equal(got, want) {
-			t.Errorf("%s is not what %s generates: run go generate in %s and commit the result", name, gen, pkgDir)
+		want, err := os.ReadFile(filepath.Join(pkgDir, name))
+		if err != nil || !bytes.Equal(got, want) {
+			t.Errorf("%s/%s is not what go generate writes: run go generate ./%s and commit the result", rel, name, rel)
 		}
 	}
+	if n < min {
+		t.Errorf("go generate ./%s wrote %d Go files, want at least %d", rel, n, min)
+	}
+}
+
+// stamps lists the Go files of dir with their modification times.
+func stamps(t *testing.T, dir string) map[string]int64 {
+	t.Helper()
+	files, err := filepath.Glob(filepath.Join(dir, "*.go"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := map[string]int64{}
+	for _, f := range files {
+		st, err := os.Stat(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		m[filepath.Base(f)] = st.ModTime().UnixNano()
+	}
+	return m
+}
+
+// copyTree copies the module's files, without .git, from src to dst.
+func copyTree(src, dst string) error {
+	return filepath.WalkDir(src, func(p string, d fs.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		rel, _ := filepath.Rel(src, p)
+		if d.IsDir() && (d.Name() == ".git" || strings.HasPrefix(d.Name(), ".") && rel != ".") {
+			return filepath.SkipDir
+		}
+		out := filepath.Join(dst, rel)
+		if d.IsDir() {
+			return os.MkdirAll(out, 0o755)
+		}
+		if !d.Type().IsRegular() {
+			return nil
+		}
+		b, err := os.ReadFile(p)
+		if err != nil {
+			return err
+		}
+		return os.WriteFile(out, b, 0o644)
+	})
 }

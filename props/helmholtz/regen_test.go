@@ -9,4 +9,4 @@ import (
 // TestRegenerateTables holds the organic-fluid coefficient tables to their
 // generator: the files go generate writes from testdata/eos equal the
 // committed ones.
-func TestRegenerateTables(t *testing.T) { testkit.Regenerate(t, "./gen", 2) }
+func TestRegenerateTables(t *testing.T) { testkit.Regenerate(t, 2) }
