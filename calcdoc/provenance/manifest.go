@@ -29,6 +29,12 @@ type Manifest struct {
 	Results            []Result    `json:"results"`             // every result, in file order
 	ResultsDigest      string      `json:"results_digest"`      // ResultsDigest of Results
 	Signatures         []Signature `json:"signatures"`          // not covered by Digest
+	// SignersFile is the repository's committed allowed-signers file, a
+	// slash path from the root, and SignersHash its git blob hash at the
+	// commit; both are "" when the repository has none. Canonical writes
+	// them only when set.
+	SignersFile string `json:"signers_file,omitempty"`
+	SignersHash string `json:"signers_hash,omitempty"`
 }
 
 // DataFile is a data file a calculation read.
@@ -53,8 +59,16 @@ type Signature struct {
 	Principal   string `json:"principal"`   // signer's email, as in allowed-signers
 	Name        string `json:"name"`        // signer's name, for the reader
 	Fingerprint string `json:"fingerprint"` // SHA256:... of the signing key
-	Date        string `json:"date"`        // when signed, RFC 3339 in UTC
+	Date        string `json:"date"`        // the commit's date, RFC 3339 in UTC
 	Signature   string `json:"signature"`   // armored SSHSIG
+	// Signed is the signing time (SigningTimeLayout) and Attestation what
+	// the signer attests; both are in the signed Payload.
+	Signed      string `json:"signed,omitempty"`
+	Attestation string `json:"attestation,omitempty"`
+	// Withdrawn is the time (SigningTimeLayout) the signature was
+	// withdrawn, "" while it stands. A withdrawn signature stays in the
+	// list, so the history is kept, and counts for nothing.
+	Withdrawn string `json:"withdrawn,omitempty"`
 }
 
 // Canonical returns the manifest as canonical JSON, so that the same
@@ -230,6 +244,9 @@ func (m *Manifest) object(withSignatures bool) jsonObject {
 	if withSignatures {
 		o["signatures"] = signaturesArray(m.Signatures)
 	}
+	if m.SignersFile != "" || m.SignersHash != "" {
+		o["signers_file"], o["signers_hash"] = m.SignersFile, m.SignersHash
+	}
 	return o
 }
 
@@ -256,6 +273,7 @@ func signaturesArray(sigs []Signature) []any {
 			"role": s.Role, "principal": s.Principal, "name": s.Name,
 			"fingerprint": s.Fingerprint, "date": s.Date, "signature": s.Signature,
 		}
+		addSigningRecord(a[i].(jsonObject), s)
 	}
 	return a
 }
@@ -263,23 +281,4 @@ func signaturesArray(sigs []Signature) []any {
 func sha256Hex(b []byte) string {
 	sum := sha256.Sum256(b)
 	return hex.EncodeToString(sum[:])
-}
-
-// Payload returns the exact bytes a signature for role covers:
-//
-//	calc-package role=ROLE manifest-sha256=DIGEST
-//
-// with no trailing newline, DIGEST being Digest in hex. Binding the role
-// stops a signature made as preparer from being relabelled as checker. A
-// reader can rebuild the payload with printf and check a signature with
-// ssh-keygen -Y verify -n calc-package@vouch.
-func (m *Manifest) Payload(role string) ([]byte, error) {
-	if role == "" || strings.ContainsAny(role, " \t\r\n=") {
-		return nil, fmt.Errorf("%w: role %q must be one word", ErrManifest, role)
-	}
-	d, err := m.Digest()
-	if err != nil {
-		return nil, err
-	}
-	return []byte("calc-package role=" + role + " manifest-sha256=" + d), nil
 }

@@ -278,17 +278,72 @@ func TestManifestKeyGivenTwice(t *testing.T) {
 	}
 }
 
-func TestPayload(t *testing.T) {
+// TestPayloadSigningTimeAndAttestation: the signed payload holds the role,
+// the signer, the signing time, the attestation and the digest, in six
+// lines ended by newlines, and refuses a field that would break the lines.
+func TestPayloadSigningTimeAndAttestation(t *testing.T) {
 	m := sampleManifest(t)
 	d, _ := m.Digest()
-	got, err := m.Payload("checker")
-	if err != nil || string(got) != "calc-package role=checker manifest-sha256="+d {
-		t.Fatalf("Payload = %q, %v", got, err)
+	s := Signature{Role: "checker", Principal: "checker@example.com", Name: "C. Reader",
+		Signed: "2026-03-14T09:26:53Z", Attestation: "I checked it."}
+	got, err := m.Payload(s)
+	want := "vouch-signature/1\nrole: checker\nsigner: C. Reader <checker@example.com>\n" +
+		"signed: 2026-03-14T09:26:53Z\nattestation: I checked it.\nmanifest-sha256: " + d + "\n"
+	if err != nil || string(got) != want {
+		t.Fatalf("Payload = %q, %v\nwant %q", got, err, want)
 	}
-	for _, bad := range []string{"", "check er", "role=x", "a\n"} {
-		if _, err := m.Payload(bad); !errors.Is(err, ErrManifest) {
-			t.Errorf("Payload(%q): got %v, want ErrManifest", bad, err)
+	for name, edit := range map[string]func(*Signature){
+		"empty role":            func(x *Signature) { x.Role = "" },
+		"role of two words":     func(x *Signature) { x.Role = "check er" },
+		"role with =":           func(x *Signature) { x.Role = "role=x" },
+		"role with newline":     func(x *Signature) { x.Role = "a\n" },
+		"name with newline":     func(x *Signature) { x.Name = "C.\nReader" },
+		"name with <":           func(x *Signature) { x.Name = "C. <Reader>" },
+		"principal with blank":  func(x *Signature) { x.Principal = "a b@example.com" },
+		"no attestation":        func(x *Signature) { x.Attestation = "" },
+		"attestation two lines": func(x *Signature) { x.Attestation = "I checked\nit." },
+		"blank-padded text":     func(x *Signature) { x.Attestation = " I checked it." },
+	} {
+		x := s
+		edit(&x)
+		if _, err := m.Payload(x); !errors.Is(err, ErrManifest) {
+			t.Errorf("%s: got %v, want ErrManifest", name, err)
 		}
+	}
+	for _, signed := range []string{"", "2026-03-14 09:26:53", "2026-03-14T09:26:53+01:00", "2026-03-14T09:26:53.5Z"} {
+		x := s
+		x.Signed = signed
+		if _, err := m.Payload(x); !errors.Is(err, ErrSigningTime) {
+			t.Errorf("signed %q: got %v, want ErrSigningTime", signed, err)
+		}
+	}
+}
+
+// TestCanonicalSigningRecord: the signing time, attestation, withdrawal and
+// signers file are written only when set, so older manifests keep their
+// bytes, and they read back.
+func TestCanonicalSigningRecord(t *testing.T) {
+	m := sampleManifest(t)
+	digest, _ := m.Digest()
+	m.Signatures = nil
+	plain, _ := m.Canonical()
+	if bytes.Contains(plain, []byte("signers_file")) || bytes.Contains(plain, []byte(`"withdrawn"`)) {
+		t.Fatalf("unset fields written: %s", plain)
+	}
+	m.SignersFile, m.SignersHash = ".vouch/allowed_signers", "0123456789abcdef0123456789abcdef01234567"
+	if d, _ := m.Digest(); d == digest {
+		t.Error("the signers file's hash is not covered by the digest")
+	}
+	m.Signatures = []Signature{{Role: "checker", Principal: "c@example.com", Name: "C", Signed: "2026-03-14T09:26:53Z",
+		Attestation: "I checked it.", Withdrawn: "2026-03-15T09:00:00Z", Signature: "x", Fingerprint: "SHA256:x", Date: "2026-03-01T00:00:00Z"}}
+	c, _ := m.Canonical()
+	back, err := ParseManifest(c)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c2, _ := back.Canonical()
+	if !bytes.Equal(c, c2) || back.Signatures[0].Withdrawn == "" || back.SignersHash != m.SignersHash {
+		t.Fatalf("round trip:\n%s\n%s", c, c2)
 	}
 }
 

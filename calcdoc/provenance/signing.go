@@ -6,12 +6,12 @@ import (
 	"golang.org/x/crypto/ssh"
 )
 
-// SignAs signs the manifest for s.Role with signer and returns s with its
-// Fingerprint and Signature filled in. The caller sets Role, Principal, Name
-// and Date, and appends the result to m.Signatures; the manifest's Digest
+// SignAs signs the manifest's Payload for s with signer and returns s with
+// its Fingerprint and Signature filled in. The caller sets Role, Principal,
+// Name, Date, Signed and Attestation, and appends the result to m.Signatures; the manifest's Digest
 // does not change by that.
 func (m *Manifest) SignAs(s Signature, signer ssh.Signer) (Signature, error) {
-	payload, err := m.Payload(s.Role)
+	payload, err := m.Payload(s)
 	if err != nil {
 		return s, err
 	}
@@ -24,12 +24,12 @@ func (m *Manifest) SignAs(s Signature, signer ssh.Signer) (Signature, error) {
 	return s, nil
 }
 
-// VerifySignature checks that s is a valid signature of the manifest for
-// s.Role and that its key has the recorded fingerprint, and returns the key.
+// VerifySignature checks that s is a valid signature of the manifest's
+// Payload for s (its role, signer, signing time and attestation) and that its key has the recorded fingerprint, and returns the key.
 // Whether the key belongs to s.Principal is for an allowed-signers file to
 // say (AllowedSigners.Allows).
 func (m *Manifest) VerifySignature(s Signature) (ssh.PublicKey, error) {
-	payload, err := m.Payload(s.Role)
+	payload, err := m.Payload(s)
 	if err != nil {
 		return nil, err
 	}

@@ -179,7 +179,7 @@ func TestManifestSignAndVerify(t *testing.T) {
 	}
 	m := sampleManifest(t)
 	s, err := m.SignAs(Signature{Role: "checker", Principal: signerEmail, Name: "C. Reader",
-		Date: "2025-03-04T05:06:07Z"}, signer)
+		Date: "2025-03-04T05:06:07Z", Signed: "2025-03-05T10:11:12Z", Attestation: "I checked it."}, signer)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -187,14 +187,21 @@ func TestManifestSignAndVerify(t *testing.T) {
 	if _, err := m.VerifySignature(s); err != nil {
 		t.Fatalf("VerifySignature: %v", err)
 	}
-	payload, _ := m.Payload("checker")
+	payload, _ := m.Payload(s)
 	if ok, out := keygenVerify(t, key, payload, []byte(s.Signature), Namespace); !ok {
 		t.Fatalf("ssh-keygen rejected the manifest signature: %s", out)
 	}
-	relabelled := s
-	relabelled.Role = "approver"
-	if _, err := m.VerifySignature(relabelled); !errors.Is(err, ErrBadSignature) {
-		t.Fatalf("signature relabelled as approver: got %v, want ErrBadSignature", err)
+	for name, edit := range map[string]func(*Signature){
+		"relabelled as approver": func(x *Signature) { x.Role = "approver" },
+		"moved to another time":  func(x *Signature) { x.Signed = "2025-03-06T10:11:12Z" },
+		"given another meaning":  func(x *Signature) { x.Attestation = "I approve it." },
+		"moved to another name":  func(x *Signature) { x.Name = "P. Writer" },
+	} {
+		changed := s
+		edit(&changed)
+		if _, err := m.VerifySignature(changed); !errors.Is(err, ErrBadSignature) {
+			t.Errorf("signature %s: got %v, want ErrBadSignature", name, err)
+		}
 	}
 	wrongKey := s
 	wrongKey.Fingerprint = "SHA256:other"
