@@ -44,6 +44,7 @@ func (v *view) setStamp(d *Doc, rec *Stamp) error {
 	}
 	v.Roles = d.roleRows(states)
 	v.Signatures = signatureRows(states)
+	v.Exceptions, v.KeysNote = signerNotes(m, states)
 	v.History, v.HistoryMore = historyRows(rec.History)
 	v.HistoryNote = historyNote(rec)
 	v.Manifest, v.ManifestDigest, v.ManifestJSON = m, digest, string(canon)
@@ -61,9 +62,10 @@ func (d *Doc) roleRows(states []SignatureState) []roleView {
 		p := d.Person(role)
 		row := roleView{Role: title(role), Name: p.Name, Email: p.Email, State: "not signed"}
 		for _, st := range states {
-			if st.Sig.Role == role {
+			if st.Sig.Role == role && st.Sig.Withdrawn == "" {
 				row.Date, row.Fingerprint = day(st.Sig.Date), st.Sig.Fingerprint
-				row.Valid, row.State = st.Valid, stateText(st)
+				row.Valid, row.State, row.Checked = st.Valid, stateText(st), st.Checked
+				row.Signed, row.Attestation = st.Sig.Signed, st.Sig.Attestation
 				break
 			}
 		}
@@ -78,16 +80,39 @@ func signatureRows(states []SignatureState) []sigView {
 	for _, st := range states {
 		s := st.Sig
 		rows = append(rows, sigView{Role: s.Role, Name: s.Name, Principal: s.Principal,
-			Fingerprint: s.Fingerprint, Date: day(s.Date), Valid: st.Valid, State: stateText(st)})
+			Fingerprint: s.Fingerprint, Date: day(s.Date), Valid: st.Valid, State: stateText(st),
+			Checked: st.Checked, Signed: s.Signed, Withdrawn: s.Withdrawn})
 	}
 	return rows
 }
 
+// KeysNotChecked is the state of a signature that verifies and is made as
+// the person named, when no allowed-signers file said whose key it is.
+const KeysNotChecked = "intact; key not checked against a signers file"
+
 func stateText(st SignatureState) string {
-	if st.Valid {
+	switch {
+	case st.Valid && st.Checked:
 		return "valid"
+	case st.Valid:
+		return KeysNotChecked
 	}
 	return "not valid: " + st.Reason
+}
+
+// signerNotes are the cover's exceptions to independent roles and its note
+// on which allowed-signers file checked the keys.
+func signerNotes(m *provenance.Manifest, states []SignatureState) ([]string, string) {
+	var ex []string
+	for _, st := range states {
+		if st.Valid && st.Exception != "" {
+			ex = append(ex, st.Exception)
+		}
+	}
+	if m.SignersFile == "" {
+		return ex, "The repository has no allowed-signers file at the commit, so no key was checked against a person: a signature that verifies is shown as intact, never as valid."
+	}
+	return ex, "Keys are checked against " + m.SignersFile + " as committed at the commit (blob " + shortHash(m.SignersHash) + "), each at its signing time."
 }
 
 // historyRows lists the newest revisions and counts the rest.

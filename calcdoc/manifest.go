@@ -43,6 +43,13 @@ type SignatureState struct {
 	Sig    provenance.Signature
 	Valid  bool
 	Reason string // why it does not hold
+	// Checked reports a valid signature whose key an allowed-signers file
+	// allows for the signer at the signing time; a valid signature not
+	// Checked is intact, but nobody said whose key it is.
+	Checked bool
+	// Exception is the firm's permission, in words, for this signer to
+	// hold an earlier role too, or "".
+	Exception string
 }
 
 // Unversioned is the stamp of an evaluated calc that no repository holds:

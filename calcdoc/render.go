@@ -57,15 +57,23 @@ type view struct {
 	ManifestDigest, ManifestJSON string
 	Versioned, Committed         bool
 	CommitDate, VerifyCommand    string
+	// Exceptions are the firm's permissions, in words, for one person to
+	// hold two roles; KeysNote says whose file checked the keys.
+	Exceptions []string
+	KeysNote   string
 }
 
 type roleView struct {
 	Role, Name, Email, Date, Fingerprint, State string
 	Valid                                       bool
+	Checked                                     bool   // the key was checked against a signers file
+	Signed, Attestation                         string // signing time and meaning
 }
 type sigView struct {
 	Role, Name, Principal, Fingerprint, Date, State string
 	Valid                                           bool
+	Checked                                         bool
+	Signed, Withdrawn                               string
 }
 type revView struct{ Date, Commit, Author, Subject string }
 type rowView struct {

@@ -13,11 +13,14 @@ import (
 // one, two or three Roles; with none the stamp is DRAFT.
 var stamps = []string{"PREPARED", "CHECKED", "APPROVED"}
 
-// check gives the stamp its verdicts: each signature's state, and the
-// status the valid ones reach.
-func check(d *calcdoc.Doc, st *calcdoc.Stamp) {
+// check gives the stamp its verdicts: each signature's state, judged
+// also by the commit's trust (trust.go), and the status the valid ones
+// reach.
+func check(d *calcdoc.Doc, st *calcdoc.Stamp, tr *trust) {
 	st.Signatures = checkSignatures(d, st)
+	tr.judge(st)
 	st.Status = status(st.Signatures)
+	st.Status = keysNote(st.Status, st.Signatures)
 }
 
 // checkSignatures checks each signature of the stamp, in manifest order.
@@ -30,6 +33,10 @@ func checkSignatures(d *calcdoc.Doc, st *calcdoc.Stamp) []calcdoc.SignatureState
 	seen := map[string]bool{}
 	var out []calcdoc.SignatureState
 	for _, s := range st.Manifest.Signatures {
+		if s.Withdrawn != "" {
+			out = append(out, calcdoc.SignatureState{Sig: s, Reason: "withdrawn " + s.Withdrawn})
+			continue
+		}
 		reason := signatureProblem(d, st, s, seen[s.Role])
 		seen[s.Role] = true
 		out = append(out, calcdoc.SignatureState{Sig: s, Valid: reason == "", Reason: reason})

@@ -33,6 +33,7 @@ type Workspace struct {
 	repo  *provenance.Repo // nil outside a repository or before the first commit
 	head  string
 	clean bool
+	trust *trust // HEAD's signers and settings, read on first use
 }
 
 // OpenWorkspace opens the repository that holds dir (a folder or a file).
@@ -109,7 +110,13 @@ func (w *Workspace) stamp(d *calcdoc.Doc, engine string) (*calcdoc.Stamp, error)
 	if err := addHistory(w.repo, st); err != nil {
 		return nil, err
 	}
-	check(d, st)
+	if w.trust == nil {
+		if w.trust, err = loadTrust(w.repo, w.head); err != nil {
+			return nil, err
+		}
+	}
+	w.trust.record(m)
+	check(d, st, w.trust)
 	return st, nil
 }
 

@@ -60,6 +60,7 @@ type reproduction struct {
 	src      []byte
 	doc      *calcdoc.Doc
 	record   *calcdoc.Stamp // the rebuilt record, with the package's clean flag and signatures
+	trust    *trust         // the commit's signers and settings
 	rendered bool           // doc's Markdown tree has been rendered
 }
 
@@ -81,12 +82,17 @@ func reproduce(repo *provenance.Repo, m *provenance.Manifest, engine string) (*r
 	}
 	rm.Source, rm.SourceHash, rm.Commit, rm.Clean = m.Source, provenance.BlobHash(src), m.Commit, m.Clean
 	rm.Signatures = append([]provenance.Signature{}, m.Signatures...)
+	tr, err := loadTrust(repo, m.Commit)
+	if err != nil {
+		return nil, err
+	}
+	tr.record(rm)
 	rec := &calcdoc.Stamp{Manifest: rm, Committed: true}
 	if err := addHistory(repo, rec); err != nil {
 		return nil, err
 	}
-	check(d, rec)
-	return &reproduction{repo: repo, commit: m.Commit, src: src, doc: d, record: rec}, nil
+	check(d, rec, tr)
+	return &reproduction{repo: repo, commit: m.Commit, src: src, doc: d, record: rec, trust: tr}, nil
 }
 
 // evaluateAt reads and evaluates a calc from its bytes at a commit: rel is
@@ -105,7 +111,7 @@ func (r *reproduction) render(engine string, rec *calcdoc.Stamp) ([]byte, error)
 		d = evaluateAt(r.repo, r.commit, r.doc.Rel, r.src)
 	}
 	r.rendered = true
-	check(d, rec)
+	check(d, rec, r.trust)
 	pkg, err := d.Render(calcdoc.RenderOptions{Engine: engine, Stamp: rec})
 	if err != nil {
 		return nil, err

@@ -10,6 +10,7 @@ import (
 	"slices"
 	"sort"
 	"strings"
+	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
@@ -29,8 +30,16 @@ type SignOptions struct {
 	Key string
 	// Signature is an armored SSHSIG made elsewhere, such as with
 	// ssh-keygen -Y sign -n calc-package@vouch over the manifest's Payload
-	// for the role; when set, no key is used.
+	// for the role; when set, no key is used, and Signed gives the signing
+	// time the signature's payload holds.
 	Signature []byte
+	Signed    string // signing time of Signature, as 2026-03-14T09:26:53Z
+	// Withdraw withdraws the role's standing signature instead of signing:
+	// it stays in the manifest, marked with the time of withdrawal, and
+	// the role may then be signed again.
+	Withdraw bool
+	// Now is the clock that gives the signing time; nil means time.Now.
+	Now func() time.Time
 }
 
 // Signed is a package with one more signature, ready to be written.
@@ -62,7 +71,14 @@ func Sign(pkgPath string, opt SignOptions) (*Signed, *Report, error) {
 	if blocked(v.rep, opt.Role) || v.repro == nil {
 		return nil, v.rep, fmt.Errorf("%w; not signed", ErrNotVerified)
 	}
+	if opt.Withdraw {
+		signed, err := v.withdraw(opt)
+		return signed, v.rep, err
+	}
 	if err := v.checkOrder(opt.Role); err != nil {
+		return nil, v.rep, err
+	}
+	if err := v.checkUnsigned(opt.Role); err != nil {
 		return nil, v.rep, err
 	}
 	signed, err := v.sign(opt)
@@ -103,7 +119,11 @@ func validRole(states []calcdoc.SignatureState, role string) bool {
 	return false
 }
 
-// sign makes the signature and renders the signed package.
+// sign makes the signature and renders the signed package. The signing
+// time is now, which must not be before the commit; the signature attests
+// the firm's text for the role as the commit holds it. A signature the
+// signed package would not count (another role's key or person, a key the
+// committed signers file does not allow) is refused.
 func (v *verifier) sign(opt SignOptions) (*Signed, error) {
 	d := v.repro.doc
 	p := d.Person(opt.Role)
@@ -112,33 +132,123 @@ func (v *verifier) sign(opt SignOptions) (*Signed, error) {
 	}
 	rec := *v.repro.record
 	m := *rec.Manifest
-	s := provenance.Signature{Role: opt.Role, Principal: p.Email, Name: p.Name, Date: rec.Date}
+	s := provenance.Signature{Role: opt.Role, Principal: p.Email, Name: p.Name, Date: rec.Date,
+		Attestation: v.repro.trust.cfg.Attestation[opt.Role]}
+	if err := v.signingTime(&s, opt); err != nil {
+		return nil, err
+	}
 	s, err := v.signWith(&m, s, opt)
 	if err != nil {
 		return nil, err
 	}
 	m.Signatures = withSignature(m.Signatures, s)
-	rec.Manifest = &m
-	html, err := v.repro.render(opt.Engine, &rec)
+	signed, err := v.renderSigned(&rec, &m, s)
 	if err != nil {
 		return nil, err
 	}
-	file, err := ManifestFile(&m)
-	if err != nil {
-		return nil, err
-	}
-	return &Signed{HTML: html, ManifestFile: file, Signature: s, Status: rec.Status}, nil
-}
-
-// withSignature replaces the signatures of s's role by s and orders the
-// signatures by role.
-func withSignature(sigs []provenance.Signature, s provenance.Signature) []provenance.Signature {
-	out := []provenance.Signature{s}
-	for _, x := range sigs {
-		if x.Role != s.Role {
-			out = append(out, x)
+	for _, st := range signed.states {
+		if st.Sig.Signature == s.Signature && !st.Valid {
+			return nil, usageErr("the %s signature would not hold: %s; not signed", s.Role, st.Reason)
 		}
 	}
+	return signed.Signed, nil
+}
+
+// signedRender is a signed package with its signatures' verdicts.
+type signedRender struct {
+	*Signed
+	states []calcdoc.SignatureState
+}
+
+// renderSigned renders the package again with manifest m and returns it
+// with its manifest file; s is the signature just made or withdrawn.
+func (v *verifier) renderSigned(rec *calcdoc.Stamp, m *provenance.Manifest, s provenance.Signature) (*signedRender, error) {
+	rec.Manifest = m
+	html, err := v.repro.render(v.opt.Engine, rec)
+	if err != nil {
+		return nil, err
+	}
+	file, err := ManifestFile(m)
+	if err != nil {
+		return nil, err
+	}
+	return &signedRender{&Signed{HTML: html, ManifestFile: file, Signature: s, Status: rec.Status}, rec.Signatures}, nil
+}
+
+// signingTime sets the signature's signing time: now, or for a signature
+// made elsewhere the time it was made over. It must not be before the
+// commit nor later than now.
+func (v *verifier) signingTime(s *provenance.Signature, opt SignOptions) error {
+	now := clock(opt)
+	s.Signed = provenance.FormatSigningTime(now)
+	if len(opt.Signature) > 0 {
+		if opt.Signed == "" {
+			return usageErr("a signature made elsewhere needs its signing time: give --signed TIME, the time its payload holds")
+		}
+		s.Signed = opt.Signed
+	}
+	t, err := provenance.ParseSigningTime(s.Signed)
+	if err != nil {
+		return &calcdoc.UsageError{Err: err}
+	}
+	commit, err := v.repo.CommitDate(v.m.Commit)
+	if err != nil {
+		return err
+	}
+	if err := provenance.CheckSigningTime(t, commit, now); err != nil {
+		return &calcdoc.UsageError{Err: fmt.Errorf("%w; not signed", err)}
+	}
+	return nil
+}
+
+func clock(opt SignOptions) time.Time {
+	if opt.Now != nil {
+		return opt.Now()
+	}
+	return time.Now()
+}
+
+// checkUnsigned refuses to sign a role that already has a standing
+// signature: the earlier one must be withdrawn first, so that the
+// manifest keeps it.
+func (v *verifier) checkUnsigned(role string) error {
+	for _, s := range v.m.Signatures {
+		if s.Role == role && s.Withdrawn == "" {
+			return usageErr("the package already has a %s signature (%s <%s>, signed %s): withdraw it first with vouch sign PACKAGE --role %s --withdraw, then sign again",
+				role, s.Name, s.Principal, s.Signed, role)
+		}
+	}
+	return nil
+}
+
+// withdraw marks the role's standing signature withdrawn at the present
+// time and renders the package again; the signature stays in the manifest.
+func (v *verifier) withdraw(opt SignOptions) (*Signed, error) {
+	rec := *v.repro.record
+	m := *rec.Manifest
+	m.Signatures = slices.Clone(m.Signatures)
+	for i, s := range m.Signatures {
+		if s.Role != opt.Role || s.Withdrawn != "" {
+			continue
+		}
+		now := provenance.FormatSigningTime(clock(opt))
+		if s.Signed != "" && now < s.Signed {
+			return nil, usageErr("the %s signature was signed %s, later than now (%s): check the clock", opt.Role, s.Signed, now)
+		}
+		m.Signatures[i].Withdrawn = now
+		signed, err := v.renderSigned(&rec, &m, m.Signatures[i])
+		if err != nil {
+			return nil, err
+		}
+		return signed.Signed, nil
+	}
+	return nil, usageErr("the package has no standing %s signature to withdraw", opt.Role)
+}
+
+// withSignature adds s to the signatures, ordered by role; withdrawn
+// signatures are kept, before the one that follows them.
+func withSignature(sigs []provenance.Signature, s provenance.Signature) []provenance.Signature {
+	out := append(slices.Clone(sigs), s)
 	sort.SliceStable(out, func(i, j int) bool { return roleIndex(out[i].Role) < roleIndex(out[j].Role) })
 	return out
 }
@@ -206,7 +316,7 @@ func (v *verifier) agentSign(m *provenance.Manifest, s provenance.Signature) (pr
 
 // attach checks a signature made elsewhere and fills in its key.
 func (v *verifier) attach(m *provenance.Manifest, s provenance.Signature, armored []byte) (provenance.Signature, error) {
-	payload, err := m.Payload(s.Role)
+	payload, err := m.Payload(s)
 	if err != nil {
 		return s, err
 	}

@@ -10,6 +10,10 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+	"time"
+
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/settings"
 )
 
 // The fictional people and calc of the tests (internal/testkit).
@@ -181,4 +185,52 @@ func replaceOnce(t *testing.T, path, old, new string) {
 	if err := os.WriteFile(path, bytes.Replace(b, []byte(old), []byte(new), 1), 0o644); err != nil {
 		t.Fatal(err)
 	}
+}
+
+// commitSigners commits .vouch/allowed_signers from principal, key pairs.
+func commitSigners(t testing.TB, r *gitRepo, entries ...any) {
+	t.Helper()
+	data, err := os.ReadFile(allowedSigners(t, entries...))
+	if err != nil {
+		t.Fatal(err)
+	}
+	r.Write(".vouch/allowed_signers", string(data))
+	r.Commit("Allowed signers", ".vouch/allowed_signers")
+}
+
+// forgeSignature adds a signature for role made with k, as the person the
+// front matter names, without vouch sign's checks, and renders the package
+// again: what a package looks like where a check was skipped.
+func forgeSignature(t testing.TB, pkg, role string, k key) {
+	t.Helper()
+	m, err := ManifestOf(mustRead(t, pkg))
+	if err != nil {
+		t.Fatal(err)
+	}
+	signer, err := provenance.LoadSigner(k.path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d, err := calcdoc.ReadFile(strings.TrimSuffix(pkg, ".html") + ".calc.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := d.Person(role)
+	date := m.Signatures[0].Date
+	s := provenance.Signature{Role: role, Principal: p.Email, Name: p.Name, Date: date,
+		Signed: provenance.FormatSigningTime(time.Now()), Attestation: settings.Default().Attestation[role]}
+	if s, err = m.SignAs(s, signer); err != nil {
+		t.Fatal(err)
+	}
+	m.Signatures = append(m.Signatures, s)
+	rewriteManifest(t, pkg, m)
+}
+
+func mustRead(t testing.TB, path string) []byte {
+	t.Helper()
+	b, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return b
 }

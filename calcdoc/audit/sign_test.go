@@ -23,9 +23,10 @@ func TestSignAndVerify(t *testing.T) {
 	for _, typ := range []string{"ed25519", "rsa"} {
 		t.Run(typ, func(t *testing.T) {
 			r := calcRepo(t)
-			pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 			prep, chk, appr := newKey(t, typ), newKey(t, typ), newKey(t, typ)
-			signers := allowedSigners(t, preparerEmail, prep, checkerEmail, chk, approverEmail, appr)
+			commitSigners(t, r, preparerEmail, prep, checkerEmail, chk, approverEmail, appr)
+			pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
+			signers := "" // the committed file
 			date := r.Git("log", "-1", "--format=%cd", "--date=iso-strict-local", "HEAD")
 			for i, step := range []struct {
 				role string
@@ -45,7 +46,8 @@ func TestSignAndVerify(t *testing.T) {
 				}
 			}
 			html := stdhtml.UnescapeString(string(r.Read("calcs/fp.html")))
-			for _, want := range []string{`<div class="stamp">APPROVED</div>`, "C. Reader", day(date), fingerprint(t, chk)} {
+			for _, want := range []string{`<div class="stamp">APPROVED</div>`, "C. Reader", day(date), fingerprint(t, chk),
+				"I approve this calculation for issue.", ".vouch/allowed_signers as committed"} {
 				if !strings.Contains(html, want) {
 					t.Errorf("cover lacks %q", want)
 				}
@@ -64,24 +66,36 @@ func fingerprint(t *testing.T, k key) string {
 	return provenance.Fingerprint(a[0].Key)
 }
 
-// TestSignReplacesRole: signing a role again replaces its signature and
-// keeps the others.
-func TestSignReplacesRole(t *testing.T) {
+// TestSignRoleTwiceNeedsWithdrawal: a role signed twice is refused until
+// the earlier signature is withdrawn; the withdrawn one stays in the
+// manifest, marked, and counts for nothing.
+func TestSignRoleTwiceNeedsWithdrawal(t *testing.T) {
 	r := calcRepo(t)
 	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
 	prep, chk, chk2 := newKey(t, "ed25519"), newKey(t, "ed25519"), newKey(t, "ed25519")
 	signPkg(t, pkg, "preparer", prep, "")
 	signPkg(t, pkg, "checker", chk, "")
+	_, _, err := Sign(pkg, SignOptions{Role: "checker", Key: chk2.path, VerifyOptions: VerifyOptions{Engine: "test"}})
+	if err == nil || !strings.Contains(err.Error(), "already has a checker signature") || !strings.Contains(err.Error(), "--withdraw") {
+		t.Fatalf("second checker signature: %v, want a refusal naming --withdraw", err)
+	}
+	w, _, err := Sign(pkg, SignOptions{Role: "checker", Withdraw: true, VerifyOptions: VerifyOptions{Engine: "test"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.HasPrefix(w.Status, "PREPARED") {
+		t.Errorf("status after withdrawing the checker: %s", w.Status)
+	}
+	writePkg(t, pkg, w.HTML)
 	signPkg(t, pkg, "checker", chk2, "")
 	m, _ := ManifestOf(r.Read("calcs/fp.html"))
-	if len(m.Signatures) != 2 || m.Signatures[0].Role != "preparer" || m.Signatures[1].Role != "checker" {
+	if len(m.Signatures) != 3 || m.Signatures[1].Withdrawn == "" || m.Signatures[1].Fingerprint != fingerprint(t, chk) ||
+		m.Signatures[2].Withdrawn != "" || m.Signatures[2].Fingerprint != fingerprint(t, chk2) {
 		t.Fatalf("signatures = %+v", m.Signatures)
 	}
-	if m.Signatures[1].Fingerprint != fingerprint(t, chk2) {
-		t.Error("the second checker signature did not replace the first")
-	}
 	signers := allowedSigners(t, preparerEmail, prep, checkerEmail, chk2)
-	if rep := verifyPkg(t, pkg, signers); !rep.OK() || rep.Status != "CHECKED" {
+	rep := verifyPkg(t, pkg, signers)
+	if !rep.OK() || rep.Status != "CHECKED" || !strings.Contains(rep.String(), "withdrawn") {
 		t.Fatalf("verify:\n%s", rep)
 	}
 }
@@ -116,17 +130,23 @@ func TestSignatureInteroperability(t *testing.T) {
 			signPkg(t, pkg, "preparer", prep, signers)
 
 			m, _ := ManifestOf(r.Read("calcs/fp.html"))
-			payload, err := m.Payload("preparer")
+			payload, err := m.Payload(m.Signatures[0])
 			if err != nil {
 				t.Fatal(err)
+			}
+			if !strings.Contains(string(payload), "\nsigned: "+m.Signatures[0].Signed+"\n") ||
+				!strings.Contains(string(payload), "\nattestation: I prepared this calculation") {
+				t.Fatalf("payload lacks the signing time or the attestation:\n%s", payload)
 			}
 			if ok, out := keygenVerify(t, signers, preparerEmail, payload, []byte(m.Signatures[0].Signature)); !ok {
 				t.Fatalf("ssh-keygen -Y verify refused vouch's signature:\n%s", out)
 			}
 
-			payload, _ = m.Payload("checker")
+			signed := provenance.FormatSigningTime(time.Now().Add(-time.Minute))
+			payload, _ = m.Payload(provenance.Signature{Role: "checker", Name: "C. Reader", Principal: checkerEmail,
+				Signed: signed, Attestation: "I checked the inputs and their sources, the method, the arithmetic and the units, and every review comment on this calculation is resolved."})
 			sig := keygenSign(t, chk.path, payload)
-			s, rep, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})
+			s, rep, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, Signed: signed, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})
 			if err != nil {
 				t.Fatalf("attach ssh-keygen signature: %v\n%v", err, rep)
 			}
@@ -136,8 +156,8 @@ func TestSignatureInteroperability(t *testing.T) {
 			}
 
 			wrong := keygenSign(t, chk.path, []byte(strings.Replace(string(payload), "checker", "approver", 1)))
-			_, _, err = Sign(pkg, SignOptions{Role: "checker", Signature: wrong, VerifyOptions: VerifyOptions{Engine: "test"}})
-			if err == nil || !strings.Contains(err.Error(), "is not a checker signature of this manifest") {
+			_, _, err = Sign(pkg, SignOptions{Role: "approver", Signature: wrong, Signed: signed, VerifyOptions: VerifyOptions{Engine: "test"}})
+			if err == nil || !strings.Contains(err.Error(), "is not a approver signature of this manifest") {
 				t.Errorf("a signature over another payload: %v", err)
 			}
 		})

@@ -3,22 +3,26 @@ package audit
 import (
 	"fmt"
 	"github.com/vouchcalc/vouch/calcdoc"
+	"path"
 	"path/filepath"
 	"slices"
 	"strings"
+	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // checkSignatures reports each role's signature: whether it verifies over
 // the reproduced manifest, is made as the person the front matter names,
-// and, with an allowed-signers file, with that person's key. The status is
-// the stamp the signatures that hold reach.
+// and with a key an allowed-signers file allows for that person at the
+// signing time (the file given, or else the one committed at the package's
+// commit). The status is the stamp the signatures that hold reach.
 func (v *verifier) checkSignatures() bool {
 	states := slices.Clone(v.repro.record.Signatures)
+	revoked := v.revokedAtHead()
 	for i := range states {
 		if states[i].Valid {
-			v.checkKey(&states[i])
+			v.checkKey(&states[i], revoked)
 		}
 	}
 	for _, role := range calcdoc.Roles {
@@ -29,32 +33,63 @@ func (v *verifier) checkSignatures() bool {
 			v.rep.addRole(Fails, st.Sig.Role, st.Reason)
 		}
 	}
-	v.rep.Status = status(states)
+	v.rep.Status = keysNote(status(states), states)
 	return true
 }
 
-// checkKey checks a signature's key against the allowed-signers file.
-func (v *verifier) checkKey(st *calcdoc.SignatureState) {
-	if v.opt.Signers == "" {
-		return
+// revokedAtHead reads the revoked-keys file as HEAD holds it, so that a key
+// revoked after the package was signed fails too; nil when there is none.
+func (v *verifier) revokedAtHead() provenance.RevokedKeys {
+	tr := v.repro.trust
+	head, err := v.repo.Head()
+	if err != nil || tr.file == "" {
+		return nil
 	}
+	keys, err := readRevoked(v.repo, head, path.Join(path.Dir(tr.file), RevokedKeysName))
+	if err != nil {
+		v.rep.add(Fails, "signers", "%v", err)
+	}
+	return keys
+}
+
+// checkKey checks a signature's signing time against the present, its key
+// against the revoked keys at HEAD and, when one was given, against the
+// outside allowed-signers file at the signing time.
+func (v *verifier) checkKey(st *calcdoc.SignatureState, revoked provenance.RevokedKeys) {
 	s := st.Sig
 	pub, err := v.repro.record.Manifest.VerifySignature(s)
 	if err != nil {
 		st.Valid, st.Reason = false, err.Error()
 		return
 	}
-	if v.allowed.Allows(s.Principal, pub) {
+	signed, err := provenance.ParseSigningTime(s.Signed)
+	if err == nil {
+		err = provenance.CheckSigningTime(signed, signed, time.Now())
+	}
+	if err != nil {
+		st.Valid, st.Reason = false, err.Error()
+		return
+	}
+	if revoked.Revoked(pub) {
+		st.Valid, st.Reason = false, fmt.Sprintf("key %s is listed as revoked at HEAD: a revoked key fails at any time", s.Fingerprint)
+		return
+	}
+	if v.opt.Signers == "" {
+		return
+	}
+	st.Checked = false
+	if v.allowed.AllowsAt(s.Principal, pub, provenance.Namespace, signed) {
+		st.Checked = true
 		return
 	}
 	st.Valid = false
 	file := filepath.Base(v.opt.Signers)
-	if who := v.allowed.Lookup(pub); len(who) > 0 {
+	if who := v.allowed.LookupAt(pub, provenance.Namespace, signed); len(who) > 0 {
 		st.Reason = fmt.Sprintf("%s lists key %s for %s, not for %s, whom the front matter names as %s",
 			file, s.Fingerprint, strings.Join(who, ", "), s.Principal, s.Role)
 	} else {
-		st.Reason = fmt.Sprintf("key %s is not in %s for %s (or not for namespace %s, or not at this time)",
-			s.Fingerprint, file, s.Principal, provenance.Namespace)
+		st.Reason = fmt.Sprintf("key %s is not in %s for %s at the signing time %s: %v",
+			s.Fingerprint, file, s.Principal, s.Signed, v.allowed.Check(s.Principal, pub, provenance.Namespace, signed))
 	}
 }
 
@@ -66,19 +101,16 @@ func (v *verifier) reportRole(role string, states []calcdoc.SignatureState) {
 		if st.Sig.Role != role {
 			continue
 		}
+		if st.Sig.Withdrawn != "" {
+			v.rep.addRole(Note, role, fmt.Sprintf("%s <%s>, signed %s, withdrawn %s", st.Sig.Name, st.Sig.Principal, st.Sig.Signed, st.Sig.Withdrawn))
+			continue
+		}
 		signed = true
 		if !st.Valid {
 			v.rep.addRole(Fails, role, st.Reason)
 			continue
 		}
-		s := st.Sig
-		text := fmt.Sprintf("%s <%s>, key %s, dated %s", s.Name, s.Principal, s.Fingerprint, day(s.Date))
-		if v.opt.Signers != "" {
-			text += "; key allowed by " + filepath.Base(v.opt.Signers)
-		} else {
-			text += "; key not checked (no allowed-signers file)"
-		}
-		v.rep.addRole(Holds, role, text)
+		v.rep.addRole(Holds, role, v.roleText(st))
 	}
 	if !signed {
 		who := "the front matter names no " + role
@@ -87,6 +119,25 @@ func (v *verifier) reportRole(role string, states []calcdoc.SignatureState) {
 		}
 		v.rep.addRole(Unsigned, role, "not signed; "+who)
 	}
+}
+
+// roleText describes a signature that holds: signer, key, signing time,
+// commit date, what was attested, and who checked the key.
+func (v *verifier) roleText(st calcdoc.SignatureState) string {
+	s := st.Sig
+	text := fmt.Sprintf("%s <%s>, key %s, signed %s (commit of %s), attesting %q", s.Name, s.Principal, s.Fingerprint, s.Signed, day(s.Date), s.Attestation)
+	switch {
+	case !st.Checked:
+		text += "; " + calcdoc.KeysNotChecked
+	case v.opt.Signers != "":
+		text += "; key allowed at the signing time by " + filepath.Base(v.opt.Signers)
+	default:
+		text += "; key allowed at the signing time by " + v.repro.trust.file + " as committed"
+	}
+	if st.Exception != "" {
+		text += "; " + st.Exception
+	}
+	return text
 }
 
 // noteHead says whether HEAD has moved on from the recorded commit and
