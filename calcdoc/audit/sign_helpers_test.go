@@ -234,3 +234,13 @@ func mustRead(t testing.TB, path string) []byte {
 	}
 	return b
 }
+
+// writeTemp writes a file in a fresh temporary folder.
+func writeTemp(t testing.TB, name, content string) string {
+	t.Helper()
+	path := filepath.Join(t.TempDir(), name)
+	if err := os.WriteFile(path, []byte(content), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
