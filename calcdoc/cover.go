@@ -109,7 +109,10 @@ func signerNotes(m *provenance.Manifest, states []SignatureState) ([]string, str
 			ex = append(ex, st.Exception)
 		}
 	}
-	if m.SignersFile == "" {
+	switch {
+	case len(states) == 0:
+		return ex, ""
+	case m.SignersFile == "":
 		return ex, "The repository has no allowed-signers file at the commit, so no key was checked against a person: a signature that verifies is shown as intact, never as valid."
 	}
 	return ex, "Keys are checked against " + m.SignersFile + " as committed at the commit (blob " + shortHash(m.SignersHash) + "), each at its signing time."

@@ -111,7 +111,7 @@ func (r *Report) header(b *strings.Builder) {
 	if r.Signers != "" {
 		fmt.Fprintf(b, "signers:  %s\n", r.Signers)
 	} else {
-		b.WriteString("signers:  no allowed-signers file given: keys are not checked against people\n")
+		b.WriteString("signers:  no allowed-signers file given or committed: keys are not checked against people\n")
 	}
 }
 

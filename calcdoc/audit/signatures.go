@@ -19,6 +19,9 @@ import (
 // commit). The status is the stamp the signatures that hold reach.
 func (v *verifier) checkSignatures() bool {
 	states := slices.Clone(v.repro.record.Signatures)
+	if tr := v.repro.trust; v.opt.Signers == "" && tr.file != "" {
+		v.rep.Signers = tr.file + " as committed at the package's commit"
+	}
 	revoked := v.revokedAtHead()
 	for i := range states {
 		if states[i].Valid {

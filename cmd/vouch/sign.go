@@ -18,15 +18,17 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 	signers := fs.String("signers", "", "allowed-signers file to check the key against")
 	repo := fs.String("repo", "", "a directory inside the calc's repository (default: the package's directory)")
 	sigFile := fs.String("signature", "", "an SSHSIG made elsewhere over the role's payload, instead of a key")
+	signedAt := fs.String("signed", "", "with --signature: the signing time its payload holds, as 2026-03-14T09:26:53Z")
+	withdraw := fs.Bool("withdraw", false, "withdraw the role's standing signature (it stays in the manifest, marked withdrawn)")
 	files, err := parseArgs(fs, args)
 	if err != nil {
 		return exitUsage
 	}
 	if len(files) != 1 || *role == "" {
-		fmt.Fprintln(stderr, "usage: vouch sign PACKAGE.html --role preparer|checker|approver [--key KEYFILE] [--signers FILE] [--repo DIR]")
+		fmt.Fprintln(stderr, "usage: vouch sign PACKAGE.html --role preparer|checker|approver [--key KEYFILE | --signature FILE --signed TIME | --withdraw] [--signers FILE] [--repo DIR]")
 		return exitUsage
 	}
-	opt := audit.SignOptions{Role: *role, Key: *key,
+	opt := audit.SignOptions{Role: *role, Key: *key, Signed: *signedAt, Withdraw: *withdraw,
 		VerifyOptions: audit.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers}}
 	if *sigFile != "" {
 		if opt.Signature, err = os.ReadFile(*sigFile); err != nil {
@@ -53,8 +55,13 @@ func signOne(path string, opt audit.SignOptions, stdout, stderr io.Writer) int {
 		return exitErrors
 	}
 	s := signed.Signature
-	fmt.Fprintf(stdout, "signed %s as %s: %s <%s>, key %s, dated %s\nstatus %s\n",
-		path, s.Role, s.Name, s.Principal, s.Fingerprint, s.Date, signed.Status)
+	if s.Withdrawn != "" {
+		fmt.Fprintf(stdout, "withdrew the %s signature of %s <%s> (signed %s) in %s at %s\nstatus %s\n",
+			s.Role, s.Name, s.Principal, s.Signed, path, s.Withdrawn, signed.Status)
+		return exitOK
+	}
+	fmt.Fprintf(stdout, "signed %s as %s: %s <%s>, key %s, signed %s (commit of %s)\nattests: %s\nstatus %s\n",
+		path, s.Role, s.Name, s.Principal, s.Fingerprint, s.Signed, s.Date[:min(10, len(s.Date))], s.Attestation, signed.Status)
 	return exitOK
 }
 
