@@ -80,13 +80,14 @@ func TestRegisterFiftyCalcs(t *testing.T) {
 			t.Errorf("%s: errors %v", e.Path, e.ErrorText(e.Path))
 		}
 	}
-	checkSigned(t, byPath[calcName(0)], "PREPARED", "")
-	checkSigned(t, byPath[calcName(1)], "PREPARED", "the source has changed since commit")
+	// No signers file is committed: the stamp says the keys are unchecked.
+	checkSigned(t, byPath[calcName(0)], "PREPARED — keys unchecked", "")
+	checkSigned(t, byPath[calcName(1)], "PREPARED — keys unchecked", "the source has changed since commit")
 	if byPath[calcName(2)].Signed != nil {
 		t.Errorf("FP-002 has no package beside it, but the register found one")
 	}
 	index := readFile(t, sum.Index)
-	for _, want := range []string{"FP-000", "FP-049", `href="unit1/fp-000.html"`, "BROKEN", "STALE", ">PREPARED<", "<b>3</b> broken", "Caution.", calcdoc.ContentPolicyTag} {
+	for _, want := range []string{"FP-000", "FP-049", `href="unit1/fp-000.html"`, "BROKEN", "STALE", ">PREPARED — keys unchecked<", "<b>3</b> broken", "Caution.", calcdoc.ContentPolicyTag} {
 		if !bytes.Contains(index, []byte(want)) {
 			t.Errorf("index.html lacks %q", want)
 		}
