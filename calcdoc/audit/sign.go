@@ -147,7 +147,7 @@ func (v *verifier) sign(opt SignOptions) (*Signed, error) {
 		return nil, err
 	}
 	for _, st := range signed.states {
-		if st.Sig.Signature == s.Signature && !st.Valid {
+		if st.Sig.Signature == s.Signature && st.Sig.Withdrawn == "" && !st.Valid {
 			return nil, usageErr("the %s signature would not hold: %s; not signed", s.Role, st.Reason)
 		}
 	}

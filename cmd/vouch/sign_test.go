@@ -99,3 +99,45 @@ func TestSignVerifyCommands(t *testing.T) {
 		}
 	}
 }
+
+// TestSignWithdrawCommand: signing a role twice exits with a usage error
+// naming --withdraw; --withdraw keeps the signature in the manifest,
+// marked, and lets the role be signed again.
+func TestSignWithdrawCommand(t *testing.T) {
+	dir := signRepo(t)
+	calc, pkg := filepath.Join(dir, "hb.calc.md"), filepath.Join(dir, "hb.html")
+	key, _ := sshKey(t)
+	vouch := func(want int, args ...string) string {
+		t.Helper()
+		var out, errs bytes.Buffer
+		if got := run(args, &out, &errs); got != want {
+			t.Fatalf("vouch %s: exit %d, want %d\n%s%s", strings.Join(args, " "), got, want, out.String(), errs.String())
+		}
+		return out.String() + errs.String()
+	}
+	vouch(exitOK, "render", calc)
+	out := vouch(exitOK, "sign", pkg, "--role", "preparer", "--key", key)
+	for _, want := range []string{"attests: I prepared this calculation", "status PREPARED — keys unchecked", " signed 20"} {
+		if !strings.Contains(out, want) {
+			t.Errorf("sign output lacks %q:\n%s", want, out)
+		}
+	}
+	out = vouch(exitUsage, "sign", pkg, "--role", "preparer", "--key", key)
+	if !strings.Contains(out, "--withdraw") {
+		t.Errorf("second preparer signature:\n%s", out)
+	}
+	out = vouch(exitOK, "sign", pkg, "--role", "preparer", "--withdraw")
+	if !strings.Contains(out, "withdrew the preparer signature") || !strings.Contains(out, "status DRAFT") {
+		t.Errorf("withdraw output:\n%s", out)
+	}
+	vouch(exitUsage, "sign", pkg, "--role", "checker", "--withdraw")
+	vouch(exitOK, "sign", pkg, "--role", "preparer", "--key", key)
+	m, _ := os.ReadFile(filepath.Join(dir, "hb.manifest.json"))
+	if strings.Count(string(m), `"role":"preparer"`) != 2 || strings.Count(string(m), `"withdrawn":`) != 1 {
+		t.Errorf("manifest does not keep the withdrawn signature:\n%s", m)
+	}
+	out = vouch(exitOK, "verify", pkg)
+	if !strings.Contains(out, "withdrawn") || !strings.Contains(out, "intact; key not checked against a signers file") {
+		t.Errorf("verify output:\n%s", out)
+	}
+}
