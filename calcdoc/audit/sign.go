@@ -283,7 +283,8 @@ func (v *verifier) signWith(m *provenance.Manifest, s provenance.Signature, opt 
 }
 
 // agentSign signs with the ssh-agent's key: its only key, or the one the
-// allowed-signers file lists for the signer.
+// allowed-signers file (the one given, else the committed one) lists for
+// the signer.
 func (v *verifier) agentSign(m *provenance.Manifest, s provenance.Signature) (provenance.Signature, error) {
 	if os.Getenv("SSH_AUTH_SOCK") == "" {
 		return s, usageErr("no signing key: give --key KEYFILE, or start an ssh-agent holding your key")
@@ -292,11 +293,12 @@ func (v *verifier) agentSign(m *provenance.Manifest, s provenance.Signature) (pr
 	if err != nil {
 		return s, &calcdoc.UsageError{Err: err}
 	}
+	allowed, file := v.pickList()
 	var fps []string
 	pick := -1
 	for i, sg := range signers {
 		fps = append(fps, provenance.Fingerprint(sg.PublicKey()))
-		if pick < 0 && v.opt.Signers != "" && v.allowed.Allows(s.Principal, sg.PublicKey()) {
+		if pick < 0 && file != "" && allowed.Allows(s.Principal, sg.PublicKey()) {
 			pick = i
 		}
 	}
@@ -304,14 +306,25 @@ func (v *verifier) agentSign(m *provenance.Manifest, s provenance.Signature) (pr
 	case len(signers) == 0:
 		return s, usageErr("the ssh-agent holds no key: run ssh-add KEYFILE, or give --key KEYFILE")
 	case pick >= 0:
-	case v.opt.Signers != "":
-		return s, usageErr("the ssh-agent holds no key that %s lists for %s (it holds %s)", filepath.Base(v.opt.Signers), s.Principal, strings.Join(fps, ", "))
+	case file != "":
+		return s, usageErr("the ssh-agent holds no key that %s lists for %s (it holds %s)", file, s.Principal, strings.Join(fps, ", "))
 	case len(signers) == 1:
 		pick = 0
 	default:
 		return s, usageErr("the ssh-agent holds %d keys (%s): pick one with --key KEY.pub, or give --signers FILE", len(signers), strings.Join(fps, ", "))
 	}
 	return m.SignAs(s, signers[pick])
+}
+
+// pickList is the allowed-signers file that picks the agent's key: the
+// one given, else the one committed at the package's commit, with its
+// name; "" when there is neither.
+func (v *verifier) pickList() (provenance.AllowedSigners, string) {
+	if v.opt.Signers != "" {
+		return v.allowed, filepath.Base(v.opt.Signers)
+	}
+	tr := v.repro.trust
+	return tr.allowed, tr.file
 }
 
 // attach checks a signature made elsewhere and fills in its key.

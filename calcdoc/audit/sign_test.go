@@ -226,6 +226,14 @@ func TestSignWithAgent(t *testing.T) {
 	if _, _, err := Sign(pkg, opt); err != nil {
 		t.Errorf("sign with KEY.pub through the agent: %v", err)
 	}
+
+	// The committed signers file picks the agent's key when none is given.
+	commitSigners(t, r, preparerEmail, other)
+	pkg = renderFile(t, r.Path("calcs/fp.calc.md"))
+	s, _, err = Sign(pkg, SignOptions{Role: "preparer", VerifyOptions: VerifyOptions{Engine: "test"}})
+	if err != nil || s.Signature.Fingerprint != fingerprint(t, other) || s.Status != "PREPARED" {
+		t.Fatalf("agent key picked by the committed file: %v, %+v", err, s)
+	}
 }
 
 // startAgent starts an ssh-agent on a socket in a temporary folder and
