@@ -175,6 +175,8 @@ func manifestDiffs(a, b *provenance.Manifest, la, lb string) []string {
 		{"clean", strconv.FormatBool(a.Clean), strconv.FormatBool(b.Clean)},
 		{"data", dataText(a.Data), dataText(b.Data)},
 		{"results_digest", a.ResultsDigest, b.ResultsDigest},
+		{"signers_file", a.SignersFile, b.SignersFile},
+		{"signers_hash", a.SignersHash, b.SignersHash},
 	}
 	var out []string
 	for _, f := range fields {

@@ -244,3 +244,5 @@ func writeTemp(t testing.TB, name, content string) string {
 	}
 	return path
 }
+
+func writeFile(path string, data []byte) error { return os.WriteFile(path, data, 0o644) }

@@ -218,3 +218,27 @@ func TestAttestationFromSettings(t *testing.T) {
 	rewriteManifest(t, pkg, m)
 	failsWith(t, verifyPkg(t, pkg, ""), "preparer", "but the firm's text for the preparer is")
 }
+
+// TestSignersHashRecorded: the committed signers file's blob is in the
+// manifest, and a manifest that names another blob does not reproduce.
+func TestSignersHashRecorded(t *testing.T) {
+	r := calcRepo(t)
+	prep := newKey(t, "ed25519")
+	commitSigners(t, r, preparerEmail, prep)
+	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
+	m, _ := ManifestOf(mustRead(t, pkg))
+	want := provenance.BlobHash(r.Read(".vouch/allowed_signers"))
+	if m.SignersFile != ".vouch/allowed_signers" || m.SignersHash != want {
+		t.Fatalf("signers %q %q, want the blob %s", m.SignersFile, m.SignersHash, want)
+	}
+	m.SignersHash = strings.Repeat("0", 40)
+	file, _ := ManifestFile(m)
+	if err := writeFile(ManifestPath(pkg), file); err != nil {
+		t.Fatal(err)
+	}
+	html := strings.Replace(string(mustRead(t, pkg)), want, m.SignersHash, 1)
+	if err := writeFile(pkg, []byte(html)); err != nil {
+		t.Fatal(err)
+	}
+	failsWith(t, verifyPkg(t, pkg, ""), "manifest", "signers_hash")
+}
