@@ -242,3 +242,27 @@ func TestSignersHashRecorded(t *testing.T) {
 	}
 	failsWith(t, verifyPkg(t, pkg, ""), "manifest", "signers_hash")
 }
+
+// TestMalformedCommittedSigners: a committed signers file or revoked-keys
+// file with a bad line stops the render with an error at its line.
+func TestMalformedCommittedSigners(t *testing.T) {
+	for _, c := range []struct{ file, content, want string }{
+		{".vouch/allowed_signers", "preparer@example.com nosuch=\"x\" ssh-ed25519 AAAA\n", "allowed signers .vouch/allowed_signers at commit"},
+		{".vouch/revoked_keys", "not a key\n", "revoked keys .vouch/revoked_keys at commit"},
+	} {
+		r := calcRepo(t)
+		if c.file == ".vouch/revoked_keys" {
+			commitSigners(t, r, preparerEmail, newKey(t, "ed25519"))
+		}
+		r.Write(c.file, c.content)
+		r.Commit("Bad file", c.file)
+		d, err := calcdoc.ReadFile(r.Path("calcs/fp.calc.md"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		_, err = Provenance(d, "test")
+		if err == nil || !strings.Contains(err.Error(), c.want) || !strings.Contains(err.Error(), "line 1") {
+			t.Errorf("%s: %v", c.file, err)
+		}
+	}
+}
