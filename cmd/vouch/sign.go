@@ -28,6 +28,10 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "usage: vouch sign PACKAGE.html --role preparer|checker|approver [--key KEYFILE | --signature FILE --signed TIME | --withdraw] [--signers FILE] [--repo DIR]")
 		return exitUsage
 	}
+	if msg := signFlagConflict(*key, *sigFile, *signedAt, *withdraw); msg != "" {
+		fmt.Fprintln(stderr, "vouch: sign: "+msg)
+		return exitUsage
+	}
 	opt := audit.SignOptions{Role: *role, Key: *key, Signed: *signedAt, Withdraw: *withdraw,
 		VerifyOptions: audit.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers}}
 	if *sigFile != "" {
@@ -37,6 +41,22 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 		}
 	}
 	return signOne(files[0], opt, stdout, stderr)
+}
+
+// signFlagConflict says why a combination of sign's flags makes no sense,
+// or "".
+func signFlagConflict(key, sigFile, signedAt string, withdraw bool) string {
+	switch {
+	case withdraw && (key != "" || sigFile != "" || signedAt != ""):
+		return "--withdraw signs nothing: give it without --key, --signature or --signed"
+	case sigFile != "" && key != "":
+		return "give either --key or --signature, not both"
+	case sigFile != "" && signedAt == "":
+		return "--signature needs --signed TIME, the signing time its payload holds (such as 2026-03-14T09:26:53Z)"
+	case signedAt != "" && sigFile == "":
+		return "--signed goes with --signature; vouch sign with a key signs at the present time"
+	}
+	return ""
 }
 
 // signOne signs a package and writes it back with its manifest file; a

@@ -131,6 +131,12 @@ func TestSignWithdrawCommand(t *testing.T) {
 		t.Errorf("withdraw output:\n%s", out)
 	}
 	vouch(exitUsage, "sign", pkg, "--role", "checker", "--withdraw")
+	for _, bad := range [][]string{{"--withdraw", "--key", key}, {"--signed", "2026-03-14T09:26:53Z", "--key", key}, {"--signature", key}} {
+		out = vouch(exitUsage, append([]string{"sign", pkg, "--role", "preparer"}, bad...)...)
+		if !strings.Contains(out, "vouch: sign: ") {
+			t.Errorf("sign %v: %s", bad, out)
+		}
+	}
 	vouch(exitOK, "sign", pkg, "--role", "preparer", "--key", key)
 	m, _ := os.ReadFile(filepath.Join(dir, "hb.manifest.json"))
 	if strings.Count(string(m), `"role":"preparer"`) != 2 || strings.Count(string(m), `"withdrawn":`) != 1 {
