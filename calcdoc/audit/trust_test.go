@@ -77,6 +77,19 @@ func TestPreparerKeySignsAsNamedChecker(t *testing.T) {
 	if strings.Contains(html, `class="stamp">CHECKED`) {
 		t.Error("cover stamps CHECKED")
 	}
+
+	// The preparer's second key, which the committed file lists for the
+	// preparer, signing as C. Reader: refused, and failed where it happened.
+	r2 := calcRepo(t)
+	second := newKey(t, "ed25519")
+	commitSigners(t, r2, preparerEmail, prep, preparerEmail, second)
+	pkg2 := renderFile(t, r2.Path("calcs/fp.calc.md"))
+	signPkg(t, pkg2, "preparer", prep, "")
+	if err := signAt(t, pkg2, "checker", second, "", time.Now()); err == nil || !strings.Contains(err.Error(), "does not allow key") {
+		t.Fatalf("the preparer's second key as checker: %v", err)
+	}
+	forgeSignature(t, pkg2, "checker", second)
+	failsWith(t, verifyPkg(t, pkg2, ""), "checker", ".vouch/allowed_signers at the commit does not allow key "+fingerprint(t, second)+" for checker@example.com")
 }
 
 // TestSameSignerAllowedBySettings: a firm that lets its approver also
