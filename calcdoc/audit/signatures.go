@@ -3,7 +3,6 @@ package audit
 import (
 	"fmt"
 	"github.com/vouchcalc/vouch/calcdoc"
-	"path"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -43,12 +42,11 @@ func (v *verifier) checkSignatures() bool {
 // revokedAtHead reads the revoked-keys file as HEAD holds it, so that a key
 // revoked after the package was signed fails too; nil when there is none.
 func (v *verifier) revokedAtHead() provenance.RevokedKeys {
-	tr := v.repro.trust
 	head, err := v.repo.Head()
-	if err != nil || tr.file == "" {
+	if err != nil {
 		return nil
 	}
-	keys, err := readRevoked(v.repo, head, path.Join(path.Dir(tr.file), RevokedKeysName))
+	keys, err := readRevoked(v.repo, head, v.repro.trust.revFile)
 	if err != nil {
 		v.rep.add(Fails, "signers", "%v", err)
 	}

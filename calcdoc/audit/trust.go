@@ -29,7 +29,7 @@ type trust struct {
 	file    string // the committed allowed-signers file, "" when none
 	hash    string // its blob hash
 	allowed provenance.AllowedSigners
-	revFile string // the committed revoked-keys file, "" when none
+	revFile string // where the revoked-keys file is looked for
 	revoked provenance.RevokedKeys
 }
 
@@ -47,6 +47,10 @@ func loadTrust(repo *provenance.Repo, commit string) (*trust, error) {
 			return nil, fmt.Errorf("%s at commit %s: %w", settings.FileName, shortHash(commit), err)
 		}
 	}
+	tr.revFile = revokedPath(tr.cfg)
+	if tr.revoked, err = readRevoked(repo, commit, tr.revFile); err != nil {
+		return nil, err
+	}
 	file := tr.cfg.Signers
 	data, err := readOptional(repo, commit, file)
 	if err != nil || data == nil {
@@ -56,14 +60,13 @@ func loadTrust(repo *provenance.Repo, commit string) (*trust, error) {
 		return nil, fmt.Errorf("allowed signers %s at commit %s: %w", file, shortHash(commit), err)
 	}
 	tr.file, tr.hash = file, provenance.BlobHash(data)
-	tr.revFile = path.Join(path.Dir(file), RevokedKeysName)
-	if tr.revoked, err = readRevoked(repo, commit, tr.revFile); err != nil {
-		return nil, err
-	}
-	if tr.revoked == nil {
-		tr.revFile = ""
-	}
 	return tr, nil
+}
+
+// revokedPath is the revoked-keys file: RevokedKeysName beside the
+// allowed-signers file the settings name, whether or not that exists.
+func revokedPath(cfg *settings.Settings) string {
+	return path.Join(path.Dir(cfg.Signers), RevokedKeysName)
 }
 
 // readOptional reads a file at a commit; nil when the commit has none.
@@ -118,6 +121,8 @@ func (tr *trust) judgeOne(st *calcdoc.Stamp, s *calcdoc.SignatureState) {
 		fail("%v", err)
 		return
 	}
+	// The cover reads no clock: only the lower bound is checked here, and
+	// verify checks the signing time against the present.
 	if commit, err := time.Parse(time.RFC3339, st.Date); err == nil {
 		if err := provenance.CheckSigningTime(signed, commit, signed); err != nil {
 			fail("%v", err)

@@ -180,6 +180,14 @@ func TestRevokedKeyFails(t *testing.T) {
 	r.Commit("Revoke the preparer's key", ".vouch/revoked_keys")
 	failsWith(t, verifyPkg(t, pkg, ""), "preparer", "is listed as revoked")
 
+	// Without a signers file a revoked key fails as well.
+	r3 := calcRepo(t)
+	pkg3 := renderFile(t, r3.Path("calcs/fp.calc.md"))
+	signPkg(t, pkg3, "preparer", prep, "")
+	r3.Write(".vouch/revoked_keys", prep.pub+"\n")
+	r3.Commit("Revoke the preparer's key", ".vouch/revoked_keys")
+	failsWith(t, verifyPkg(t, pkg3, ""), "preparer", "is listed as revoked")
+
 	// Revoked at the commit: the cover says so, and sign refuses the key.
 	r2 := calcRepo(t)
 	commitSigners(t, r2, preparerEmail, prep)
