@@ -51,6 +51,9 @@ func (v *view) setStamp(d *Doc, rec *Stamp) error {
 	v.SourcePath, v.SourceHash, v.ResultsDigest = m.Source, m.SourceHash, m.ResultsDigest
 	v.Versioned, v.Committed, v.CommitDate = rec.Versioned, rec.Committed, day(rec.Date)
 	v.VerifyCommand = "vouch verify " + PackageName(m.Source) + " --signers allowed_signers"
+	if m.SignersFile != "" { // verify reads the committed file itself
+		v.VerifyCommand = "vouch verify " + PackageName(m.Source)
+	}
 	return nil
 }
 
