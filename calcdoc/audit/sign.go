@@ -331,15 +331,16 @@ func (v *verifier) pickList() (provenance.AllowedSigners, string) {
 func (v *verifier) attach(m *provenance.Manifest, s provenance.Signature, armored []byte) (provenance.Signature, error) {
 	payload, err := m.Payload(s)
 	if err != nil {
-		return s, err
+		return s, &calcdoc.UsageError{Err: err}
 	}
 	armored = append(bytes.TrimSpace(armored), '\n')
 	pub, err := provenance.VerifySig(payload, armored, provenance.Namespace)
 	if err != nil {
 		return s, usageErr("the signature is not a %s signature of this manifest (%s): %w", s.Role, payload, err)
 	}
-	if v.opt.Signers != "" && !v.allowed.Allows(s.Principal, pub) {
-		return s, usageErr("%s does not list key %s for %s", v.opt.Signers, provenance.Fingerprint(pub), s.Principal)
+	at, _ := provenance.ParseSigningTime(s.Signed) // checked by Payload
+	if v.opt.Signers != "" && !v.allowed.AllowsAt(s.Principal, pub, provenance.Namespace, at) {
+		return s, usageErr("%s does not list key %s for %s at the signing time %s", v.opt.Signers, provenance.Fingerprint(pub), s.Principal, s.Signed)
 	}
 	s.Fingerprint, s.Signature = provenance.Fingerprint(pub), string(armored)
 	return s, nil

@@ -146,6 +146,10 @@ func TestSignatureInteroperability(t *testing.T) {
 			payload, _ = m.Payload(provenance.Signature{Role: "checker", Name: "C. Reader", Principal: checkerEmail,
 				Signed: signed, Attestation: "I checked the inputs and their sources, the method, the arithmetic and the units, and every review comment on this calculation is resolved."})
 			sig := keygenSign(t, chk.path, payload)
+			other := provenance.FormatSigningTime(time.Now().Add(-2 * time.Minute))
+			if _, _, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, Signed: other, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}}); err == nil {
+				t.Fatal("a signature attached with another signing time than its payload's was accepted")
+			}
 			s, rep, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, Signed: signed, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})
 			if err != nil {
 				t.Fatalf("attach ssh-keygen signature: %v\n%v", err, rep)
