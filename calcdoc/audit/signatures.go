@@ -36,7 +36,26 @@ func (v *verifier) checkSignatures() bool {
 		}
 	}
 	v.rep.Status = keysNote(status(states), states)
+	v.noteUnchecked(states)
 	return true
+}
+
+// noteUnchecked says how to check the keys of signatures that hold but
+// whose keys no signers file checked.
+func (v *verifier) noteUnchecked(states []calcdoc.SignatureState) {
+	n := 0
+	for _, st := range states {
+		if st.Valid && !st.Checked {
+			n++
+		}
+	}
+	what := fmt.Sprintf("%d signatures are intact, but no allowed-signers file said whose keys they are", n)
+	if n == 1 {
+		what = "1 signature is intact, but no allowed-signers file said whose key it is"
+	}
+	if n > 0 {
+		v.rep.add(Note, "keys", "%s: commit one at %s, or give --signers FILE", what, v.repro.trust.cfg.Signers)
+	}
 }
 
 // revokedAtHead reads the revoked-keys file as HEAD holds it, so that a key

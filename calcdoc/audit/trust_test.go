@@ -135,7 +135,8 @@ func TestNoSignersFileKeysUnchecked(t *testing.T) {
 		t.Errorf("cover claims VALID, or does not say the keys are unchecked")
 	}
 	rep := verifyPkg(t, pkg, "")
-	if rep.Status != "CHECKED — keys unchecked" || strings.Count(rep.String(), "intact; key not checked against a signers file") != 2 {
+	if rep.Status != "CHECKED — keys unchecked" || strings.Count(rep.String(), "intact; key not checked against a signers file") != 2 ||
+		!strings.Contains(rep.String(), "2 signatures are intact, but no allowed-signers file said whose keys they are: commit one at .vouch/allowed_signers") {
 		t.Errorf("verify:\n%s", rep)
 	}
 }
