@@ -1,14 +1,18 @@
 package calcdoc
 
 import (
+	"errors"
 	"fmt"
-	"github.com/vouchcalc/vouch/eval"
-	"go.yaml.in/yaml/v3"
-	"io/fs"
+	"path"
 	"path/filepath"
 	"strings"
 
+	"go.yaml.in/yaml/v3"
+
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/internal/excerpt"
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // DataFile is a data file a calc read, with its git blob hash.
@@ -21,36 +25,63 @@ type DataFile struct {
 // file, must stay inside Files (its repository, or outside one its
 // folder), and every file read is recorded with its hash.
 func (d *Doc) dataReader() func(string) ([]byte, error) {
-	return func(name string) ([]byte, error) {
-		rel, err := d.dataPath(name)
-		if err != nil {
-			return nil, err
-		}
-		raw, err := fs.ReadFile(d.Files, rel)
-		if err != nil {
-			return nil, err
-		}
-		for _, f := range d.DataFiles {
-			if f.Path == rel {
-				return raw, nil
-			}
-		}
-		d.DataFiles = append(d.DataFiles, DataFile{Path: rel, Hash: provenance.BlobHash(raw)})
-		return raw, nil
-	}
+	return func(name string) ([]byte, error) { return d.readData(name, MaxDataBytes) }
 }
 
-// dataPath resolves a data-file name to a slash path relative to the root
-// of Files and refuses paths that leave it.
-func (d *Doc) dataPath(name string) (string, error) {
-	if filepath.IsAbs(name) {
-		return "", fmt.Errorf("%s: give a path relative to the calc file, inside its repository", name)
+// readData reads a data file or image of at most limit bytes through Files
+// (regular files only) and records it with its hash.
+func (d *Doc) readData(name string, limit int64) ([]byte, error) {
+	rel, err := dataRel(d.Rel, name)
+	if err != nil {
+		if errors.Is(err, errLeaves) {
+			return nil, fmt.Errorf("%w %s; a calc reads only files inside its repository", err, d.Root)
+		}
+		return nil, err
 	}
-	rel := filepath.Clean(filepath.Join(filepath.Dir(filepath.FromSlash(d.Rel)), filepath.FromSlash(name)))
-	if rel == ".." || strings.HasPrefix(rel, ".."+string(filepath.Separator)) {
-		return "", fmt.Errorf("%s leaves the repository %s; a calc reads only files inside its repository", name, d.Root)
+	raw, err := safefile.ReadFS(d.Files, rel, limit)
+	if err != nil {
+		return nil, err
 	}
-	return filepath.ToSlash(rel), nil
+	for _, f := range d.DataFiles {
+		if f.Path == rel {
+			return raw, nil
+		}
+	}
+	d.DataFiles = append(d.DataFiles, DataFile{Path: rel, Hash: provenance.BlobHash(raw)})
+	return raw, nil
+}
+
+// errLeaves is the error of a data path that leaves the repository.
+var errLeaves = errors.New("leaves the repository")
+
+// dataRel is the path rule of data files and images: name, a slash path
+// relative to the calc at calcRel, is joined to the calc's folder and
+// cleaned, then decided on its elements (never on string prefixes): it may
+// not be absolute, its first element may not be "..", and no element may be
+// .git in any case (git's own files are not data). It returns the slash
+// path from the root.
+func dataRel(calcRel, name string) (string, error) {
+	slash := filepath.ToSlash(name)
+	if name == "" {
+		return "", fmt.Errorf("give the path of a file, relative to the calc file")
+	}
+	if path.IsAbs(slash) || filepath.IsAbs(name) || filepath.VolumeName(name) != "" {
+		return "", fmt.Errorf("%s: give a path relative to the calc file, inside its repository", excerpt.Cut(name))
+	}
+	rel := path.Clean(path.Join(path.Dir(calcRel), slash))
+	elems := strings.Split(rel, "/")
+	if elems[0] == ".." {
+		return "", fmt.Errorf("%s %w", excerpt.Cut(name), errLeaves)
+	}
+	for _, e := range elems {
+		if strings.EqualFold(e, ".git") {
+			return "", fmt.Errorf("%s is inside .git; a calc reads files of the work tree, not git's own files", excerpt.Cut(name))
+		}
+	}
+	if rel == "." {
+		return "", fmt.Errorf("%s is the repository's folder; give the path of a file", excerpt.Cut(name))
+	}
+	return rel, nil
 }
 
 // useWorkTree sets Files to the work tree that holds the calc, unless the

@@ -7,6 +7,9 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+
+	"github.com/vouchcalc/vouch/internal/excerpt"
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // locate returns the folder a calc's data-file paths are relative to, the
@@ -38,43 +41,58 @@ func locate(path string) (root, rel string) {
 	return filepath.Dir(abs), filepath.Base(abs)
 }
 
-// newWorkTree is the folder root on disk as an fs.FS for Doc.Files: it reads
-// files and refuses a symbolic link that leads outside root.
+// newWorkTree is the folder root on disk as an fs.FS for Doc.Files. It
+// reads only regular files and refuses a symbolic link anywhere on the
+// path below root: git commits a link, not the file it leads to, so a
+// data file read through a link could never be verified from the commit.
 func newWorkTree(root string) fs.FS { return workTree(root) }
 
 type workTree string
 
-// ReadFile reads a root-relative slash path.
-func (w workTree) ReadFile(name string) ([]byte, error) {
+// Stat describes a root-relative slash path without opening it.
+func (w workTree) Stat(name string) (fs.FileInfo, error) {
 	real, err := w.resolve(name)
+	if err != nil {
+		return nil, err // it names the path
+	}
+	return os.Stat(real)
+}
+
+// Open opens a root-relative slash path; only a regular file is opened, so
+// a named pipe cannot hang the read.
+func (w workTree) Open(name string) (fs.File, error) {
+	st, err := w.Stat(name)
 	if err != nil {
 		return nil, err
 	}
-	return os.ReadFile(real)
-}
-
-// Open opens a root-relative slash path.
-func (w workTree) Open(name string) (fs.File, error) {
-	real, err := w.resolve(name)
-	if err != nil {
-		return nil, &fs.PathError{Op: "open", Path: name, Err: err}
+	if !st.Mode().IsRegular() {
+		return nil, &fs.PathError{Op: "open", Path: name, Err: safefile.ErrNotRegular}
 	}
-	return os.Open(real)
+	return os.Open(filepath.Join(string(w), filepath.FromSlash(name)))
 }
 
-// resolve follows symbolic links and refuses a path that leaves the root.
+// errSymlink is the error of a data path through a symbolic link.
+var errSymlink = errors.New("is a symbolic link; git records the link, not the file it leads to, so the package could never be verified: commit the file itself")
+
+// resolve checks a root-relative slash path element by element: each must
+// exist and none may be a symbolic link. It returns the path on disk.
 func (w workTree) resolve(name string) (string, error) {
-	root := string(w)
-	real, err := filepath.EvalSymlinks(filepath.Join(root, filepath.FromSlash(name)))
-	if err != nil {
+	if !fs.ValidPath(name) {
+		return "", fmt.Errorf("%s is not a path inside the repository", excerpt.Cut(name))
+	}
+	at := string(w)
+	for _, e := range strings.Split(name, "/") {
+		at = filepath.Join(at, e)
+		st, err := os.Lstat(at)
 		if errors.Is(err, os.ErrNotExist) {
-			return "", fmt.Errorf("%s does not exist", name)
+			return "", fmt.Errorf("%s does not exist", excerpt.Cut(name))
 		}
-		return "", err
+		if err != nil {
+			return "", err
+		}
+		if st.Mode()&fs.ModeSymlink != 0 {
+			return "", fmt.Errorf("%s %w", excerpt.Cut(name), errSymlink)
+		}
 	}
-	realRoot, _ := filepath.EvalSymlinks(root)
-	if r, err := filepath.Rel(realRoot, real); err != nil || strings.HasPrefix(r, "..") {
-		return "", fmt.Errorf("%s leads outside the repository", name)
-	}
-	return real, nil
+	return at, nil
 }

@@ -8,12 +8,17 @@ import (
 	"path"
 	"strings"
 
+	"github.com/vouchcalc/vouch/internal/excerpt"
+
 	gast "github.com/yuin/goldmark/ast"
 	"github.com/yuin/goldmark/util"
 )
 
 // MaxImageBytes is the largest image a package embeds.
 const MaxImageBytes = 8 << 20
+
+// MaxDataBytes is the largest data file (csv, yaml) a calc reads.
+const MaxDataBytes = 32 << 20
 
 // imageTypes are the image files a package embeds, by extension.
 var imageTypes = map[string]string{
@@ -66,7 +71,6 @@ func (d *Doc) imageOff(img *gast.Image) int {
 // makes its data URI. An image on the network is an error: the package
 // would fetch it each time it is opened, and it could change.
 func (d *Doc) loadImages() {
-	read := d.dataReader()
 	for _, im := range d.images {
 		dest := string(im.node.Destination)
 		u, err := url.Parse(dest)
@@ -84,13 +88,9 @@ func (d *Doc) loadImages() {
 			d.errorf(im.off, "image %s: a package embeds PNG, JPEG, GIF, WebP and SVG images (.png .jpg .jpeg .gif .webp .svg)", dest)
 			continue
 		}
-		raw, err := read(name)
+		raw, err := d.readData(name, MaxImageBytes)
 		if err != nil {
-			d.errorf(im.off, "image %s: %v", dest, err)
-			continue
-		}
-		if len(raw) > MaxImageBytes {
-			d.errorf(im.off, "image %s is %d bytes; a package embeds images of at most %d bytes", dest, len(raw), MaxImageBytes)
+			d.errorf(im.off, "image %s: %v", excerpt.Cut(dest), err)
 			continue
 		}
 		im.uri = "data:" + mime + ";base64," + base64.StdEncoding.EncodeToString(raw)

@@ -3,12 +3,12 @@ package calcdoc
 import (
 	"fmt"
 	"io/fs"
-	"os"
 	"path/filepath"
 	"slices"
 	"strings"
 
 	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/internal/safefile"
 	"github.com/vouchcalc/vouch/units"
 )
 
@@ -17,7 +17,7 @@ func sprintf(format string, args ...any) string { return fmt.Sprintf(format, arg
 // ReadFile reads and evaluates a calc file. An unreadable file is an error;
 // everything wrong inside the file is in Doc.Errors.
 func ReadFile(path string) (*Doc, error) {
-	src, err := os.ReadFile(path)
+	src, err := safefile.Read(path, MaxFileBytes)
 	if err != nil {
 		return nil, err
 	}

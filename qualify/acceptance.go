@@ -11,6 +11,8 @@ import (
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/units"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // ExpectSuffix ends the name of the file that holds a calc's expected
@@ -84,7 +86,7 @@ func acceptanceChecks(opt Options) ([]Check, error) {
 // calc's own check lines are reported too.
 func runCase(calc string) ([]Check, error) {
 	expFile := strings.TrimSuffix(calc, ".calc.md") + ExpectSuffix
-	ysrc, err := os.ReadFile(expFile)
+	ysrc, err := safefile.Read(expFile, calcdoc.MaxFileBytes)
 	if err != nil {
 		return nil, fmt.Errorf("%s: no expected results: write them in %s", calc, filepath.Base(expFile))
 	}
@@ -92,7 +94,7 @@ func runCase(calc string) ([]Check, error) {
 	if err != nil {
 		return nil, err
 	}
-	src, err := os.ReadFile(calc)
+	src, err := safefile.Read(calc, calcdoc.MaxFileBytes)
 	if err != nil {
 		return nil, err
 	}

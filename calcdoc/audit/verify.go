@@ -6,11 +6,11 @@ import (
 	"fmt"
 	"github.com/vouchcalc/vouch/calcdoc"
 	"io/fs"
-	"os"
 	"path/filepath"
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 func usageErr(format string, args ...any) error {
@@ -58,8 +58,11 @@ type verifier struct {
 	repro   *reproduction
 }
 
+// MaxPackageBytes is the largest package or manifest file verify reads.
+const MaxPackageBytes = 256 << 20
+
 func newVerifier(pkgPath string, opt VerifyOptions) (*verifier, error) {
-	pkg, err := os.ReadFile(pkgPath)
+	pkg, err := safefile.Read(pkgPath, MaxPackageBytes)
 	if err != nil {
 		return nil, usageErr("package: %w", err)
 	}
@@ -67,7 +70,7 @@ func newVerifier(pkgPath string, opt VerifyOptions) (*verifier, error) {
 	if opt.Signers == "" {
 		return v, nil
 	}
-	data, err := os.ReadFile(opt.Signers)
+	data, err := safefile.Read(opt.Signers, provenance.MaxKeyFileBytes)
 	if err != nil {
 		return nil, usageErr("allowed signers: %w", err)
 	}
@@ -110,7 +113,7 @@ func (v *verifier) readManifest() bool {
 // there is one, with the manifest inside it.
 func (v *verifier) checkManifestFile() bool {
 	path := ManifestPath(v.path)
-	data, err := os.ReadFile(path)
+	data, err := safefile.Read(path, MaxPackageBytes)
 	if errors.Is(err, fs.ErrNotExist) {
 		v.rep.add(Note, "manifest", "no %s beside the package", filepath.Base(path))
 		return true

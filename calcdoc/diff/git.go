@@ -9,6 +9,8 @@ import (
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // renameSimilarity is the share of lines an earlier file must have in
@@ -58,7 +60,7 @@ func Revisions(path string, opt Options) (*Diff, error) {
 // name the file as the user gave it.
 func readWorkTree(repo *provenance.Repo, rel, shown string) (Side, error) {
 	path := filepath.Join(repo.Root(), filepath.FromSlash(rel))
-	src, err := os.ReadFile(path)
+	src, err := safefile.Read(path, calcdoc.MaxFileBytes)
 	if err != nil {
 		return Side{}, usageErr("%s: %v", rel, err)
 	}

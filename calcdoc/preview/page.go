@@ -18,6 +18,8 @@ import (
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // Timings of the live reload.
@@ -126,7 +128,7 @@ func (p *page) hashes() map[string][]byte {
 }
 
 func hashFile(file string) []byte {
-	b, err := os.ReadFile(file)
+	b, err := safefile.Read(file, calcdoc.MaxFileBytes)
 	if err != nil {
 		return nil
 	}
@@ -140,7 +142,7 @@ func hashFile(file string) []byte {
 func (s *Server) render(rel string) ([]byte, map[string][]byte) {
 	file := filepath.Join(s.root, filepath.FromSlash(rel))
 	inputs := map[string][]byte{file: hashFile(file)}
-	src, err := os.ReadFile(file)
+	src, err := safefile.Read(file, calcdoc.MaxFileBytes)
 	if err != nil {
 		return problemPage(rel, err.Error()), inputs
 	}

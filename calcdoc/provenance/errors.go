@@ -13,6 +13,9 @@ var (
 	ErrNoCommits = errors.New("repository has no commits")
 	// ErrNotAtCommit reports a file that did not exist at a commit.
 	ErrNotAtCommit = errors.New("file does not exist at the commit")
+	// ErrSymlink reports a file committed as a symbolic link: git holds the
+	// link, not the file it leads to, so its content cannot be verified.
+	ErrSymlink = errors.New("is committed as a symbolic link; commit the file itself")
 	// ErrUnknownRevision reports a revision name that resolves to no commit.
 	ErrUnknownRevision = errors.New("unknown revision")
 

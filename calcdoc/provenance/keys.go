@@ -8,6 +8,8 @@ import (
 	"os"
 
 	"golang.org/x/crypto/ssh"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 	"golang.org/x/crypto/ssh/agent"
 )
 
@@ -17,6 +19,10 @@ func Fingerprint(pub ssh.PublicKey) string {
 	return ssh.FingerprintSHA256(pub)
 }
 
+// MaxKeyFileBytes is the largest key, signature or allowed-signers file
+// read.
+const MaxKeyFileBytes = 1 << 20
+
 // LoadSigner returns a signer for an SSH key file. The file may hold an
 // unencrypted private key, or a passphrase-protected private key or a
 // public key (KEY.pub) whose private key is loaded in the ssh-agent
@@ -24,7 +30,7 @@ func Fingerprint(pub ssh.PublicKey) string {
 // A protected key that the agent lacks gives an error wrapping
 // ErrPassphrase that says to run ssh-add.
 func LoadSigner(keyfile string) (ssh.Signer, error) {
-	data, err := os.ReadFile(keyfile)
+	data, err := safefile.Read(keyfile, MaxKeyFileBytes)
 	if err != nil {
 		return nil, fmt.Errorf("signing key: %w", err)
 	}

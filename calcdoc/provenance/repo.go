@@ -13,8 +13,8 @@ import (
 
 	"github.com/go-git/go-git/v5"
 	"github.com/go-git/go-git/v5/plumbing"
-	"github.com/go-git/go-git/v5/plumbing/cache"
 	"github.com/go-git/go-git/v5/plumbing/filemode"
+	"github.com/go-git/go-git/v5/plumbing/cache"
 	"github.com/go-git/go-git/v5/plumbing/object"
 	"github.com/go-git/go-git/v5/storage/filesystem"
 )
@@ -135,8 +135,11 @@ func checkRel(rel string) error {
 		return ErrOutsideRepo
 	case rel == ".." || strings.HasPrefix(rel, "../"):
 		return ErrOutsideRepo
-	case rel == ".git" || strings.HasPrefix(rel, ".git/"):
-		return ErrOutsideRepo
+	}
+	for _, e := range strings.Split(rel, "/") {
+		if strings.EqualFold(e, ".git") {
+			return ErrOutsideRepo
+		}
 	}
 	return nil
 }
@@ -286,6 +289,9 @@ func (r *Repo) blobAt(commit, rel string) (plumbing.Hash, []byte, error) {
 	}
 	if err != nil {
 		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
+	}
+	if f.Mode == filemode.Symlink {
+		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrSymlink)
 	}
 	if b, ok := r.blobs.get(f.Hash); ok {
 		return f.Hash, b, nil

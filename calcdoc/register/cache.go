@@ -9,6 +9,8 @@ import (
 	"os"
 	"path/filepath"
 	"sort"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // cacheFile is the cache of a whole run, in the cache folder; a shard
@@ -35,7 +37,7 @@ func loadCache(out string) *cache {
 	files, _ := filepath.Glob(filepath.Join(cacheDir(out), "*.json"))
 	sort.Strings(files)
 	for _, f := range files {
-		b, err := os.ReadFile(f)
+		b, err := safefile.Read(f, calcdoc.MaxDataBytes)
 		if err != nil {
 			continue
 		}

@@ -3,11 +3,12 @@ package register
 import (
 	"crypto/sha256"
 	"encoding/hex"
-	"os"
 	"path/filepath"
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // cacheFormat names the layout of a cache entry; a new layout renders
@@ -58,7 +59,7 @@ func currentData(calcDir string, refs []DataRef) []DataRef {
 	out := make([]DataRef, len(refs))
 	for i, r := range refs {
 		out[i] = DataRef{Path: r.Path}
-		if b, err := os.ReadFile(filepath.Join(calcDir, filepath.FromSlash(r.Path))); err == nil {
+		if b, err := safefile.Read(filepath.Join(calcDir, filepath.FromSlash(r.Path)), calcdoc.MaxDataBytes); err == nil {
 			out[i].Hash = provenance.BlobHash(b)
 		}
 	}

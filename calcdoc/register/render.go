@@ -9,6 +9,8 @@ import (
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // CalcError is an error in a calc file, at its line and column.
@@ -44,7 +46,7 @@ type worker struct {
 func (w *worker) do(calc string) outcome {
 	opt := w.run.opt
 	path := filepath.Join(opt.Dir, filepath.FromSlash(calc))
-	src, err := os.ReadFile(path)
+	src, err := safefile.Read(path, calcdoc.MaxFileBytes)
 	if err != nil {
 		return outcome{entry: &Entry{Path: calc, Errors: []CalcError{{Msg: err.Error()}}}, rendered: true}
 	}

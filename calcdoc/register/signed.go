@@ -3,11 +3,13 @@ package register
 import (
 	"crypto/sha256"
 	"encoding/hex"
-	"os"
 	"path/filepath"
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
+
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // Signed is the state of the signed package kept beside a calc
@@ -34,7 +36,7 @@ type Signed struct {
 // current source.
 func (w *worker) signedStatus(e *Entry, path string, src []byte, old *Entry) {
 	pkg := filepath.Join(filepath.Dir(path), calcdoc.PackageName(path))
-	html, err := os.ReadFile(pkg)
+	html, err := safefile.Read(pkg, audit.MaxPackageBytes)
 	if err != nil {
 		e.Signed = nil
 		return
@@ -55,10 +57,10 @@ func (w *worker) signedStatus(e *Entry, path string, src []byte, old *Entry) {
 // and the engine.
 func (w *worker) signedKey(html []byte, pkg string) string {
 	h := sha256.New()
-	manifest, _ := os.ReadFile(audit.ManifestPath(pkg))
+	manifest, _ := safefile.Read(audit.ManifestPath(pkg), audit.MaxPackageBytes)
 	var signers []byte
 	if w.run.opt.Signers != "" {
-		signers, _ = os.ReadFile(w.run.opt.Signers)
+		signers, _ = safefile.Read(w.run.opt.Signers, provenance.MaxKeyFileBytes)
 	}
 	for _, part := range [][]byte{[]byte(cacheFormat), []byte(w.run.opt.Engine), html, manifest, signers} {
 		sum := sha256.Sum256(part)

@@ -6,12 +6,13 @@ import (
 	"os"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // loadCalc reads and evaluates a calc; a long sweep reports its progress on
 // stderr when stderr is a terminal.
 func loadCalc(path string, stderr io.Writer) (*calcdoc.Doc, error) {
-	src, err := os.ReadFile(path)
+	src, err := safefile.Read(path, calcdoc.MaxFileBytes)
 	if err != nil {
 		return nil, err
 	}

@@ -4,11 +4,12 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"os"
 	"path/filepath"
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 func cmdSign(args []string, stdout, stderr io.Writer) int {
@@ -35,7 +36,7 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 	opt := audit.SignOptions{Role: *role, Key: *key, Signed: *signedAt, Withdraw: *withdraw,
 		VerifyOptions: audit.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers}}
 	if *sigFile != "" {
-		if opt.Signature, err = os.ReadFile(*sigFile); err != nil {
+		if opt.Signature, err = safefile.Read(*sigFile, provenance.MaxKeyFileBytes); err != nil {
 			fmt.Fprintf(stderr, "vouch: %v\n", err)
 			return exitUsage
 		}
