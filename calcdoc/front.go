@@ -10,6 +10,8 @@ import (
 	"go.yaml.in/yaml/v3"
 
 	"github.com/vouchcalc/vouch/units"
+
+	"github.com/vouchcalc/vouch/internal/excerpt"
 )
 
 // Front is the calc file's front matter.
@@ -128,7 +130,7 @@ func (f *Front) set(k, v *yaml.Node) []*frontErr {
 	case "summary":
 		return f.setSummary(v)
 	default:
-		return nodeErr(k, "unknown front-matter key %q; known keys are %s", k.Value, strings.Join(sorted(frontKeys), ", "))
+		return nodeErr(k, "unknown front-matter key %s; known keys are %s", excerpt.Quote(k.Value), strings.Join(sorted(frontKeys), ", "))
 	}
 	return nil
 }
@@ -149,7 +151,7 @@ func scalar(k, v *yaml.Node) (string, []*frontErr) {
 func (f *Front) setDigits(v *yaml.Node) []*frontErr {
 	var n int
 	if v.Kind != yaml.ScalarNode || v.Decode(&n) != nil || n < 2 || n > 15 {
-		return nodeErr(v, "digits must be a whole number from 2 to 15, not %q", v.Value)
+		return nodeErr(v, "digits must be a whole number from 2 to 15, not %s", excerpt.Quote(v.Value))
 	}
 	f.Digits = n
 	return nil
@@ -163,11 +165,11 @@ func (f *Front) setAtmosphere(k, v *yaml.Node) []*frontErr {
 	num, unit, ok := strings.Cut(strings.TrimSpace(s), " ")
 	var x float64
 	if _, err := fmt.Sscan(num, &x); !ok || err != nil {
-		return nodeErr(v, "atmosphere must be a pressure such as 101.325 kPa, not %q", s)
+		return nodeErr(v, "atmosphere must be a pressure such as 101.325 kPa, not %s", excerpt.Quote(s))
 	}
 	u, err := units.Parse(strings.TrimSpace(unit))
 	if err != nil || u.Dim != units.DimPressure || u.Kind == units.Gauge || x <= 0 {
-		return nodeErr(v, "atmosphere must be a positive absolute pressure such as 101.325 kPa, not %q", s)
+		return nodeErr(v, "atmosphere must be a positive absolute pressure such as 101.325 kPa, not %s", excerpt.Quote(s))
 	}
 	f.Atmosphere = s
 	f.Ctx = units.Context{Atmosphere: u.Q(x, units.Context{}).V}
@@ -183,7 +185,7 @@ func (f *Front) setPeople(v *yaml.Node) []*frontErr {
 		k, p := v.Content[i], v.Content[i+1]
 		dst := map[string]*Person{"preparer": &f.People.Preparer, "checker": &f.People.Checker, "approver": &f.People.Approver}[k.Value]
 		if dst == nil {
-			errs = append(errs, nodeErr(k, "unknown role %q under people; the roles are %s", k.Value, strings.Join(peopleKeys, ", "))...)
+			errs = append(errs, nodeErr(k, "unknown role %s under people; the roles are %s", excerpt.Quote(k.Value), strings.Join(peopleKeys, ", "))...)
 			continue
 		}
 		s, e := scalar(k, p)
@@ -193,7 +195,7 @@ func (f *Front) setPeople(v *yaml.Node) []*frontErr {
 		}
 		addr, err := mail.ParseAddress(s)
 		if err != nil {
-			errs = append(errs, nodeErr(p, "%s must be written Name <email>, not %q", k.Value, s)...)
+			errs = append(errs, nodeErr(p, "%s must be written Name <email>, not %s", k.Value, excerpt.Quote(s))...)
 			continue
 		}
 		*dst = Person{Name: addr.Name, Email: addr.Address, Text: s}

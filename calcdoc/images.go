@@ -75,17 +75,17 @@ func (d *Doc) loadImages() {
 		dest := string(im.node.Destination)
 		u, err := url.Parse(dest)
 		if err != nil || u.Scheme != "" || u.Host != "" || strings.HasPrefix(dest, "//") {
-			d.errorf(im.off, "image %s: a package fetches nothing from the network; put the image in the repository and give its path", dest)
+			d.errorf(im.off, "image %s: a package fetches nothing from the network; put the image in the repository and give its path", excerpt.Cut(dest))
 			continue
 		}
 		name, err := url.PathUnescape(u.Path)
 		if err != nil || name == "" {
-			d.errorf(im.off, "image %q: give the path of an image file in the repository", dest)
+			d.errorf(im.off, "image %s: give the path of an image file in the repository", excerpt.Quote(dest))
 			continue
 		}
 		mime, ok := imageTypes[strings.ToLower(path.Ext(name))]
 		if !ok {
-			d.errorf(im.off, "image %s: a package embeds PNG, JPEG, GIF, WebP and SVG images (.png .jpg .jpeg .gif .webp .svg)", dest)
+			d.errorf(im.off, "image %s: a package embeds PNG, JPEG, GIF, WebP and SVG images (.png .jpg .jpeg .gif .webp .svg)", excerpt.Cut(dest))
 			continue
 		}
 		raw, err := d.readData(name, MaxImageBytes)

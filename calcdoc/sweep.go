@@ -8,6 +8,8 @@ import (
 
 	"github.com/vouchcalc/vouch/eval"
 	"github.com/vouchcalc/vouch/units"
+
+	"github.com/vouchcalc/vouch/internal/excerpt"
 )
 
 // Sweep is a `sweep` block: one input varied over a range, with chosen
@@ -80,7 +82,7 @@ func (d *Doc) sweepLine(sw *Sweep, code string, off int) {
 		}
 		sw.plots = append(sw.plots, pl)
 	default:
-		d.errorf(off, "unknown sweep line %q; a sweep has vary, show and plot lines", word)
+		d.errorf(off, "unknown sweep line %s; a sweep has vary, show and plot lines", excerpt.Quote(word))
 	}
 }
 

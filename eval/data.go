@@ -11,6 +11,8 @@ import (
 	"unicode"
 
 	"github.com/vouchcalc/vouch/units"
+
+	"github.com/vouchcalc/vouch/internal/excerpt"
 )
 
 // DataReader reads a data file named in a calc. The document supplies it:
@@ -46,11 +48,11 @@ func (e *Engine) readTable(args []any) (any, error) {
 		return nil, errorf("csv needs a file path in quotes, not %s", kindOf(args[0]))
 	}
 	if e.Data == nil {
-		return nil, errorf("csv(%q): this calc cannot read data files", path)
+		return nil, errorf("csv(%s): this calc cannot read data files", excerpt.Quote(path))
 	}
 	raw, err := e.Data(path)
 	if err != nil {
-		return nil, errorf("csv(%q): %v", path, err)
+		return nil, errorf("csv(%s): %v", excerpt.Quote(path), err)
 	}
 	return parseTable(path, raw, e.Ctx)
 }
@@ -100,7 +102,7 @@ func parseHeader(h string) (string, units.Unit, error) {
 		return "", units.Unit{}, errorf("a column needs a name, such as T_cw [degC]")
 	}
 	if strings.IndexFunc(name, unicode.IsControl) >= 0 {
-		return "", units.Unit{}, errorf("column name %q holds a control character", name)
+		return "", units.Unit{}, errorf("column name %s holds a control character", excerpt.Quote(name))
 	}
 	if !ok {
 		return name, units.Unit{Factor: 1}, nil
@@ -119,7 +121,7 @@ func (t *Table) addRow(rec []string, ctx units.Context) error {
 	for i, s := range rec {
 		v, err := strconv.ParseFloat(strings.TrimSpace(s), 64)
 		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-			return errorf("column %s: %q is not a number", t.Names[i], s)
+			return errorf("column %s: %s is not a number", excerpt.Cut(t.Names[i]), excerpt.Quote(s))
 		}
 		q := t.Units[i].Q(v, ctx)
 		if math.IsInf(q.V, 0) {
@@ -137,7 +139,7 @@ func (t *Table) column(name string) ([]units.Quantity, error) {
 			return t.Cols[i], nil
 		}
 	}
-	return nil, errorf("%s has no column %q; its columns are %s", t.Path, name, strings.Join(t.Names, ", "))
+	return nil, errorf("%s has no column %s; its columns are %s", excerpt.Cut(t.Path), excerpt.Quote(name), excerpt.Cut(strings.Join(t.Names, ", ")))
 }
 
 // callInterp interpolates linearly: interp(table, "x", x, "y").

@@ -7,6 +7,8 @@ import (
 	"strings"
 
 	"github.com/vouchcalc/vouch/units"
+
+	"github.com/vouchcalc/vouch/internal/excerpt"
 )
 
 // KeyValue is one "key: value" pair of a YAML data file, as the document
@@ -53,11 +55,11 @@ func (e *Engine) readValues(args []any) (any, error) {
 		return nil, errorf("yaml needs a file path in quotes, not %s", kindOf(args[0]))
 	}
 	if e.YAML == nil {
-		return nil, errorf("yaml(%q): this calc cannot read data files", path)
+		return nil, errorf("yaml(%s): this calc cannot read data files", excerpt.Quote(path))
 	}
 	pairs, err := e.YAML(path)
 	if err != nil {
-		return nil, errorf("yaml(%q): %v", path, err)
+		return nil, errorf("yaml(%s): %v", excerpt.Quote(path), err)
 	}
 	v := &Values{Path: path, fields: map[string]any{}}
 	for _, kv := range pairs {
@@ -85,7 +87,7 @@ func valueOf(kv KeyValue, ctx units.Context) (any, error) {
 	num, unit, _ := strings.Cut(strings.TrimSpace(kv.Value), " ")
 	x, err := strconv.ParseFloat(num, 64)
 	if err != nil || x != x || x > 1e308 || x < -1e308 {
-		return nil, errorf("%q is not a number with an optional unit (write text in quotes)", kv.Value)
+		return nil, errorf("%s is not a number with an optional unit (write text in quotes)", excerpt.Quote(kv.Value))
 	}
 	if strings.TrimSpace(unit) == "" {
 		return units.Num(x), nil
