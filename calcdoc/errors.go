@@ -111,6 +111,9 @@ func (x lineIndex) pos(src []byte, off int) Pos {
 	off = min(max(off, 0), len(src))
 	i := sort.Search(len(x.starts), func(i int) bool { return x.starts[i] > off }) - 1
 	col := utf8.RuneCount(src[x.starts[i]:off]) + 1
+	if i == 0 && off >= bomLen(src) && bomLen(src) > 0 {
+		col-- // the byte-order mark takes no column
+	}
 	return Pos{Off: off, Line: i + 1, Col: col}
 }
 
@@ -120,6 +123,9 @@ func (x lineIndex) text(src []byte, n int) string {
 	end := len(src)
 	if n < len(x.starts) {
 		end = x.starts[n] - 1
+	}
+	if n == 1 {
+		start += bomLen(src)
 	}
 	return strings.TrimRight(string(src[start:end]), "\r")
 }

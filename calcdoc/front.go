@@ -56,8 +56,11 @@ const DefaultDigits = 4
 // splitFront finds YAML front matter between --- lines at the start of src.
 // It returns the YAML text, the byte offset where it starts, and the end of
 // the closing --- line (0 when there is no front matter).
+// A byte-order mark before the first --- is read past, and spaces or tabs
+// after --- are allowed, so neither hides the front matter.
 func splitFront(src []byte) (yamlText []byte, start, end int, err *frontErr) {
-	if !bytes.HasPrefix(src, []byte("---\n")) && !bytes.HasPrefix(src, []byte("---\r\n")) {
+	first, _, _ := bytes.Cut(src[bomLen(src):], []byte("\n"))
+	if strings.TrimRight(string(first), " \t\r") != "---" {
 		return nil, 0, 0, nil
 	}
 	start = bytes.IndexByte(src, '\n') + 1
@@ -67,7 +70,7 @@ func splitFront(src []byte) (yamlText []byte, start, end int, err *frontErr) {
 		if j >= 0 {
 			lineEnd = i + j
 		}
-		line := strings.TrimRight(string(src[i:lineEnd]), "\r")
+		line := strings.TrimRight(string(src[i:lineEnd]), " \t\r")
 		if line == "---" || line == "..." {
 			return src[start:i], start, min(lineEnd+1, len(src)), nil
 		}

@@ -90,9 +90,14 @@ func Read(path string, src []byte) *Doc {
 		d.errorf(firstInvalid(src), "file is not valid UTF-8 text")
 		return d
 	}
+	if at := bareCR(src); at >= 0 {
+		d.errorf(at, "a line ends with a bare carriage return (CR): vouch reads LF or CRLF line ends; save the file with LF line ends")
+		return d
+	}
 	d.readFront()
 	d.mdTree = d.md.Parser().Parse(text.NewReader(d.body))
 	d.collect()
+	d.checkLookalikes()
 	return d
 }
 
@@ -123,6 +128,10 @@ func (d *Doc) readFront() {
 		return
 	}
 	if end == 0 {
+		d.checkLateFront()
+		if n := bomLen(d.Src); n > 0 { // blanked: the same offsets, no mark in the text
+			d.body = append(bytes.Repeat([]byte(" "), n), d.Src[n:]...)
+		}
 		return
 	}
 	d.body = append([]byte(nil), d.Src...)

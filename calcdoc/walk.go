@@ -12,6 +12,7 @@ import (
 // prose of the diff (calcFenceLines). Nothing matches two walks by index.
 type fences struct {
 	calcs, sweeps, diagrams []*gast.FencedCodeBlock
+	others                  []*gast.FencedCodeBlock // every other fenced block
 	spans                   []*gast.CodeSpan
 	images                  []*gast.Image
 }
@@ -36,6 +37,8 @@ func (t fenceFinder) Transform(doc *gast.Document, reader text.Reader, _ parser.
 				t.f.sweeps = append(t.f.sweeps, v)
 			case "diagram":
 				t.f.diagrams = append(t.f.diagrams, v)
+			default:
+				t.f.others = append(t.f.others, v)
 			}
 		case *gast.CodeSpan:
 			t.f.spans = append(t.f.spans, v)
