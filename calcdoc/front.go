@@ -9,9 +9,8 @@ import (
 
 	"go.yaml.in/yaml/v3"
 
-	"github.com/vouchcalc/vouch/units"
-
 	"github.com/vouchcalc/vouch/internal/excerpt"
+	"github.com/vouchcalc/vouch/units"
 )
 
 // Front is the calc file's front matter.
@@ -84,6 +83,10 @@ type frontErr struct {
 	line int // 1-based line within the YAML text
 	col  int
 	msg  string
+	// refLine, when set, is a line of the YAML text the message names: msg
+	// holds a NUL byte where its line in the file goes (user text in a
+	// message is quoted with control characters escaped, so it holds none).
+	refLine int
 }
 
 // parseFront decodes and checks the front matter. Errors carry positions
@@ -101,7 +104,7 @@ func parseFront(text []byte) (Front, []*frontErr) {
 	if m.Kind != yaml.MappingNode {
 		return f, []*frontErr{{line: m.Line, col: m.Column, msg: "front matter must be a list of key: value lines"}}
 	}
-	var errs []*frontErr
+	errs := dropRepeatedKeys(m)
 	for i := 0; i+1 < len(m.Content); i += 2 {
 		k, v := m.Content[i], m.Content[i+1]
 		if e := f.set(k, v); e != nil {
@@ -109,6 +112,39 @@ func parseFront(text []byte) (Front, []*frontErr) {
 		}
 	}
 	return f, errs
+}
+
+// dropRepeatedKeys reports every key given twice in one mapping, at any
+// depth of n and in file order, at the line of its second use, and removes
+// the repeats so that the first one counts and nothing is silently
+// overridden.
+func dropRepeatedKeys(n *yaml.Node) []*frontErr {
+	if n.Kind != yaml.MappingNode {
+		var errs []*frontErr
+		for _, c := range n.Content {
+			errs = append(errs, dropRepeatedKeys(c)...)
+		}
+		return errs
+	}
+	var errs []*frontErr
+	first := map[string]int{}
+	kept := n.Content[:0:0]
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		k, v := n.Content[i], n.Content[i+1]
+		if line, dup := first[k.Value]; dup && k.Kind == yaml.ScalarNode {
+			e := nodeErr(k, "%s is already given on line \x00; give each key once", excerpt.Cut(k.Value))
+			e[0].refLine = line
+			errs = append(errs, e...)
+			continue
+		}
+		if k.Kind == yaml.ScalarNode {
+			first[k.Value] = k.Line
+		}
+		kept = append(kept, k, v)
+		errs = append(errs, dropRepeatedKeys(v)...)
+	}
+	n.Content = kept
+	return errs
 }
 
 func nodeErr(n *yaml.Node, format string, args ...any) []*frontErr {

@@ -147,6 +147,9 @@ func (d *Doc) readFront() {
 		d.Front.SummaryLine += firstLine - 1
 	}
 	for _, e := range errs {
+		if e.refLine > 0 {
+			e.msg = strings.Replace(e.msg, "\x00", sprintf("%d", firstLine+e.refLine-1), 1)
+		}
 		d.Errors = append(d.Errors, &Error{Pos: Pos{Off: start, Line: firstLine + e.line - 1, Col: e.col}, Msg: e.msg})
 	}
 }

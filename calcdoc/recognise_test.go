@@ -73,3 +73,27 @@ func TestFrontAndFenceVariants(t *testing.T) {
 		}
 	}
 }
+
+// TestDuplicateFrontMatterKey is issue 11 item 6: a key given twice, at
+// the top or under people, is an error at the line of its second use, and
+// the first value is kept (nothing silently overridden).
+func TestDuplicateFrontMatterKey(t *testing.T) {
+	src := "---\ntitle: Deaerator (fictional)\npeople:\n  preparer: P. Writer <p@example.com>\n  preparer: Q. Other <q@example.com>\ntitle: Other\n\"a%d\\x00\": 1\n\"a%d\\x00\": 2\n---\n"
+	d := Read("x.calc.md", []byte(src))
+	want := []string{
+		"5:3: preparer is already given on line 4; give each key once",
+		"6:1: title is already given on line 2; give each key once",
+		`8:1: "a%d\x00" is already given on line 7; give each key once`,
+	}
+	if len(d.Errors) != len(want)+1 { // and the unknown key a%d\x00, once
+		t.Fatalf("errors %v", d.Errors.Format("x", d.Src))
+	}
+	for i, w := range want {
+		if !strings.HasPrefix(d.Errors[i].Error(), "x.calc.md:"+w) && !strings.HasPrefix(d.Errors[i].Error(), w) {
+			t.Errorf("error %d: %s, want %s", i, d.Errors[i], w)
+		}
+	}
+	if d.Front.Title != "Deaerator (fictional)" || d.Front.People.Preparer.Name != "P. Writer" {
+		t.Errorf("front %+v", d.Front)
+	}
+}
