@@ -42,6 +42,14 @@ func (d *Doc) Evaluate() {
 	d.useWorkTree()
 	eng := eval.NewEngine(d.Front.Ctx)
 	eng.Data, eng.YAML = d.dataReader(), d.valuesReader()
+	eng.Ahead = map[string]int{}
+	for _, it := range d.Items {
+		if s := it.Stmt; s != nil && s.Kind == eval.Def && s.Name != "" {
+			if _, seen := eng.Ahead[s.Name]; !seen {
+				eng.Ahead[s.Name] = s.Line
+			}
+		}
+	}
 	for _, it := range d.Items {
 		if it.Err {
 			if it.Stmt.Kind == eval.Def {

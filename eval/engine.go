@@ -36,6 +36,10 @@ type Engine struct {
 	Ctx   units.Context
 	Data  DataReader   // reads csv() files; nil: data files are refused
 	YAML  ValuesReader // reads yaml() files; nil: data files are refused
+	// Ahead, when set, gives the line of every name's definition in the
+	// whole file, so that a name used above its definition is reported as
+	// defined later rather than undefined.
+	Ahead map[string]int
 	names *nameTable   // name → slot number (slots.go)
 	slots []slot
 	args  []any     // the argument stack of function calls (resolve.go)

@@ -107,6 +107,9 @@ func (c *scope) ident(v *ast.IdentifierNode) (any, *Error) {
 	if val, ok := c.valueOf(v.Value); ok {
 		return val, nil
 	}
+	if line, ok := c.e.Ahead[v.Value]; ok && line > c.s.Line {
+		return nil, c.errAt(v, "%s is defined later, on line %d; a line can use only names defined above it", v.Value, line)
+	}
 	msg := "undefined name " + v.Value
 	if near := units.Nearest(v.Value, c.e.Names()); near != "" {
 		msg += "; did you mean " + near + "?"
