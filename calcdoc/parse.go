@@ -18,8 +18,10 @@ import (
 	"github.com/vouchcalc/vouch/eval"
 )
 
-// MaxFileBytes is the largest calc file read.
-const MaxFileBytes = 8 << 20
+// MaxFileBytes is the largest calc file read: 1 MiB, some twenty times the
+// largest calc of the examples, so that reading, evaluating and rendering
+// stay within a few hundred megabytes.
+const MaxFileBytes = 1 << 20
 
 // Item is one evaluated element of the calc, in file order: a calc line or
 // an inline value.
@@ -88,6 +90,10 @@ func Read(path string, src []byte) *Doc {
 	}
 	if !utf8.Valid(src) {
 		d.errorf(firstInvalid(src), "file is not valid UTF-8 text")
+		return d
+	}
+	if off, msg, ok := checkNesting(src); !ok {
+		d.errorf(off, "%s", msg)
 		return d
 	}
 	if at := bareCR(src); at >= 0 {

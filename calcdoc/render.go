@@ -2,6 +2,7 @@ package calcdoc
 
 import (
 	"bytes"
+	"errors"
 	"html/template"
 	"sort"
 
@@ -108,6 +109,12 @@ var packageTemplate = template.Must(templates.Package(template.FuncMap{"trusted"
 // Render renders the package of an evaluated calc without errors. It
 // reads nothing and runs no git: the stamp comes with the options.
 func (d *Doc) Render(opt RenderOptions) (*Package, error) {
+	if d.mdTree == nil { // the file was refused before it was parsed
+		if err := d.Errors.Err(); err != nil {
+			return nil, err
+		}
+		return nil, errors.New("calcdoc: Render of a calc that was not read")
+	}
 	body, err := d.renderBody()
 	if err != nil {
 		return nil, err

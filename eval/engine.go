@@ -33,14 +33,14 @@ type Outcome struct {
 
 // Engine evaluates statements in file order and holds the defined names.
 type Engine struct {
-	Ctx   units.Context
-	Data  DataReader   // reads csv() files; nil: data files are refused
-	YAML  ValuesReader // reads yaml() files; nil: data files are refused
+	Ctx  units.Context
+	Data DataReader   // reads csv() files; nil: data files are refused
+	YAML ValuesReader // reads yaml() files; nil: data files are refused
 	// Ahead, when set, gives the line of every name's definition in the
 	// whole file, so that a name used above its definition is reported as
 	// defined later rather than undefined.
 	Ahead map[string]int
-	names *nameTable   // name → slot number (slots.go)
+	names *nameTable // name → slot number (slots.go)
 	slots []slot
 	args  []any     // the argument stack of function calls (resolve.go)
 	outs  []Outcome // room for the next outcomes (newOutcome)
