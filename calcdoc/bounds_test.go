@@ -36,7 +36,10 @@ func readCalc(t *testing.T, dir, calc string) *Doc {
 // nothing large), and a message quoting a 1 MB field carries an excerpt.
 func TestDataFileSizeCapped(t *testing.T) {
 	dir := writeTree(t, map[string]string{
-		"c.calc.md": "```calc\nd = csv(\"big.csv\")\ne = csv(\"field.csv\")\nf = yaml(\"v.yaml\")\n```\n",
+		"c.calc.md": "```calc\nd = csv(\"big.csv\")\ne = csv(\"field.csv\")\nf = yaml(\"v.yaml\")\ng = csv(\"unit.csv\")\nh = yaml(\"u.yaml\")\ni = csv(\"name.csv\")\n```\n",
+		"unit.csv":  "x [" + strings.Repeat("m", 1<<20) + "]\n1\n2\n",
+		"u.yaml":    "a: 1 " + strings.Repeat("k", 1<<20) + "\n",
+		"name.csv":  strings.Repeat("n", 1<<20) + " [m]\n1\n2\n",
 		"field.csv": "x [m]\n" + strings.Repeat("z", 1<<20) + "\n",
 		"v.yaml":    "a: " + strings.Repeat("w", 1<<20) + "\n",
 	})
@@ -53,8 +56,8 @@ func TestDataFileSizeCapped(t *testing.T) {
 	if !strings.Contains(all, "the limit is 33554432 bytes") {
 		t.Errorf("no size cap in\n%s", all)
 	}
-	if len(d.Errors) != 3 || len(all) > 4000 {
-		t.Errorf("%d errors, %d bytes of messages; want 3 short ones", len(d.Errors), len(all))
+	if len(d.Errors) != 6 || len(all) > 6000 {
+		t.Errorf("%d errors, %d bytes of messages; want 6 short ones:\n%.6000s", len(d.Errors), len(all), all)
 	}
 	for _, e := range d.Errors[1:] {
 		if !strings.Contains(e.Msg, "(1048576 bytes)") {

@@ -126,10 +126,10 @@ func keyValues(raw []byte) ([]eval.KeyValue, error) {
 	for i := 0; i+1 < len(m.Content); i += 2 {
 		k, v := m.Content[i], m.Content[i+1]
 		if v.Kind != yaml.ScalarNode || k.Kind != yaml.ScalarNode {
-			return nil, fmt.Errorf("line %d: %s: a value must be a number, a quantity such as 12.5 MPa, or text in quotes", k.Line, k.Value)
+			return nil, fmt.Errorf("line %d: %s: a value must be a number, a quantity such as 12.5 MPa, or text in quotes", k.Line, excerpt.Cut(k.Value))
 		}
 		if first, dup := seen[k.Value]; dup {
-			return nil, fmt.Errorf("line %d: %s is already given on line %d", k.Line, k.Value, first)
+			return nil, fmt.Errorf("line %d: %s is already given on line %d", k.Line, excerpt.Cut(k.Value), first)
 		}
 		seen[k.Value] = k.Line
 		quoted := v.Style&(yaml.DoubleQuotedStyle|yaml.SingleQuotedStyle) != 0

@@ -95,6 +95,15 @@ func parseTable(path string, raw []byte, ctx units.Context) (*Table, error) {
 	return t, nil
 }
 
+// dataUnit parses a unit written in a data file; a unit text too long to
+// be one is refused with an excerpt, so no message carries a whole field.
+func dataUnit(text string) (units.Unit, error) {
+	if len(text) > excerpt.Max {
+		return units.Unit{}, errorf("%s is not a unit", excerpt.Quote(text))
+	}
+	return units.ParseCached(text)
+}
+
 func parseHeader(h string) (string, units.Unit, error) {
 	name, unit, ok := strings.Cut(strings.TrimSpace(h), "[")
 	name = strings.TrimSpace(name)
@@ -104,10 +113,13 @@ func parseHeader(h string) (string, units.Unit, error) {
 	if strings.IndexFunc(name, unicode.IsControl) >= 0 {
 		return "", units.Unit{}, errorf("column name %s holds a control character", excerpt.Quote(name))
 	}
+	if len(name) > excerpt.Max {
+		return "", units.Unit{}, errorf("column name %s is longer than %d bytes", excerpt.Quote(name), excerpt.Max)
+	}
 	if !ok {
 		return name, units.Unit{Factor: 1}, nil
 	}
-	u, err := units.ParseCached(strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(unit), "]")))
+	u, err := dataUnit(strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(unit), "]")))
 	if err != nil {
 		return "", units.Unit{}, err
 	}
@@ -125,7 +137,7 @@ func (t *Table) addRow(rec []string, ctx units.Context) error {
 		}
 		q := t.Units[i].Q(v, ctx)
 		if math.IsInf(q.V, 0) {
-			return errorf("column %s: %s in its unit is beyond the range of numbers", t.Names[i], strings.TrimSpace(s))
+			return errorf("column %s: %s in its unit is beyond the range of numbers", t.Names[i], excerpt.Cut(strings.TrimSpace(s)))
 		}
 		t.Cols[i] = append(t.Cols[i], q)
 		t.Text[i] = append(t.Text[i], strings.TrimSpace(s))

@@ -65,7 +65,7 @@ func (e *Engine) readValues(args []any) (any, error) {
 	for _, kv := range pairs {
 		x, err := valueOf(kv, e.Ctx)
 		if err != nil {
-			return nil, errorf("%s:%d: %s: %v", path, kv.Line, kv.Key, err)
+			return nil, errorf("%s:%d: %s: %v", path, kv.Line, excerpt.Cut(kv.Key), err)
 		}
 		v.fields[kv.Key] = x
 		v.names = append(v.names, kv.Key)
@@ -92,13 +92,13 @@ func valueOf(kv KeyValue, ctx units.Context) (any, error) {
 	if strings.TrimSpace(unit) == "" {
 		return units.Num(x), nil
 	}
-	u, err := units.ParseCached(strings.TrimSpace(unit))
+	u, err := dataUnit(strings.TrimSpace(unit))
 	if err != nil {
 		return nil, err
 	}
 	q := u.Q(x, ctx)
 	if math.IsInf(q.V, 0) {
-		return nil, errorf("%s is beyond the range of numbers in SI units", strings.TrimSpace(kv.Value))
+		return nil, errorf("%s is beyond the range of numbers in SI units", excerpt.Cut(strings.TrimSpace(kv.Value)))
 	}
 	return q, nil
 }
