@@ -17,6 +17,8 @@ import (
 	"github.com/go-git/go-git/v5/plumbing/filemode"
 	"github.com/go-git/go-git/v5/plumbing/object"
 	"github.com/go-git/go-git/v5/storage/filesystem"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // Repo is a git repository opened from a path inside its work tree.
@@ -194,6 +196,10 @@ func BlobHash(data []byte) string {
 	return plumbing.ComputeHash(plumbing.BlobObject, data).String()
 }
 
+// MaxWorkFileBytes is the largest work-tree file FileState hashes: the
+// largest file a calc reads (a data file) is smaller.
+const MaxWorkFileBytes = 64 << 20
+
 // FileState compares the work-tree file rel (slash-separated, relative to the
 // root) with its committed version at HEAD. It returns the blob hash of the
 // bytes on disk, the blob hash at HEAD ("" when HEAD does not hold the file,
@@ -206,7 +212,7 @@ func (r *Repo) FileState(rel string) (blobHash, committedHash string, dirty bool
 	if err := checkRel(rel); err != nil {
 		return "", "", false, fmt.Errorf("file %s and repository %s: %w", rel, r.root, err)
 	}
-	data, err := os.ReadFile(filepath.Join(r.root, filepath.FromSlash(rel)))
+	data, err := safefile.Read(filepath.Join(r.root, filepath.FromSlash(rel)), MaxWorkFileBytes)
 	if err != nil {
 		return "", "", false, fmt.Errorf("file state of %s: %w", rel, err)
 	}

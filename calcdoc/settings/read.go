@@ -9,6 +9,8 @@ import (
 	"strings"
 
 	"go.yaml.in/yaml/v3"
+
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // MaxSize is the largest settings file read, in bytes.
@@ -22,7 +24,7 @@ var topKeys = []string{"firm", "paper", "caution", "display", "us_power", "front
 // gives Default. The file's bytes are returned with the settings so that a
 // caller can hash or quote it.
 func Load(fsys fs.FS, root string) (*Settings, []byte, error) {
-	src, err := fs.ReadFile(fsys, FileName)
+	src, err := safefile.ReadFS(fsys, FileName, MaxSize)
 	if errors.Is(err, fs.ErrNotExist) {
 		return Default(), nil, nil
 	}

@@ -12,6 +12,7 @@ import (
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 	"github.com/vouchcalc/vouch/internal/safefile"
+	"github.com/vouchcalc/vouch/internal/testkit"
 )
 
 // TestCommandLinePathsNotRegular is issue 11 item 10: every command that
@@ -24,10 +25,18 @@ func TestCommandLinePathsNotRegular(t *testing.T) {
 	if err := syscall.Mkfifo(fifo, 0o600); err != nil {
 		t.Skip("no named pipes here:", err)
 	}
+	r := testkit.NewRepo(t) // a repository whose vouch.yaml is a named pipe
+	r.Write("c.calc.md", "```calc\na = 1 m\n```\n")
+	r.Commit("calc")
+	repo := r.Dir
+	if err := syscall.Mkfifo(filepath.Join(repo, "vouch.yaml"), 0o600); err != nil {
+		t.Fatal(err)
+	}
 	pkg := filepath.Join(dir, "x.html")
 	os.WriteFile(pkg, []byte("<html></html>"), 0o600)
 	cases := [][]string{
 		{"run", "/dev/zero"},
+		{"new", filepath.Join(repo, "d.calc.md")},
 		{"run", fifo},
 		{"render", fifo, "-o", dir},
 		{"verify", "/dev/zero"},

@@ -27,7 +27,7 @@ var allowed = map[string][]string{
 	"internal/safefile":  {},
 	"internal/excerpt":   {},
 	"calcdoc/provenance": {"internal/safefile", "github.com/go-git/go-git/v5", "golang.org/x/crypto"},
-	"calcdoc/settings":   {"go.yaml.in/yaml/v3"},
+	"calcdoc/settings":   {"internal/safefile", "go.yaml.in/yaml/v3"},
 	"calcdoc/starter":    {"calcdoc/settings", "templates", "go.yaml.in/yaml/v3"},
 	"calcdoc/register":   {"internal/safefile", "calcdoc", "calcdoc/audit", "calcdoc/provenance", "templates"},
 	"calcdoc/preview":    {"internal/safefile", "calcdoc", "calcdoc/audit"},
