@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/internal/safefile"
 	"github.com/vouchcalc/vouch/internal/testkit"
 )
 
@@ -36,5 +37,28 @@ func TestCommittedSymlinkDataFile(t *testing.T) {
 	d, _ = ReadFile(r.Path("c.calc.md"))
 	if len(d.Errors) != 1 || !strings.Contains(d.Errors[0].Msg, "is a symbolic link") {
 		t.Errorf("from the work tree: %v", d.Errors)
+	}
+}
+
+// TestCommittedDataFileCapped is issue 11 item 9 for verify and diff: a
+// blob in a commit is measured before it is read, so one over the cap is
+// refused without loading it.
+func TestCommittedDataFileCapped(t *testing.T) {
+	testkit.NeedTool(t, "git")
+	r := testkit.NewRepo(t)
+	r.Write("big.csv", strings.Repeat("1\n", 1000))
+	commit := r.Commit("a data file")
+	repo, err := provenance.Open(r.Dir)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n, err := repo.SizeAt(commit, "big.csv"); n != 2000 || err != nil {
+		t.Errorf("SizeAt = %d, %v", n, err)
+	}
+	if _, err := safefile.ReadFS(repo.CommitFS(commit), "big.csv", 1999); !errors.Is(err, safefile.ErrTooLarge) {
+		t.Errorf("over the cap: %v", err)
+	}
+	if b, err := safefile.ReadFS(repo.CommitFS(commit), "big.csv", 2000); err != nil || len(b) != 2000 {
+		t.Errorf("at the cap: %d bytes, %v", len(b), err)
 	}
 }

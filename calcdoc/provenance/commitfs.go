@@ -22,6 +22,16 @@ type commitFS struct {
 // ReadFile reads the blob at name (a slash path from the root).
 func (c commitFS) ReadFile(name string) ([]byte, error) { return c.r.ReadAt(c.commit, name) }
 
+// Stat describes the blob at name from its size in the object store,
+// without reading its content.
+func (c commitFS) Stat(name string) (fs.FileInfo, error) {
+	n, err := c.r.SizeAt(c.commit, name)
+	if err != nil {
+		return nil, &fs.PathError{Op: "stat", Path: name, Err: err}
+	}
+	return blobInfo{name: path.Base(name), size: n}, nil
+}
+
 // Open opens the blob at name; directories are not listed.
 func (c commitFS) Open(name string) (fs.File, error) {
 	b, err := c.ReadFile(name)

@@ -281,23 +281,14 @@ func (r *Repo) BlobHashAt(commit, rel string) (string, error) {
 // blobAt finds rel's blob at a commit and its content, shared with the
 // cache: callers copy it before handing it out, and never change it.
 func (r *Repo) blobAt(commit, rel string) (plumbing.Hash, []byte, error) {
-	if err := checkRel(rel); err != nil {
-		return plumbing.ZeroHash, nil, fmt.Errorf("file %s and repository %s: %w", rel, r.root, err)
-	}
-	c, err := r.commitAt(commit)
+	c, err := r.commitOf(commit, rel)
 	if err != nil {
 		return plumbing.ZeroHash, nil, err
 	}
 	defer r.lock()()
-	f, err := c.File(rel)
-	if errors.Is(err, object.ErrFileNotFound) || errors.Is(err, object.ErrDirectoryNotFound) {
-		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrNotAtCommit)
-	}
+	f, err := fileIn(c, rel)
 	if err != nil {
-		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
-	}
-	if f.Mode == filemode.Symlink {
-		return plumbing.ZeroHash, nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrSymlink)
+		return plumbing.ZeroHash, nil, err
 	}
 	if b, ok := r.blobs.get(f.Hash); ok {
 		return f.Hash, b, nil
@@ -309,6 +300,46 @@ func (r *Repo) blobAt(commit, rel string) (plumbing.Hash, []byte, error) {
 	b := []byte(s)
 	r.blobs.put(f.Hash, b)
 	return f.Hash, b, nil
+}
+
+// SizeAt returns the size of rel's blob at a commit without reading its
+// content, so that a reader can refuse a blob over its cap before loading
+// it. Errors are ReadAt's.
+func (r *Repo) SizeAt(commit, rel string) (int64, error) {
+	c, err := r.commitOf(commit, rel)
+	if err != nil {
+		return 0, err
+	}
+	defer r.lock()()
+	f, err := fileIn(c, rel)
+	if err != nil {
+		return 0, err
+	}
+	return f.Size, nil
+}
+
+// commitOf checks rel and finds the commit.
+func (r *Repo) commitOf(commit, rel string) (*object.Commit, error) {
+	if err := checkRel(rel); err != nil {
+		return nil, fmt.Errorf("file %s and repository %s: %w", rel, r.root, err)
+	}
+	return r.commitAt(commit)
+}
+
+// fileIn finds rel in commit c's tree; a symbolic link is refused. The
+// caller holds the lock.
+func fileIn(c *object.Commit, rel string) (*object.File, error) {
+	f, err := c.File(rel)
+	if errors.Is(err, object.ErrFileNotFound) || errors.Is(err, object.ErrDirectoryNotFound) {
+		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrNotAtCommit)
+	}
+	if err != nil {
+		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), err)
+	}
+	if f.Mode == filemode.Symlink {
+		return nil, fmt.Errorf("file %s at commit %s: %w", rel, short(c.Hash), ErrSymlink)
+	}
+	return f, nil
 }
 
 // CommitDate returns the committer date of a commit (any revision Resolve
