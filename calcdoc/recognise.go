@@ -95,7 +95,14 @@ func (d *Doc) checkLookalikes() {
 			read[d.lines.pos(d.Src, f.Info.Segment.Start).Line] = true
 		}
 	}
+	var content []gast.Node
 	for _, f := range d.fences.others {
+		content = append(content, f)
+	}
+	for _, c := range d.fences.comments { // a calc block commented out on purpose
+		content = append(content, c)
+	}
+	for _, f := range content {
 		if n := f.Lines().Len(); n > 0 {
 			first := d.lines.pos(d.Src, f.Lines().At(0).Start).Line
 			last := d.lines.pos(d.Src, f.Lines().At(n-1).Start).Line

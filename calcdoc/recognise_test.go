@@ -61,6 +61,7 @@ func TestFrontAndFenceVariants(t *testing.T) {
 		{"in a block quote", "> ```calc\n> a = 1 m\n> ```\n", 1, ""},
 		{"an example inside a longer fence", "````markdown\n```calc\na = 1 m\n```\n````\n", 0, ""},
 		{"a code span, not a fence", "```calc a = 1```\n", 0, ""},
+		{"commented out", "<!--\n```calc\na = 1 m\n```\n-->\n", 0, ""},
 	}
 	for _, c := range cases {
 		d := Read("x.calc.md", []byte(c.src))

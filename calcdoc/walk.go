@@ -13,6 +13,7 @@ import (
 type fences struct {
 	calcs, sweeps, diagrams []*gast.FencedCodeBlock
 	others                  []*gast.FencedCodeBlock // every other fenced block
+	comments                []*gast.HTMLBlock       // HTML comments (<!-- -->)
 	spans                   []*gast.CodeSpan
 	images                  []*gast.Image
 }
@@ -39,6 +40,10 @@ func (t fenceFinder) Transform(doc *gast.Document, reader text.Reader, _ parser.
 				t.f.diagrams = append(t.f.diagrams, v)
 			default:
 				t.f.others = append(t.f.others, v)
+			}
+		case *gast.HTMLBlock:
+			if v.HTMLBlockType == gast.HTMLBlockType2 {
+				t.f.comments = append(t.f.comments, v)
 			}
 		case *gast.CodeSpan:
 			t.f.spans = append(t.f.spans, v)
