@@ -42,7 +42,7 @@ func TestCommandLinePathsNotRegular(t *testing.T) {
 		{"verify", "/dev/zero"},
 		{"verify", fifo},
 		{"verify", pkg, "--signers", "/dev/zero"},
-		{"sign", pkg, "--role", "preparer", "--signature", fifo},
+		{"sign", pkg, "--role", "preparer", "--signature", fifo, "--signed", "2026-03-14T09:26:53Z"},
 	}
 	for _, args := range cases {
 		done := make(chan int, 1)
