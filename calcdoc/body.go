@@ -169,6 +169,9 @@ func (d *Doc) lineHTML(it *Item) string {
 	}
 	if s.Kind == eval.Check {
 		b.WriteString(verdictHTML(o.Pass))
+		if cs := d.Comparisons(it); len(cs) > 0 {
+			b.WriteString("<div class=\"desc margin\">" + d.marginHTML(cs) + "</div>")
+		}
 	}
 	if vs, ok := o.Value.(*eval.Values); ok {
 		b.WriteString("<div class=\"state\">" + d.valuesHTML(vs) + "</div>")
@@ -214,7 +217,7 @@ func (d *Doc) equation(it *Item) []string {
 	formula := d.formula(s, false)
 	if s.Kind == eval.Check {
 		line := formula
-		if sub := d.formula(s, true); sub != formula {
+		if sub := d.checkFormula(it); sub != formula {
 			line += "<mo>⇒</mo>" + sub
 		}
 		return []string{line}
@@ -248,9 +251,23 @@ func (d *Doc) equation(it *Item) []string {
 	return []string{head + tail}
 }
 
+// checkFormula writes a check with values substituted, each comparison
+// of quantities as its two sides evaluated in one unit.
+func (d *Doc) checkFormula(it *Item) string {
+	cmp := map[*eval.Binary]string{}
+	for _, c := range d.Comparisons(it) {
+		cmp[c.Node] = d.comparisonMathML(c)
+	}
+	return d.formulaWith(it.Stmt, true, cmp)
+}
+
 // formula writes the expression with symbols, or with values substituted.
 func (d *Doc) formula(s *eval.Stmt, substitute bool) string {
-	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx}
+	return d.formulaWith(s, substitute, nil)
+}
+
+func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]string) string {
+	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp}
 	if substitute {
 		m.values = d.outcomeOf
 		m.evalAt = func(n eval.Node) (any, bool) {

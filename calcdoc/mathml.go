@@ -19,6 +19,10 @@ type mathml struct {
 	b      strings.Builder
 	kelvin bool // inside a product, quotient or power: temperatures in K
 	root   eval.Node
+	// cmp holds, for a check, each comparison written with both sides
+	// evaluated in one unit; it takes the place of the comparison's
+	// substituted sides.
+	cmp map[*eval.Binary]string
 }
 
 // prec is the operator precedence for parentheses: higher binds tighter.
@@ -190,6 +194,10 @@ func (m *mathml) isNegative(n eval.Node) bool {
 // binaryKelvin writes a binary node; products, quotients and powers show
 // temperatures in kelvin, since that is the value they use.
 func (m *mathml) binaryKelvin(v *eval.Binary) {
+	if c, ok := m.cmp[v]; ok && m.values != nil {
+		m.w(c)
+		return
+	}
 	k := m.kelvin
 	switch v.Op {
 	case "*", "/", "^", "**":

@@ -86,6 +86,25 @@ type jsonCheck struct {
 	Expr        string `json:"expr"`
 	Pass        bool   `json:"pass"`
 	Description string `json:"description"`
+	// Margin, MarginUnit and RelativeMargin repeat the one comparison of
+	// a check that has exactly one; Comparisons lists every comparison.
+	Margin         *float64         `json:"margin,omitempty"`
+	MarginUnit     string           `json:"margin_unit,omitempty"`
+	RelativeMargin *float64         `json:"relative_margin,omitempty"`
+	Comparisons    []jsonComparison `json:"comparisons"`
+}
+
+// jsonComparison is one comparison of a check, both sides in one unit.
+type jsonComparison struct {
+	Op             string   `json:"op"`
+	Left           float64  `json:"left"`
+	Right          float64  `json:"right"`
+	Unit           string   `json:"unit"`
+	Text           string   `json:"text"`
+	Holds          bool     `json:"holds"`
+	Margin         float64  `json:"margin"`
+	MarginUnit     string   `json:"margin_unit"`
+	RelativeMargin *float64 `json:"relative_margin"`
 }
 
 type jsonError struct {
@@ -114,7 +133,7 @@ func writeJSON(w io.Writer, d *calcdoc.Doc) error {
 		})
 	}
 	for _, it := range d.Checks() {
-		out.Checks = append(out.Checks, jsonCheck{Line: it.Stmt.Line, Expr: it.Stmt.Expr, Pass: it.Outcome.Pass, Description: it.Stmt.Desc})
+		out.Checks = append(out.Checks, checkJSON(d, it))
 	}
 	for _, e := range d.Errors {
 		out.Errors = append(out.Errors, jsonError{Line: e.Pos.Line, Col: e.Pos.Col, Message: e.Msg})
@@ -125,6 +144,44 @@ func writeJSON(w io.Writer, d *calcdoc.Doc) error {
 	}
 	_, err = w.Write(append(b, '\n'))
 	return err
+}
+
+// checkJSON is a check with its comparisons and margins.
+func checkJSON(d *calcdoc.Doc, it *calcdoc.Item) jsonCheck {
+	c := jsonCheck{Line: it.Stmt.Line, Expr: it.Stmt.Expr, Pass: it.Outcome.Pass, Description: it.Stmt.Desc, Comparisons: []jsonComparison{}}
+	for _, cmp := range d.Comparisons(it) {
+		l, _ := cmp.Left.In(cmp.Unit, d.Front.Ctx)
+		r, _ := cmp.Right.In(cmp.Unit, d.Front.Ctx)
+		m, _ := cmp.Margin.In(cmp.MarginUnit, d.Front.Ctx)
+		j := jsonComparison{Op: cmp.Op, Left: l, Right: r, Unit: unitText(cmp.Unit), Holds: cmp.Holds,
+			Text: comparisonText(d, cmp), Margin: m, MarginUnit: unitText(cmp.MarginUnit)}
+		if cmp.HasRelative {
+			rel := cmp.Relative
+			j.RelativeMargin = &rel
+		}
+		c.Comparisons = append(c.Comparisons, j)
+	}
+	if len(c.Comparisons) == 1 {
+		j := c.Comparisons[0]
+		c.Margin, c.MarginUnit, c.RelativeMargin = &j.Margin, j.MarginUnit, j.RelativeMargin
+	}
+	return c
+}
+
+// comparisonText is a comparison with its sides evaluated and its margin:
+// "10.987 barg >= 11.000 barg, margin -1.325 kPa".
+func comparisonText(d *calcdoc.Doc, c calcdoc.Comparison) string {
+	l, r := d.SideTexts(c)
+	return l + " " + c.Op + " " + r + ", " + d.MarginText(c)
+}
+
+// checkText lists a check's comparisons as comparisonText does.
+func checkText(d *calcdoc.Doc, it *calcdoc.Item) string {
+	var parts []string
+	for _, c := range d.Comparisons(it) {
+		parts = append(parts, comparisonText(d, c))
+	}
+	return strings.Join(parts, "; ")
 }
 
 // unitText is a unit's text, "" for a pure number.
@@ -166,10 +223,19 @@ func writeTable(w io.Writer, d *calcdoc.Doc) {
 		if !it.Outcome.Pass {
 			verdict, failed = "FAIL", failed+1
 		}
-		fmt.Fprintf(tw, "%s\t%d\t%s\t%s\n", verdict, it.Stmt.Line, it.Stmt.Expr, it.Stmt.Desc)
+		fmt.Fprintf(tw, "%s\t%d\t%s\t%s\t%s\n", verdict, it.Stmt.Line, it.Stmt.Expr, checkText(d, it), it.Stmt.Desc)
 	}
 	tw.Flush()
-	fmt.Fprintf(w, "\n%d checks, %d passed, %d failed\n", len(checks), len(checks)-failed, failed)
+	fmt.Fprintf(w, "\n%s\n", checkTally(len(checks), failed))
+}
+
+// checkTally counts checks: "1 check, 1 passed, 0 failed".
+func checkTally(n, failed int) string {
+	noun := "checks"
+	if n == 1 {
+		noun = "check"
+	}
+	return fmt.Sprintf("%d %s, %d passed, %d failed", n, noun, n-failed, failed)
 }
 
 func cmdUnits(args []string, stdout, stderr io.Writer) int {
