@@ -45,6 +45,47 @@ type Report struct {
 	Signers  string               // the allowed-signers file, "" when none was given
 	Status   string               // the stamp reached by signatures that hold
 	Findings []Finding
+	// DesignChecks are the calc's own checks (check lines), as the
+	// reproduction evaluated them; nil until the results reproduce. They
+	// are not verification steps: a package whose design check fails may
+	// verify, and the report says both.
+	DesignChecks []DesignCheck
+}
+
+// DesignCheck is one check line of the calc and its verdict.
+type DesignCheck struct {
+	Line int
+	Desc string
+	Pass bool
+}
+
+// DesignFailed reports whether a design check of the calc fails.
+func (r *Report) DesignFailed() bool {
+	for _, c := range r.DesignChecks {
+		if !c.Pass {
+			return true
+		}
+	}
+	return false
+}
+
+// designLines tallies the design checks and lists the failing ones.
+func (r *Report) designLines(b *strings.Builder) {
+	if r.DesignChecks == nil {
+		return
+	}
+	failed := 0
+	for _, c := range r.DesignChecks {
+		if !c.Pass {
+			failed++
+		}
+	}
+	fmt.Fprintf(b, "design checks: %d passed, %d failed (the calc's check lines, not verification steps)\n", len(r.DesignChecks)-failed, failed)
+	for _, c := range r.DesignChecks {
+		if !c.Pass {
+			fmt.Fprintf(b, "  FAIL  line %d  %s\n", c.Line, c.Desc)
+		}
+	}
 }
 
 // OK reports whether no finding failed.
@@ -83,6 +124,7 @@ func (r *Report) String() string {
 	if r.Status != "" {
 		fmt.Fprintf(&b, "status:   %s (from the signatures that hold)\n", r.Status)
 	}
+	r.designLines(&b)
 	b.WriteString("result:   " + r.result() + "\n")
 	return b.String()
 }
@@ -118,7 +160,7 @@ func (r *Report) header(b *strings.Builder) {
 func (r *Report) result() string {
 	fails := r.Failures()
 	if len(fails) == 0 {
-		return "VERIFIED: every check holds"
+		return "VERIFIED: every verification step holds"
 	}
 	var topics []string
 	for _, f := range fails {

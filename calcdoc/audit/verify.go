@@ -240,6 +240,10 @@ func (v *verifier) compareResults() bool {
 		return true
 	}
 	v.rep.add(Holds, "results", "all %d results reproduce bit for bit from the commit; results digest %s", len(got.Results), got.ResultsDigest)
+	v.rep.DesignChecks = []DesignCheck{}
+	for _, it := range v.repro.doc.Checks() {
+		v.rep.DesignChecks = append(v.rep.DesignChecks, DesignCheck{Line: it.Stmt.Line, Desc: it.Stmt.Desc, Pass: it.Outcome.Pass})
+	}
 	return true
 }
 

@@ -25,8 +25,8 @@ func cmdVerify(args []string, stdout, stderr io.Writer) int {
 		return errorCode(err)
 	}
 	fmt.Fprint(stdout, rep.String())
-	if !rep.OK() {
-		return exitFailed
+	if !rep.OK() || rep.DesignFailed() {
+		return exitFailed // verification failed, or it holds and a design check fails
 	}
 	return exitOK
 }
