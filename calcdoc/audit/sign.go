@@ -19,6 +19,23 @@ import (
 // reproduce: nothing is signed.
 var ErrNotVerified = errors.New("the package does not verify")
 
+// ErrKeyRejected marks a signing key or a signature made elsewhere that
+// cannot stand: the allowed-signers file does not list the key for the
+// signer, or the signature does not check out. It is a verification that
+// failed (exit 3), not a misuse of the command.
+var ErrKeyRejected = errors.New("the key or signature is rejected")
+
+// rejected is an error that is ErrKeyRejected, with its own message.
+type rejected struct{ err error }
+
+func (e *rejected) Error() string        { return e.err.Error() }
+func (e *rejected) Unwrap() error        { return e.err }
+func (e *rejected) Is(target error) bool { return target == ErrKeyRejected }
+
+func rejectErr(format string, args ...any) error {
+	return &rejected{fmt.Errorf(format, args...)}
+}
+
 // SignOptions say who signs a package, for which role and with which key.
 type SignOptions struct {
 	VerifyOptions
@@ -148,7 +165,7 @@ func (v *verifier) sign(opt SignOptions) (*Signed, error) {
 	}
 	for _, st := range signed.states {
 		if st.Sig.Signature == s.Signature && st.Sig.Withdrawn == "" && !st.Valid {
-			return nil, usageErr("the %s signature would not hold: %s; not signed", s.Role, st.Reason)
+			return nil, rejectErr("the %s signature would not hold: %s; not signed", s.Role, st.Reason)
 		}
 	}
 	return signed.Signed, nil
@@ -275,7 +292,7 @@ func (v *verifier) signWith(m *provenance.Manifest, s provenance.Signature, opt 
 			return s, &calcdoc.UsageError{Err: err}
 		}
 		if v.opt.Signers != "" && !v.allowed.Allows(s.Principal, signer.PublicKey()) {
-			return s, usageErr("%s does not list key %s (%s) for %s", v.opt.Signers, provenance.Fingerprint(signer.PublicKey()), key, s.Principal)
+			return s, rejectErr("%s does not list key %s (%s) for %s", v.opt.Signers, provenance.Fingerprint(signer.PublicKey()), key, s.Principal)
 		}
 		return m.SignAs(s, signer)
 	}
@@ -307,7 +324,7 @@ func (v *verifier) agentSign(m *provenance.Manifest, s provenance.Signature) (pr
 		return s, usageErr("the ssh-agent holds no key: run ssh-add KEYFILE, or give --key KEYFILE")
 	case pick >= 0:
 	case file != "":
-		return s, usageErr("the ssh-agent holds no key that %s lists for %s (it holds %s)", file, s.Principal, strings.Join(fps, ", "))
+		return s, rejectErr("the ssh-agent holds no key that %s lists for %s (it holds %s)", file, s.Principal, strings.Join(fps, ", "))
 	case len(signers) == 1:
 		pick = 0
 	default:
@@ -336,11 +353,11 @@ func (v *verifier) attach(m *provenance.Manifest, s provenance.Signature, armore
 	armored = append(bytes.TrimSpace(armored), '\n')
 	pub, err := provenance.VerifySig(payload, armored, provenance.Namespace)
 	if err != nil {
-		return s, usageErr("the signature is not a %s signature of this manifest (%s): %w", s.Role, payload, err)
+		return s, rejectErr("the signature is not a %s signature of this manifest (%s): %w", s.Role, payload, err)
 	}
 	at, _ := provenance.ParseSigningTime(s.Signed) // checked by Payload
 	if v.opt.Signers != "" && !v.allowed.AllowsAt(s.Principal, pub, provenance.Namespace, at) {
-		return s, usageErr("%s does not list key %s for %s at the signing time %s", v.opt.Signers, provenance.Fingerprint(pub), s.Principal, s.Signed)
+		return s, rejectErr("%s does not list key %s for %s at the signing time %s", v.opt.Signers, provenance.Fingerprint(pub), s.Principal, s.Signed)
 	}
 	s.Fingerprint, s.Signature = provenance.Fingerprint(pub), string(armored)
 	return s, nil

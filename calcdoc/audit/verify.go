@@ -75,7 +75,7 @@ func newVerifier(pkgPath string, opt VerifyOptions) (*verifier, error) {
 		return nil, usageErr("allowed signers: %w", err)
 	}
 	if v.allowed, err = provenance.ParseAllowedSigners(data); err != nil {
-		return nil, usageErr("allowed signers %s: %w", opt.Signers, err)
+		return nil, fmt.Errorf("allowed signers %s: %w", opt.Signers, err) // a file with errors: exit 1
 	}
 	return v, nil
 }

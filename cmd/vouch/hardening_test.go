@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"os"
 	"path/filepath"
 	"strings"
 	"testing"
@@ -21,6 +22,14 @@ func vouchT(t *testing.T, want int, args ...string) (string, string) {
 		t.Fatalf("vouch %s: exit %d, want %d\n%s%s", strings.Join(args, " "), got, want, out.String(), errs.String())
 	}
 	return out.String(), errs.String()
+}
+
+// writeFile writes a file or fails the test.
+func writeFile(t *testing.T, path, content string) {
+	t.Helper()
+	if err := os.WriteFile(path, []byte(content), 0o644); err != nil {
+		t.Fatal(err)
+	}
 }
 
 // failingRepo commits failingCalc in a fresh repository.
@@ -54,5 +63,77 @@ func TestVerifyKeepsDesignChecksApart(t *testing.T) {
 			t.Errorf("verify output lacks %q:\n%s", want, out)
 		}
 	}
-	_ = filepath.Join
+}
+
+// TestRenderNamesFailedChecks: issue 11 item 20. render exited 3 when a
+// design check failed but printed only "wrote …".
+func TestRenderNamesFailedChecks(t *testing.T) {
+	dir := t.TempDir()
+	calc := filepath.Join(dir, "hp.calc.md")
+	writeFile(t, calc, failingCalc)
+	out, errs := vouchT(t, exitFailed, "render", calc)
+	if !strings.Contains(out, "wrote ") {
+		t.Errorf("render output:\n%s", out)
+	}
+	for _, want := range []string{"1 of 1 design check FAIL", "FAIL  line 7  header pressure at least the minimum (10.99 barg >= 11.00 barg, margin -0.01325 bar)"} {
+		if !strings.Contains(errs, want) {
+			t.Errorf("render's messages lack %q:\n%s", want, errs)
+		}
+	}
+}
+
+// TestHelpExitsZeroForEveryCommand: issue 11 item 20. --help exited 2;
+// asking for help is not bad usage. Each command prints its usage.
+func TestHelpExitsZeroForEveryCommand(t *testing.T) {
+	for _, c := range commands {
+		for _, flag := range []string{"--help", "-h"} {
+			out, _ := vouchT(t, exitOK, c.name, flag)
+			if !strings.HasPrefix(out, "usage: vouch "+c.name) {
+				t.Errorf("vouch %s %s printed:\n%s", c.name, flag, out)
+			}
+		}
+	}
+	out, _ := vouchT(t, exitOK, "render", "x.calc.md", "--help")
+	if !strings.Contains(out, "-pdf") {
+		t.Errorf("render --help lacks --pdf:\n%s", out)
+	}
+}
+
+// TestRenderUsageNamesPDF: issue 11 item 20. render's usage omitted --pdf.
+func TestRenderUsageNamesPDF(t *testing.T) {
+	_, errs := vouchT(t, exitUsage, "render")
+	if !strings.Contains(errs, "[--pdf]") {
+		t.Errorf("render's usage lacks --pdf: %s", errs)
+	}
+}
+
+// TestCheckTallyPlural: issue 11 item 20. "1 checks, 1 passed".
+func TestCheckTallyPlural(t *testing.T) {
+	for n, want := range map[int]string{0: "0 checks, 0 passed, 0 failed", 1: "1 check, 1 passed, 0 failed", 2: "2 checks, 2 passed, 0 failed"} {
+		if got := checkTally(n, 0); got != want {
+			t.Errorf("checkTally(%d) = %q, want %q", n, got, want)
+		}
+	}
+	dir := t.TempDir()
+	calc := filepath.Join(dir, "one.calc.md")
+	writeFile(t, calc, "```calc\nx = 2\ncheck x > 1\n```\n")
+	out, _ := vouchT(t, exitOK, "run", calc)
+	if !strings.Contains(out, "1 check, 1 passed, 0 failed") {
+		t.Errorf("run output:\n%s", out)
+	}
+}
+
+// TestRejectedKeyExitCode: issue 11 item 20. A key the allowed-signers
+// file does not list for the signer exited 2 (bad usage); it is a failed
+// verification (3). A signers file with errors is an input with errors (1).
+func TestRejectedKeyExitCode(t *testing.T) {
+	dir := signRepo(t)
+	calc, pkg := filepath.Join(dir, "hb.calc.md"), filepath.Join(dir, "hb.html")
+	key, pub := sshKey(t)
+	signers := filepath.Join(t.TempDir(), "allowed_signers")
+	writeFile(t, signers, "someone-else@example.com "+pub+"\n")
+	vouchT(t, exitOK, "render", calc)
+	vouchT(t, exitFailed, "sign", pkg, "--role", "preparer", "--key", key, "--signers", signers)
+	writeFile(t, signers, "preparer@example.com not-a-key-type AAAA\n")
+	vouchT(t, exitErrors, "verify", pkg, "--signers", signers)
 }

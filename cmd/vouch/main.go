@@ -3,9 +3,11 @@
 package main
 
 import (
+	"bytes"
 	"fmt"
 	"io"
 	"os"
+	"strings"
 )
 
 // Version is the engine version recorded in every package.
@@ -31,7 +33,7 @@ func init() {
 		{"run", "[--json] FILE", "evaluate a calc and print its results and checks", cmdRun},
 		{"render", "FILE... [-o DIR] [--pdf]", "write the HTML package of each calc", cmdRender},
 		{"sign", "PACKAGE --role ROLE [--key KEY]", "verify, reproduce and sign a package for one role", cmdSign},
-		{"verify", "PACKAGE [--signers FILE]", "check a package's signatures and reproduce it from git", cmdVerify},
+		{"verify", "PACKAGE [--signers FILE] [--repo DIR]", "check a package's signatures and reproduce it from git", cmdVerify},
 		{"diff", "FILE [--from REV] [--to REV]", "show what changed in a calc between two revisions", cmdDiff},
 		{"register", "DIR [-o DIR] [--shard i/n]", "render the changed calcs under DIR and write the register's index", cmdRegister},
 		{"serve", "FILE|DIR [--addr HOST:PORT]", "serve a live preview that refreshes on save", cmdServe},
@@ -62,6 +64,10 @@ func run(args []string, stdout, stderr io.Writer) int {
 	}
 	for _, c := range commands {
 		if c.name == args[0] {
+			if wantsHelp(args[1:]) {
+				commandHelp(c, stdout)
+				return exitOK
+			}
 			return c.run(args[1:], stdout, stderr)
 		}
 	}
@@ -81,6 +87,32 @@ func usage(w io.Writer) {
 	}
 	fmt.Fprintf(w, "  %-10s %-*s  %s\n", "--version", width, "", "print the engine version")
 	fmt.Fprintln(w, "\nexit codes: 0 success, 1 the calc has errors, 2 bad usage, 3 a check or verification failed")
+}
+
+// wantsHelp reports whether a command's arguments ask for its help
+// (-h, -help or --help before a "--").
+func wantsHelp(args []string) bool {
+	for _, a := range args {
+		switch a {
+		case "--":
+			return false
+		case "-h", "-help", "--help":
+			return true
+		}
+	}
+	return false
+}
+
+// commandHelp prints a command's usage and its flags. The flags come from
+// the command itself, run with -h alone: its flag set prints them and
+// stops before doing anything.
+func commandHelp(c command, w io.Writer) {
+	fmt.Fprintf(w, "%s\n\n%s\n", strings.TrimSpace("usage: vouch "+c.name+" "+c.args), c.doc)
+	var flags bytes.Buffer
+	c.run([]string{"-h"}, io.Discard, &flags)
+	if _, rest, ok := strings.Cut(flags.String(), ":\n"); ok && strings.HasPrefix(flags.String(), "Usage of ") && strings.TrimSpace(rest) != "" {
+		fmt.Fprintf(w, "\nflags:\n%s", rest)
+	}
 }
 
 func cmdHelp(_ []string, stdout, _ io.Writer) int {

@@ -110,7 +110,7 @@ func listProblems(dir string, entries []*register.Entry, stdout, stderr io.Write
 		case e.Broken():
 			fmt.Fprintf(stderr, "broken: %s\n", strings.Join(e.ErrorText(name), "\n        "))
 		case e.Failed > 0:
-			fmt.Fprintf(stdout, "  %s: %d of %d checks FAIL\n", name, e.Failed, e.Failed+e.Passed)
+			fmt.Fprintf(stdout, "  %s: %d of %d %s FAIL\n", name, e.Failed, e.Failed+e.Passed, pluralWord(e.Failed+e.Passed, "check"))
 		}
 		if e.Signed != nil && e.Signed.Stale != "" {
 			fmt.Fprintf(stdout, "  %s: signed package %s is stale: %s\n", name, e.Signed.Package, e.Signed.Stale)

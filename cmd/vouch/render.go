@@ -18,7 +18,7 @@ func cmdRender(args []string, stdout, stderr io.Writer) int {
 		return exitUsage
 	}
 	if len(files) == 0 {
-		fmt.Fprintln(stderr, "usage: vouch render FILE... [-o DIR]")
+		fmt.Fprintln(stderr, "usage: vouch render FILE... [-o DIR] [--pdf]")
 		return exitUsage
 	}
 	code := exitOK
@@ -67,9 +67,42 @@ func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stdout, "wrote %s\n", p)
 	}
 	if d.Failed() {
+		reportFailedChecks(d, stderr)
 		return exitFailed
 	}
 	return exitOK
+}
+
+// reportFailedChecks names the design checks that fail, each with its line,
+// description and margin, after a package that records them is written.
+func reportFailedChecks(d *calcdoc.Doc, w io.Writer) {
+	var failed []*calcdoc.Item
+	for _, it := range d.Checks() {
+		if !it.Outcome.Pass {
+			failed = append(failed, it)
+		}
+	}
+	n := len(d.Checks())
+	fmt.Fprintf(w, "vouch: %s: %d of %d design %s FAIL (the package records them):\n", d.Path, len(failed), n, pluralWord(n, "check"))
+	for _, it := range failed {
+		desc := it.Stmt.Desc
+		if desc == "" {
+			desc = it.Stmt.Expr
+		}
+		line := fmt.Sprintf("  FAIL  line %d  %s", it.Stmt.Line, desc)
+		if t := checkText(d, it); t != "" {
+			line += " (" + t + ")"
+		}
+		fmt.Fprintln(w, line)
+	}
+}
+
+// pluralWord is word, with an s unless n is 1.
+func pluralWord(n int, word string) string {
+	if n == 1 {
+		return word
+	}
+	return word + "s"
 }
 
 // packagePath is NAME.html for NAME.calc.md, in outDir or beside the calc.

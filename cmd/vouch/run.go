@@ -231,11 +231,7 @@ func writeTable(w io.Writer, d *calcdoc.Doc) {
 
 // checkTally counts checks: "1 check, 1 passed, 0 failed".
 func checkTally(n, failed int) string {
-	noun := "checks"
-	if n == 1 {
-		noun = "check"
-	}
-	return fmt.Sprintf("%d %s, %d passed, %d failed", n, noun, n-failed, failed)
+	return fmt.Sprintf("%d %s, %d passed, %d failed", n, pluralWord(n, "check"), n-failed, failed)
 }
 
 func cmdUnits(args []string, stdout, stderr io.Writer) int {

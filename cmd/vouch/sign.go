@@ -92,7 +92,7 @@ func errorCode(err error) int {
 	switch {
 	case errors.As(err, &usage):
 		return exitUsage
-	case errors.Is(err, audit.ErrNotVerified):
+	case errors.Is(err, audit.ErrNotVerified), errors.Is(err, audit.ErrKeyRejected):
 		return exitFailed
 	}
 	return exitErrors
