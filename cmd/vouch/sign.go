@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"path/filepath"
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
@@ -108,12 +107,10 @@ func writePackage(dest string, pkg *calcdoc.Package) error {
 	return writePackageFiles(dest, pkg.HTML, file)
 }
 
-// writePackageFiles writes the package and its manifest file, each through
-// a temporary file renamed into place: the manifest first, so that a
-// package on disk never has an older manifest beside it.
+// writePackageFiles writes the package and its manifest file as a pair
+// (calcdoc.WritePairAtomic): the package is the source of truth, the
+// manifest file a copy of the manifest it holds, and the folder never
+// holds a package beside a manifest file of another version.
 func writePackageFiles(dest string, html, manifest []byte) error {
-	if err := calcdoc.WriteFileAtomic(audit.ManifestPath(dest), manifest); err != nil {
-		return fmt.Errorf("manifest of %s: %w", filepath.Base(dest), err)
-	}
-	return calcdoc.WriteFileAtomic(dest, html)
+	return calcdoc.WritePairAtomic(dest, html, audit.ManifestPath(dest), manifest)
 }
