@@ -137,3 +137,23 @@ func TestRejectedKeyExitCode(t *testing.T) {
 	writeFile(t, signers, "preparer@example.com not-a-key-type AAAA\n")
 	vouchT(t, exitErrors, "verify", pkg, "--signers", signers)
 }
+
+// TestRenderRefusesPackageClash: issue 11 item 13. render a/x.calc.md
+// b/x.calc.md -o out silently overwrote the first package with the second.
+func TestRenderRefusesPackageClash(t *testing.T) {
+	dir := t.TempDir()
+	a, b, out := filepath.Join(dir, "a", "x.calc.md"), filepath.Join(dir, "b", "x.calc.md"), filepath.Join(dir, "out")
+	os.MkdirAll(filepath.Dir(a), 0o755)
+	os.MkdirAll(filepath.Dir(b), 0o755)
+	writeFile(t, a, "```calc\nx = 1\n```\n")
+	writeFile(t, b, "```calc\nx = 2\n```\n")
+	_, errs := vouchT(t, exitUsage, "render", a, b, "-o", out)
+	if !strings.Contains(errs, "would both be written to") {
+		t.Errorf("render's message: %s", errs)
+	}
+	if _, err := os.Stat(out); !os.IsNotExist(err) {
+		t.Error("render wrote something before refusing the clash")
+	}
+	vouchT(t, exitOK, "render", a, b) // beside each calc: no clash
+	vouchT(t, exitOK, "render", a, a, "-o", out)
+}

@@ -21,6 +21,11 @@ func cmdRender(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "usage: vouch render FILE... [-o DIR] [--pdf]")
 		return exitUsage
 	}
+	files, err = distinctPackages(files, *outDir)
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitUsage
+	}
 	code := exitOK
 	for _, path := range files {
 		c := renderOne(path, *outDir, *pdf, stdout, stderr)
@@ -103,6 +108,27 @@ func pluralWord(n int, word string) string {
 		return word
 	}
 	return word + "s"
+}
+
+// distinctPackages refuses, before anything is written, two calcs whose
+// packages would be the same file (a/x.calc.md and b/x.calc.md with -o
+// out); a calc named twice is rendered once.
+func distinctPackages(files []string, outDir string) ([]string, error) {
+	byDest := map[string]string{}
+	var out []string
+	for _, f := range files {
+		dest, _ := filepath.Abs(packagePath(f, outDir))
+		src, _ := filepath.Abs(f)
+		if prev, ok := byDest[dest]; ok {
+			if prev == src {
+				continue
+			}
+			return nil, fmt.Errorf("%s and %s would both be written to %s; render them into different folders (-o) or one at a time; nothing was written", prev, src, packagePath(f, outDir))
+		}
+		byDest[dest] = src
+		out = append(out, f)
+	}
+	return out, nil
 }
 
 // packagePath is NAME.html for NAME.calc.md, in outDir or beside the calc.
