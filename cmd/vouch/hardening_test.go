@@ -157,3 +157,65 @@ func TestRenderRefusesPackageClash(t *testing.T) {
 	vouchT(t, exitOK, "render", a, b) // beside each calc: no clash
 	vouchT(t, exitOK, "render", a, a, "-o", out)
 }
+
+// TestPDFInFolderWithHashOrQuery: issue 11 item 14. render --pdf in a
+// folder whose name holds # or ? printed another file (the URL was cut at
+// the # or ?) and reported success.
+func TestPDFInFolderWithHashOrQuery(t *testing.T) {
+	if testing.Short() {
+		t.Skip("runs Chromium")
+	}
+	needTools(t, "chromium")
+	for _, name := range []string{"a#b", "c?d", "e%41f", "g h"} {
+		dir := filepath.Join(t.TempDir(), name)
+		os.MkdirAll(dir, 0o755)
+		calc := filepath.Join(dir, "p.calc.md")
+		writeFile(t, calc, "---\ntitle: Feed pump η and head (fictional)\n---\n```calc\nx = 2\n```\n")
+		vouchT(t, exitOK, "render", "--pdf", calc)
+		pdf, err := os.ReadFile(filepath.Join(dir, "p.pdf"))
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		page, _ := os.ReadFile(filepath.Join(dir, "p.html"))
+		if err := checkPDF(pdf, htmlTitle(page)); err != nil {
+			t.Errorf("%s: %v", name, err)
+		}
+	}
+}
+
+// TestFileURLEscapes: the file URL keeps #, ? and % as parts of the path.
+func TestFileURLEscapes(t *testing.T) {
+	for path, want := range map[string]string{
+		"/w/a#b/p.html":  "file:///w/a%23b/p.html",
+		"/w/c?d/p.html":  "file:///w/c%3Fd/p.html",
+		"/w/e%41/p.html": "file:///w/e%2541/p.html",
+		"/w/g h/p.html":  "file:///w/g%20h/p.html",
+	} {
+		if got := fileURL(path); got != want {
+			t.Errorf("fileURL(%q) = %q, want %q", path, got, want)
+		}
+	}
+}
+
+// TestCheckPDFRefusesAnotherPage: a PDF without pages, or with a title
+// other than the package's, is not reported as the package's PDF.
+func TestCheckPDFRefusesAnotherPage(t *testing.T) {
+	good := "%PDF-1.4\n1 0 obj <</Type /Pages /Count 3 /Kids []>> endobj\n2 0 obj <</Title <FEFF0048002003B7> /Producer (x)>> endobj\n"
+	if err := checkPDF([]byte(good), "H η"); err != nil {
+		t.Errorf("good PDF refused: %v", err)
+	}
+	for _, c := range []struct{ pdf, title, want string }{
+		{good, "Index of /w/a", "not the package's"},
+		{"%PDF-1.4\n2 0 obj <</Title (H \\(x\\))>> endobj\n", "H (x)", "no pages"},
+		{"%PDF-1.4\n1 0 obj <</Type /Pages /Count 1>> endobj\n", "H", "no title"},
+		{"<html>", "H", "not a PDF"},
+	} {
+		err := checkPDF([]byte(c.pdf), c.title)
+		if err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("checkPDF(%q, %q) = %v, want %q", c.pdf, c.title, err, c.want)
+		}
+	}
+	if got := pdfString([]byte(`(H \(x\) \101)`)); got != "H (x) A" {
+		t.Errorf("pdfString = %q", got)
+	}
+}

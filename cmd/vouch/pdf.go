@@ -2,6 +2,7 @@ package main
 
 import (
 	"fmt"
+	"net/url"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -29,8 +30,10 @@ func browserArgs(profile string) []string {
 		"--user-data-dir=" + profile}
 }
 
-// writePDF prints an HTML package to PDF beside it with headless Chromium;
-// the PDF is written to a temporary file and renamed into place.
+// writePDF prints an HTML package to PDF beside it with headless Chromium.
+// The PDF is written to a temporary file, checked (it has pages and the
+// package's title: the browser printed this package and not another page)
+// and renamed into place; on any failure the temporary file is removed.
 func writePDF(htmlPath string) (string, error) {
 	browser, err := findBrowser()
 	if err != nil {
@@ -40,20 +43,50 @@ func writePDF(htmlPath string) (string, error) {
 	if err != nil {
 		return "", err
 	}
+	page, err := os.ReadFile(abs)
+	if err != nil {
+		return "", err
+	}
 	profile, err := os.MkdirTemp("", "vouch-browser-*")
 	if err != nil {
 		return "", err
 	}
 	defer os.RemoveAll(profile)
 	dest := strings.TrimSuffix(abs, ".html") + ".pdf"
-	tmp := dest + ".tmp"
-	args := append(browserArgs(profile), "--no-pdf-header-footer", "--print-to-pdf="+tmp, "file://"+abs)
+	tmp, err := reserveTemp(filepath.Dir(dest))
+	if err != nil {
+		return "", err
+	}
+	defer os.Remove(tmp) // gone after the rename; removed on any failure
+	args := append(browserArgs(profile), "--no-pdf-header-footer", "--print-to-pdf="+tmp, fileURL(abs))
 	if out, err := exec.Command(browser, args...).CombinedOutput(); err != nil {
-		os.Remove(tmp)
 		return "", fmt.Errorf("printing %s to PDF failed: %v\n%s", htmlPath, err, out)
 	}
-	if _, err := os.Stat(tmp); err != nil {
+	pdf, err := os.ReadFile(tmp)
+	if err != nil || len(pdf) == 0 {
 		return "", fmt.Errorf("printing %s to PDF wrote no file", htmlPath)
 	}
+	if err := checkPDF(pdf, htmlTitle(page)); err != nil {
+		return "", fmt.Errorf("printing %s to PDF: %v; no PDF written", htmlPath, err)
+	}
 	return dest, os.Rename(tmp, dest)
+}
+
+// reserveTemp creates an empty temporary file for the browser to write.
+func reserveTemp(dir string) (string, error) {
+	f, err := os.CreateTemp(dir, ".vouch-*.pdf.tmp")
+	if err != nil {
+		return "", err
+	}
+	return f.Name(), f.Close()
+}
+
+// fileURL is the file: URL of an absolute path, every character that
+// means something in a URL (#, ?, %, space) escaped.
+func fileURL(abs string) string {
+	p := filepath.ToSlash(abs)
+	if !strings.HasPrefix(p, "/") {
+		p = "/" + p // a Windows drive path: file:///C:/...
+	}
+	return (&url.URL{Scheme: "file", Path: p}).String()
 }
