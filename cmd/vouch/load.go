@@ -17,8 +17,8 @@ func loadCalc(path string, stderr io.Writer) (*calcdoc.Doc, error) {
 		return nil, err
 	}
 	d := calcdoc.Read(path, src)
-	if isTerminal(stderr) {
-		d.Progress = progressPrinter(stderr)
+	if tty, ok := terminalOf(stderr); ok {
+		d.Progress = progressPrinter(tty)
 	}
 	d.Evaluate()
 	return d, nil

@@ -49,7 +49,15 @@ func main() {
 	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
 }
 
+// run runs one command; everything it prints goes through a safeWriter.
 func run(args []string, stdout, stderr io.Writer) int {
+	out, errs := newSafeWriter(stdout), newSafeWriter(stderr)
+	defer out.Flush()
+	defer errs.Flush()
+	return runCommand(args, out, errs)
+}
+
+func runCommand(args []string, stdout, stderr io.Writer) int {
 	if len(args) == 0 {
 		usage(stderr)
 		return exitUsage

@@ -38,8 +38,8 @@ func cmdRegister(args []string, stdout, stderr io.Writer) int {
 			return exitUsage
 		}
 	}
-	if isTerminal(stderr) {
-		opt.Progress = progressBar(stderr)
+	if tty, ok := terminalOf(stderr); ok {
+		opt.Progress = progressBar(tty)
 	}
 	sum, err := register.Run(opt)
 	return registerReport(opt, sum, err, stdout, stderr)
@@ -77,7 +77,7 @@ func registerReport(opt register.Options, sum *register.Summary, err error, stdo
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitUsage
 	}
-	what := "calcs"
+	what := pluralWord(len(sum.Entries), "calc")
 	if opt.Shards > 0 {
 		what = fmt.Sprintf("calcs of shard %d/%d", opt.Shard, opt.Shards)
 	}
