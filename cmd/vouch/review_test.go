@@ -90,7 +90,7 @@ func TestRegisterCommand(t *testing.T) {
 		code         int
 		stdout, errs string
 	}{
-		{"first run", nil, []string{"register", dir, "-o", out}, exitOK, "1 calcs under " + dir + ": 1 rendered, 0 unchanged", ""},
+		{"first run", nil, []string{"register", dir, "-o", out}, exitOK, "1 calc under " + dir + ": 1 rendered, 0 unchanged", ""},
 		{"second run", nil, []string{"register", dir, "-o", out}, exitOK, "0 rendered, 1 unchanged", ""},
 		{"a failing check", func() {
 			os.WriteFile(filepath.Join(dir, "b.calc.md"), bytes.Replace(src, []byte("check eta_th > 30 %"), []byte("check eta_th > 50 %"), 1), 0o644)
