@@ -275,23 +275,49 @@ func quantityOf(it *calcdoc.Item) (units.Quantity, bool) {
 }
 
 // quantityChange formats new minus old in the new display unit (a
-// temperature change in K or Fdeg, since a change is a difference)
-// and the change relative to the old value, in per cent.
+// temperature change in K or Fdeg, since a change is a difference; a
+// change of a value in % in percentage points, calcdoc.PercentagePoints)
+// and the change relative to the old value, in per cent. There is no
+// relative change of a value on a scale whose zero is not nothing
+// (offsetScale): 545 °C against 540 °C is not "+0.9 %" nor, on kelvin,
+// "+0.6 %".
 func quantityChange(a, b units.Quantity, d *calcdoc.Doc, display units.Unit) (change, rel string) {
 	if a.D != b.D {
 		return "dimension changed", ""
 	}
 	delta := units.Quantity{V: b.V - a.V, D: b.D}
-	text, err := delta.Text(changeUnit(delta, display), d.Front.Digits, d.Front.Ctx)
+	u := changeUnit(delta, display)
+	text, err := delta.Text(u, d.Front.Digits, d.Front.Ctx)
 	if err != nil {
 		text = err.Error()
-	} else if delta.V > 0 {
-		text = "+" + text
+	} else {
+		if calcdoc.IsPercent(u) {
+			text = strings.TrimSuffix(text, " %") + " " + calcdoc.PercentagePoints
+		}
+		if delta.V > 0 {
+			text = "+" + text
+		}
 	}
-	if a.V != 0 {
+	if a.V != 0 && !offsetScale(a, b, display) {
 		rel = signed(units.FormatSig(100*(b.V-a.V)/math.Abs(a.V), 3)) + " %"
 	}
 	return text, rel
+}
+
+// offsetScale reports a value whose ratio to another means nothing: a
+// temperature that is not a difference (degC, degF, and kelvin, which
+// reads the same for the checker), a gauge pressure, or any value shown in
+// a unit with an offset.
+func offsetScale(a, b units.Quantity, display units.Unit) bool {
+	switch {
+	case display.Kind != units.Linear:
+		return true
+	case a.D == units.DimTemperature:
+		return a.T != units.Rel || b.T != units.Rel
+	case a.D == units.DimPressure:
+		return a.P == units.GaugeP || b.P == units.GaugeP
+	}
+	return false
 }
 
 // changeUnit is the unit a change is shown in: the display unit, unless it

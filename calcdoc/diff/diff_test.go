@@ -236,9 +236,9 @@ func TestCompareValues(t *testing.T) {
 		same           bool
 	}{
 		{"pressure", "p = 10 MPa", "p = 11 MPa", "+1.000 MPa", "+10.0 %", false},
-		{"temperature in K", "T [degC] = 540 degC", "T [degC] = 545 degC", "+5.000 K", "+0.615 %", false},
+		{"temperature in K", "T [degC] = 540 degC", "T [degC] = 545 degC", "+5.000 K", "", false},
 		{"temperature in Fdeg", "T [degF] = 1000 degF", "T [degF] = 990 degF", "-10.00 Fdeg", "", false},
-		{"gauge pressure", "p [barg] = 10 barg", "p [barg] = 12 barg", "+200.0 kPa", "+18.2 %", false},
+		{"gauge pressure", "p [barg] = 10 barg", "p [barg] = 12 barg", "+200.0 kPa", "", false},
 		{"from zero", "q = 0 kW", "q = 3 kW", "+3.000 kW", "", false},
 		{"unchanged", "m = 2 kg", "m = 2 kg", "", "", true},
 		{"rewritten, same value", "m = 2 kg", "m = 2000 g", "", "", true},
@@ -251,7 +251,7 @@ func TestCompareValues(t *testing.T) {
 				t.Fatalf("values %+v", df.Values)
 			}
 			v := df.Values[0]
-			if v.Same != c.same || v.Change != c.change || c.rel != "" && v.Rel != c.rel {
+			if v.Same != c.same || v.Change != c.change || v.Rel != c.rel {
 				t.Errorf("got same=%v change=%q rel=%q, want %v %q %q", v.Same, v.Change, v.Rel, c.same, c.change, c.rel)
 			}
 		})
@@ -409,4 +409,40 @@ func FuzzCompare(f *testing.F) {
 			t.Fatal("the report is cut short")
 		}
 	})
+}
+
+// TestDiffPercentagePointsAndIntervals: issue 11 item 24. A change of a
+// value in % read "-0.15 %" (points or per cent?), and a temperature's
+// relative change was taken on kelvin. A change of a % value is now in
+// percentage points, and values on offset scales (temperatures other than
+// differences, gauge pressures) get no relative change.
+func TestDiffPercentagePointsAndIntervals(t *testing.T) {
+	calc := func(body string) *calcdoc.Doc {
+		d := calcdoc.Read("t.calc.md", []byte("---\ntitle: Test (fictional)\n---\n```calc\n"+body+"\n```\n"))
+		d.Evaluate()
+		if len(d.Errors) > 0 {
+			t.Fatalf("%s", d.Errors.Format("t", d.Src))
+		}
+		return d
+	}
+	cases := []struct{ old, new, change, rel string }{
+		{"eta = 36.5 %", "eta = 36.35 %", "-0.1500 percentage points", "-0.411 %"},
+		{"eta [%] = 0.365", "eta [%] = 0.37", "+0.5000 percentage points", "+1.37 %"},
+		{"T = 800 K", "T = 810 K", "+10.00 K", ""},
+		{"T = 500 degC", "T = 510 degC", "+10.00 K", ""},
+		{"T [K] = 500 degC", "T [K] = 510 degC", "+10.00 K", ""},
+		{"dT = 5 Cdeg", "dT = 6 Cdeg", "+1.000 Cdeg", "+20.0 %"},
+		{"p = 3 psig", "p = 4 psig", "+6.895 kPa", ""},
+		{"p [bar] = 3 barg", "p [bar] = 4 barg", "+1.000 bar", ""},
+		{"p = 3 bar", "p = 4 bar", "+1.000 bar", "+33.3 %"},
+	}
+	for _, c := range cases {
+		df := Compare(calc(c.old), calc(c.new))
+		if len(df.Values) != 1 {
+			t.Fatalf("values %+v", df.Values)
+		}
+		if v := df.Values[0]; v.Change != c.change || v.Rel != c.rel {
+			t.Errorf("%s → %s: change %q, relative %q; want %q, %q", c.old, c.new, v.Change, v.Rel, c.change, c.rel)
+		}
+	}
 }
