@@ -63,6 +63,7 @@ func TestHostileTextNeverReachesTheTerminal(t *testing.T) {
 		{exitFailed, []string{"register", r.Dir, "-o", filepath.Join(r.Dir, "out")}},
 		{exitErrors, []string{"run", filepath.Join(r.Dir, "missing\x1b[8m.calc.md")}},
 		{exitUsage, []string{"new", calc}},
+		{exitUsage, []string{"serve", filepath.Join(r.Dir, "missing\x1b[8m.calc.md")}},
 		{exitUsage, []string{"no-such-\x1b[8m-command"}},
 	}
 	for _, c := range cases {
