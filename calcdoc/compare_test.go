@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand"
+	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -99,6 +100,9 @@ func TestCheckSidesProperty(t *testing.T) {
 		if (c.Left.V != c.Right.V) != (l != r) {
 			t.Errorf("%s: values %v, %v print as %q, %q", src, c.Left.V, c.Right.V, l, r)
 		}
+		if mn := mnRE.FindAllStringSubmatch(d.comparisonMathML(c), -1); len(mn) != 2 || (mn[0][1] != mn[1][1]) != (l != r) {
+			t.Errorf("%s: the package shows %v where the text shows %q, %q", src, mn, l, r)
+		}
 		lv, rv := leadNumber(t, l), leadNumber(t, r)
 		if holds(op, lv, rv) != it.Outcome.Pass {
 			t.Errorf("%s: printed %q %s %q disagrees with verdict %v", src, l, op, r, it.Outcome.Pass)
@@ -108,6 +112,8 @@ func TestCheckSidesProperty(t *testing.T) {
 		}
 	}
 }
+
+var mnRE = regexp.MustCompile(`<mn>([^<]*)</mn>`)
 
 func orOne(u string) string {
 	if u == "" {
