@@ -2,11 +2,14 @@ package main
 
 import (
 	"bytes"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
+	"sync"
 	"testing"
 
+	"github.com/vouchcalc/vouch/calcdoc/audit"
 	"github.com/vouchcalc/vouch/internal/testkit"
 )
 
@@ -217,5 +220,69 @@ func TestCheckPDFRefusesAnotherPage(t *testing.T) {
 	}
 	if got := pdfString([]byte(`(H \(x\) \101)`)); got != "H (x) A" {
 		t.Errorf("pdfString = %q", got)
+	}
+}
+
+// TestRenderIntoFolderNamedLikePackage: issue 11 item 12. When NAME.html
+// was a folder, render failed but still wrote NAME.manifest.json.
+func TestRenderIntoFolderNamedLikePackage(t *testing.T) {
+	dir := t.TempDir()
+	calc := filepath.Join(dir, "x.calc.md")
+	writeFile(t, calc, "```calc\nx = 1\n```\n")
+	os.Mkdir(filepath.Join(dir, "x.html"), 0o755)
+	_, errs := vouchT(t, exitErrors, "render", calc)
+	if !strings.Contains(errs, "is not a regular file (a folder)") {
+		t.Errorf("render's message: %s", errs)
+	}
+	entries, _ := os.ReadDir(dir)
+	for _, e := range entries {
+		if n := e.Name(); n != "x.calc.md" && n != "x.html" {
+			t.Errorf("render left %s behind", n)
+		}
+	}
+}
+
+// TestConcurrentRendersKeepThePair: issue 11 item 12. Two renders into one
+// folder at once tore the package and manifest pair. Many renders of two
+// different calcs into one folder at once leave a package whose manifest
+// file is its own.
+func TestConcurrentRendersKeepThePair(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "out")
+	var calcs []string
+	for i, sub := range []string{"a", "b"} {
+		calc := filepath.Join(dir, sub, "x.calc.md")
+		os.MkdirAll(filepath.Dir(calc), 0o755)
+		writeFile(t, calc, fmt.Sprintf("```calc\nx = %d kg\n```\n", i+1))
+		calcs = append(calcs, calc)
+	}
+	var wg sync.WaitGroup
+	for i := 0; i < 16; i++ {
+		wg.Add(1)
+		go func(calc string) {
+			defer wg.Done()
+			var o, e bytes.Buffer
+			if code := run([]string{"render", calc, "-o", out}, &o, &e); code != exitOK {
+				t.Errorf("render: exit %d\n%s", code, e.String())
+			}
+		}(calcs[i%2])
+	}
+	wg.Wait()
+	pkg, err := os.ReadFile(filepath.Join(out, "x.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := audit.ManifestOf(pkg)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want, _ := audit.ManifestFile(m)
+	got, _ := os.ReadFile(filepath.Join(out, "x.manifest.json"))
+	if !bytes.Equal(got, want) {
+		t.Errorf("the manifest file is not the package's own:\n%s\nwant\n%s", got, want)
+	}
+	entries, _ := os.ReadDir(out)
+	if len(entries) != 2 {
+		t.Errorf("files left in the folder: %v", entries)
 	}
 }
