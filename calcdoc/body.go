@@ -170,7 +170,7 @@ func (d *Doc) lineHTML(it *Item) string {
 	if s.Kind == eval.Check {
 		b.WriteString(verdictHTML(o.Pass))
 		if cs := d.Comparisons(it); len(cs) > 0 {
-			b.WriteString("<div class=\"desc margin\">" + d.marginHTML(cs) + "</div>")
+			b.WriteString("<div class=\"desc margin\">" + d.marginHTML(cs, false) + "</div>")
 		}
 	}
 	if vs, ok := o.Value.(*eval.Values); ok {

@@ -262,13 +262,18 @@ func (d *Doc) comparisonMathML(c Comparison) string {
 	return "<mrow>" + side(c.Left) + "<mo>" + opText[c.Op] + "</mo>" + side(c.Right) + "</mrow>"
 }
 
-// marginHTML lists the margins of a check's comparisons as HTML text.
-func (d *Doc) marginHTML(cs []Comparison) string {
+// marginHTML lists the margins of a check's comparisons as HTML text:
+// "margin −0.01325 bar; …", without the words when bare is set (a table
+// column headed Margin).
+func (d *Doc) marginHTML(cs []Comparison, bare bool) string {
 	var parts []string
 	for _, c := range cs {
 		word := "margin "
 		if c.Op == "==" || c.Op == "!=" {
 			word = "difference "
+		}
+		if bare {
+			word = ""
 		}
 		s := word + quantityText(c.Margin, c.MarginUnit, d.Front.Digits, d.Front.Ctx)
 		if IsPercent(c.MarginUnit) {

@@ -83,10 +83,11 @@ type rowView struct {
 	Line        int
 }
 type checkView struct {
-	Pass bool
-	Expr string // trusted MathML
-	Desc string
-	Line int
+	Pass   bool
+	Expr   string // trusted MathML
+	Margin string // trusted HTML text: the margin of each comparison
+	Desc   string
+	Line   int
 }
 
 // ContentPolicyTag is the Content-Security-Policy of every page vouch
@@ -185,7 +186,8 @@ func (d *Doc) checkRows() ([]checkView, int) {
 	failed := 0
 	for _, it := range d.Checks() {
 		expr := "<math><mrow>" + d.formula(it.Stmt, false) + "</mrow></math>"
-		rows = append(rows, checkView{Pass: it.Outcome.Pass, Expr: expr, Desc: it.Stmt.Desc, Line: it.Stmt.Line})
+		margin := d.marginHTML(d.Comparisons(it), true)
+		rows = append(rows, checkView{Pass: it.Outcome.Pass, Expr: expr, Margin: margin, Desc: it.Stmt.Desc, Line: it.Stmt.Line})
 		if !it.Outcome.Pass {
 			failed++
 		}
