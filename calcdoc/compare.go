@@ -233,6 +233,23 @@ func (d *Doc) MarginText(c Comparison) string {
 	return s
 }
 
+// ComparisonText is a comparison with its sides in one unit and its
+// margin, as plain text: "10.99 barg >= 11.00 barg, margin -0.01325 bar".
+func (d *Doc) ComparisonText(c Comparison) string {
+	l, r := d.SideTexts(c)
+	return l + " " + c.Op + " " + r + ", " + d.MarginText(c)
+}
+
+// CheckText lists a check's comparisons as ComparisonText does, joined by
+// "; "; "" for a check that compares no quantities.
+func (d *Doc) CheckText(it *Item) string {
+	var parts []string
+	for _, c := range d.Comparisons(it) {
+		parts = append(parts, d.ComparisonText(c))
+	}
+	return strings.Join(parts, "; ")
+}
+
 // PercentagePoints names the unit of a difference of two values in %: the
 // difference of 36.5 % and 30 % is 6.5 percentage points, not 6.5 % (which
 // would read as a relative change).

@@ -54,9 +54,10 @@ type Report struct {
 
 // DesignCheck is one check line of the calc and its verdict.
 type DesignCheck struct {
-	Line int
-	Desc string
-	Pass bool
+	Line   int
+	Desc   string // the check's description, or its expression when it has none
+	Pass   bool
+	Detail string // each comparison's sides and margin: "10.99 barg >= 11.00 barg, margin -0.01325 bar"
 }
 
 // DesignFailed reports whether a design check of the calc fails.
@@ -82,7 +83,9 @@ func (r *Report) designLines(b *strings.Builder) {
 	}
 	fmt.Fprintf(b, "design checks: %d passed, %d failed (the calc's check lines, not verification steps)\n", len(r.DesignChecks)-failed, failed)
 	for _, c := range r.DesignChecks {
-		if !c.Pass {
+		if !c.Pass && c.Detail != "" {
+			fmt.Fprintf(b, "  FAIL  line %d  %s (%s)\n", c.Line, c.Desc, c.Detail)
+		} else if !c.Pass {
 			fmt.Fprintf(b, "  FAIL  line %d  %s\n", c.Line, c.Desc)
 		}
 	}

@@ -242,7 +242,7 @@ func (v *verifier) compareResults() bool {
 	v.rep.add(Holds, "results", "all %d results reproduce bit for bit from the commit; results digest %s", len(got.Results), got.ResultsDigest)
 	v.rep.DesignChecks = []DesignCheck{}
 	for _, it := range v.repro.doc.Checks() {
-		v.rep.DesignChecks = append(v.rep.DesignChecks, DesignCheck{Line: it.Stmt.Line, Desc: it.Stmt.Desc, Pass: it.Outcome.Pass})
+		v.rep.DesignChecks = append(v.rep.DesignChecks, designCheck(v.repro.doc, it))
 	}
 	return true
 }
@@ -276,4 +276,15 @@ func (v *verifier) comparePackage() bool {
 	}
 	v.rep.add(Holds, "package", "the package re-rendered from the commit is byte-identical (%d bytes)", len(html))
 	return true
+}
+
+// designCheck is a check line with its verdict and, for each comparison,
+// both sides in one unit and the margin.
+func designCheck(d *calcdoc.Doc, it *calcdoc.Item) DesignCheck {
+	c := DesignCheck{Line: it.Stmt.Line, Desc: it.Stmt.Desc, Pass: it.Outcome.Pass}
+	if c.Desc == "" {
+		c.Desc = it.Stmt.Expr
+	}
+	c.Detail = d.CheckText(it)
+	return c
 }

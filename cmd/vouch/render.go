@@ -95,7 +95,7 @@ func reportFailedChecks(d *calcdoc.Doc, w io.Writer) {
 			desc = it.Stmt.Expr
 		}
 		line := fmt.Sprintf("  FAIL  line %d  %s", it.Stmt.Line, desc)
-		if t := checkText(d, it); t != "" {
+		if t := d.CheckText(it); t != "" {
 			line += " (" + t + ")"
 		}
 		fmt.Fprintln(w, line)

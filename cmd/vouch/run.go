@@ -154,7 +154,7 @@ func checkJSON(d *calcdoc.Doc, it *calcdoc.Item) jsonCheck {
 		r, _ := cmp.Right.In(cmp.Unit, d.Front.Ctx)
 		m, _ := cmp.Margin.In(cmp.MarginUnit, d.Front.Ctx)
 		j := jsonComparison{Op: cmp.Op, Left: l, Right: r, Unit: unitText(cmp.Unit), Holds: cmp.Holds,
-			Text: comparisonText(d, cmp), Margin: m, MarginUnit: unitText(cmp.MarginUnit)}
+			Text: d.ComparisonText(cmp), Margin: m, MarginUnit: unitText(cmp.MarginUnit)}
 		if cmp.HasRelative {
 			rel := cmp.Relative
 			j.RelativeMargin = &rel
@@ -166,22 +166,6 @@ func checkJSON(d *calcdoc.Doc, it *calcdoc.Item) jsonCheck {
 		c.Margin, c.MarginUnit, c.RelativeMargin = &j.Margin, j.MarginUnit, j.RelativeMargin
 	}
 	return c
-}
-
-// comparisonText is a comparison with its sides evaluated and its margin:
-// "10.987 barg >= 11.000 barg, margin -1.325 kPa".
-func comparisonText(d *calcdoc.Doc, c calcdoc.Comparison) string {
-	l, r := d.SideTexts(c)
-	return l + " " + c.Op + " " + r + ", " + d.MarginText(c)
-}
-
-// checkText lists a check's comparisons as comparisonText does.
-func checkText(d *calcdoc.Doc, it *calcdoc.Item) string {
-	var parts []string
-	for _, c := range d.Comparisons(it) {
-		parts = append(parts, comparisonText(d, c))
-	}
-	return strings.Join(parts, "; ")
 }
 
 // unitText is a unit's text, "" for a pure number.
@@ -223,7 +207,7 @@ func writeTable(w io.Writer, d *calcdoc.Doc) {
 		if !it.Outcome.Pass {
 			verdict, failed = "FAIL", failed+1
 		}
-		fmt.Fprintf(tw, "%s\t%d\t%s\t%s\t%s\n", verdict, it.Stmt.Line, it.Stmt.Expr, checkText(d, it), it.Stmt.Desc)
+		fmt.Fprintf(tw, "%s\t%d\t%s\t%s\t%s\n", verdict, it.Stmt.Line, it.Stmt.Expr, d.CheckText(it), it.Stmt.Desc)
 	}
 	tw.Flush()
 	fmt.Fprintf(w, "\n%s\n", checkTally(len(checks), failed))
