@@ -228,7 +228,7 @@ func (d *Doc) MarginText(c Comparison) string {
 		s = strings.TrimSuffix(s, " %") + " " + PercentagePoints
 	}
 	if c.HasRelative {
-		s += " (" + units.FormatSig(100*c.Relative, 3) + " %)"
+		s += " (" + units.FormatSig(float64(100*c.Relative), 3) + " %)"
 	}
 	return s
 }
@@ -297,7 +297,7 @@ func (d *Doc) marginHTML(cs []Comparison, bare bool) string {
 			s = strings.TrimSuffix(s, "\u2009%") + "\u2009" + PercentagePoints
 		}
 		if c.HasRelative {
-			s += " (" + numberText(100*c.Relative, 3) + "\u2009%)"
+			s += " (" + numberText(float64(100*c.Relative), 3) + "\u2009%)"
 		}
 		parts = append(parts, s)
 	}
