@@ -69,6 +69,7 @@ func (d *Doc) roleRows(states []SignatureState) []roleView {
 				row.Date, row.Fingerprint = day(st.Sig.Date), st.Sig.Fingerprint
 				row.Valid, row.State, row.Checked = st.Valid, stateText(st), st.Checked
 				row.Signed, row.Attestation = st.Sig.Signed, st.Sig.Attestation
+				row.Method = st.Sig.MethodSummary()
 				break
 			}
 		}

@@ -19,6 +19,10 @@ import (
 type DataFile struct {
 	Path string // relative to the repository (or to the calc's folder outside one)
 	Hash string // git blob hash of the bytes read
+	// Review marks the calc's review record (reviewrec.go), listed with
+	// the data files so the manifest covers it; the calc reads no value
+	// from it.
+	Review bool
 }
 
 // dataReader returns the reader csv() uses: paths are relative to the calc

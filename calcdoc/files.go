@@ -85,7 +85,7 @@ func (w workTree) resolve(name string) (string, error) {
 		at = filepath.Join(at, e)
 		st, err := os.Lstat(at)
 		if errors.Is(err, os.ErrNotExist) {
-			return "", fmt.Errorf("%s does not exist", excerpt.Cut(name))
+			return "", notExist(excerpt.Cut(name))
 		}
 		if err != nil {
 			return "", err
@@ -96,3 +96,10 @@ func (w workTree) resolve(name string) (string, error) {
 	}
 	return at, nil
 }
+
+// notExist is the error for a path the work tree does not hold: its
+// message names the path, and errors.Is finds fs.ErrNotExist in it.
+type notExist string
+
+func (e notExist) Error() string { return string(e) + " does not exist" }
+func (e notExist) Unwrap() error { return fs.ErrNotExist }

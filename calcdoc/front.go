@@ -23,6 +23,9 @@ type Front struct {
 	Atmosphere string // as written; Ctx holds the value
 	People     People
 	Summary    []string
+	// Compare maps this calc's names onto those of the calc it is an
+	// alternate calculation of, and sets tolerances (comparefront.go).
+	Compare Compare
 	// SummaryLine is the file line of the summary key (0 when absent).
 	SummaryLine int
 
@@ -44,7 +47,7 @@ type Person struct {
 }
 
 // frontKeys are the front-matter keys; any other key is an error.
-var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary"}
+var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary", "compare"}
 
 // peopleKeys are the roles under people.
 var peopleKeys = []string{"preparer", "checker", "approver"}
@@ -168,6 +171,8 @@ func (f *Front) set(k, v *yaml.Node) []*frontErr {
 		return f.setPeople(v)
 	case "summary":
 		return f.setSummary(v)
+	case "compare":
+		return f.setCompare(v)
 	default:
 		return nodeErr(k, "unknown front-matter key %s; known keys are %s", excerpt.Quote(k.Value), strings.Join(sorted(frontKeys), ", "))
 	}

@@ -15,6 +15,7 @@ import (
 	"github.com/yuin/goldmark/text"
 	"github.com/yuin/goldmark/util"
 
+	"github.com/vouchcalc/vouch/calcdoc/review"
 	"github.com/vouchcalc/vouch/eval"
 )
 
@@ -50,6 +51,11 @@ type Doc struct {
 	Files fs.FS
 	Root  string
 	Rel   string
+	// Review is the checker's review record beside the calc
+	// (NAME.review.yaml, read through Files; nil when there is none), and
+	// ReviewPlaces where each of its comments stands in the calc now.
+	Review       *review.File
+	ReviewPlaces []review.Place
 
 	diagramBlocks []*diagramBlock
 	images        []*image         // the images of the prose, embedded when rendered

@@ -50,6 +50,11 @@ type view struct {
 	ResultsDigest                            string
 	Formulations                             []string
 	Digits                                   int
+	// Review is the comment-and-resolution appendix (reviewrec.go); nil
+	// when the calc has no review record, and ReviewCounts its summary.
+	Review       []reviewView
+	HasReview    bool
+	ReviewCounts string
 
 	// Provenance and signatures (cover.go).
 	Signatures                   []sigView
@@ -69,6 +74,7 @@ type roleView struct {
 	Valid                                       bool
 	Checked                                     bool   // the key was checked against a signers file
 	Signed, Attestation                         string // signing time and meaning
+	Method                                      string // the checker's method of checking, as recorded
 }
 type sigView struct {
 	Role, Name, Principal, Fingerprint, Date, State string
@@ -165,6 +171,7 @@ func (d *Doc) view(opt RenderOptions) *view {
 	v.Checks, v.Failed = d.checkRows()
 	v.Inputs = d.inputRows()
 	v.Formulations = d.formulations()
+	v.setReview(d)
 	return v
 }
 

@@ -80,6 +80,7 @@ func (d *Doc) Evaluate() {
 		it.Outcome = out
 	}
 	d.loadImages()
+	d.readReview()
 	if len(d.Errors) == 0 {
 		d.runSweeps(eng)
 		d.drawDiagrams()

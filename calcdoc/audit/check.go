@@ -60,6 +60,8 @@ func signatureProblem(d *calcdoc.Doc, st *calcdoc.Stamp, s provenance.Signature,
 		return fmt.Sprintf("signed as %s <%s>, but the front matter names %s <%s> as %s", s.Name, s.Principal, p.Name, p.Email, s.Role)
 	case s.Date != st.Date:
 		return fmt.Sprintf("dated %s, but the commit is dated %s", s.Date, st.Date)
+	case methodProblem(s) != "":
+		return methodProblem(s)
 	}
 	if _, err := st.Manifest.VerifySignature(s); err != nil {
 		return err.Error()

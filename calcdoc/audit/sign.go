@@ -57,6 +57,9 @@ type SignOptions struct {
 	Withdraw bool
 	// Now is the clock that gives the signing time; nil means time.Now.
 	Now func() time.Time
+	// Method is how the checker checked; recorded with the checker's
+	// signature only (method.go).
+	Method CheckMethod
 }
 
 // Signed is a package with one more signature, ready to be written.
@@ -96,6 +99,9 @@ func Sign(pkgPath string, opt SignOptions) (*Signed, *Report, error) {
 		return nil, v.rep, err
 	}
 	if err := v.checkUnsigned(opt.Role); err != nil {
+		return nil, v.rep, err
+	}
+	if err := v.checkReview(opt.Role); err != nil {
 		return nil, v.rep, err
 	}
 	signed, err := v.sign(opt)
@@ -154,7 +160,11 @@ func (v *verifier) sign(opt SignOptions) (*Signed, error) {
 	if err := v.signingTime(&s, opt); err != nil {
 		return nil, err
 	}
-	s, err := v.signWith(&m, s, opt)
+	s, err := v.withMethod(s, opt.Method)
+	if err != nil {
+		return nil, err
+	}
+	s, err = v.signWith(&m, s, opt)
 	if err != nil {
 		return nil, err
 	}

@@ -85,7 +85,7 @@ func newVerifier(pkgPath string, opt VerifyOptions) (*verifier, error) {
 func (v *verifier) run() {
 	steps := []func() bool{
 		v.readManifest, v.checkManifestFile, v.openRepo, v.checkSource, v.reproduce,
-		v.compareResults, v.compareManifest, v.comparePackage, v.checkSignatures, v.noteHead,
+		v.compareResults, v.compareManifest, v.comparePackage, v.checkSignatures, v.checkMethods, v.noteHead,
 	}
 	for _, step := range steps {
 		if !step() {

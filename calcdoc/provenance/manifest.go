@@ -69,6 +69,12 @@ type Signature struct {
 	// withdrawn, "" while it stands. A withdrawn signature stays in the
 	// list, so the history is kept, and counts for nothing.
 	Withdrawn string `json:"withdrawn,omitempty"`
+	// Method is how a checker checked, with its references (method.go);
+	// empty on other roles' signatures.
+	Method     string `json:"method,omitempty"`
+	MethodRef  string `json:"method_ref,omitempty"`
+	Report     string `json:"report,omitempty"`
+	ReportHash string `json:"report_sha256,omitempty"`
 }
 
 // Canonical returns the manifest as canonical JSON, so that the same
@@ -274,6 +280,7 @@ func signaturesArray(sigs []Signature) []any {
 			"fingerprint": s.Fingerprint, "date": s.Date, "signature": s.Signature,
 		}
 		addSigningRecord(a[i].(jsonObject), s)
+		addCheckMethod(a[i].(jsonObject), s)
 	}
 	return a
 }

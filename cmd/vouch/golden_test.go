@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"flag"
+	"github.com/vouchcalc/vouch/calcdoc/review"
 	"os"
 	"path/filepath"
 	"strings"
@@ -56,6 +57,11 @@ func copyOutsideRepo(t *testing.T, calc string) string {
 	for _, sub := range []string{"data", "fig"} {
 		if from := filepath.Join(filepath.Dir(calc), sub); dirExists(from) {
 			copyDir(t, from, filepath.Join(dir, sub))
+		}
+	}
+	if rec, err := os.ReadFile(review.PathFor(calc)); err == nil {
+		if err := os.WriteFile(review.PathFor(dst), rec, 0o644); err != nil {
+			t.Fatal(err)
 		}
 	}
 	return dst

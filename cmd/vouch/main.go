@@ -34,6 +34,8 @@ func init() {
 		{"render", "FILE... [-o DIR] [--pdf]", "write the HTML package of each calc", cmdRender},
 		{"sign", "PACKAGE --role ROLE [--key KEY]", "verify, reproduce and sign a package for one role", cmdSign},
 		{"verify", "PACKAGE [--signers FILE] [--repo DIR]", "check a package's signatures and reproduce it from git", cmdVerify},
+		{"review", "add|answer|close|list CALC …", "record the checker's comments on a calc and their resolution", cmdReview},
+		{"compare", "ORIGINAL ALTERNATE [-o REPORT.html]", "compare the results an alternate calculation shares with the original", cmdCompare},
 		{"diff", "FILE [--from REV] [--to REV]", "show what changed in a calc between two revisions", cmdDiff},
 		{"register", "DIR [-o DIR] [--shard i/n]", "render the changed calcs under DIR and write the register's index", cmdRegister},
 		{"serve", "FILE|DIR [--addr HOST:PORT]", "serve a live preview that refreshes on save", cmdServe},

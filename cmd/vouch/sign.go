@@ -20,6 +20,7 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 	sigFile := fs.String("signature", "", "an SSHSIG made elsewhere over the role's payload, instead of a key")
 	signedAt := fs.String("signed", "", "with --signature: the signing time its payload holds, as 2026-03-14T09:26:53Z")
 	withdraw := fs.Bool("withdraw", false, "withdraw the role's standing signature (it stays in the manifest, marked withdrawn)")
+	method := checkMethodFlags(fs)
 	files, err := parseArgs(fs, args)
 	if err != nil {
 		return exitUsage
@@ -34,6 +35,10 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 	}
 	opt := audit.SignOptions{Role: *role, Key: *key, Signed: *signedAt, Withdraw: *withdraw,
 		VerifyOptions: audit.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers}}
+	if opt.Method, err = method.read(); err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitUsage
+	}
 	if *sigFile != "" {
 		if opt.Signature, err = safefile.Read(*sigFile, provenance.MaxKeyFileBytes); err != nil {
 			fmt.Fprintf(stderr, "vouch: %v\n", err)
@@ -80,8 +85,12 @@ func signOne(path string, opt audit.SignOptions, stdout, stderr io.Writer) int {
 			s.Role, s.Name, s.Principal, s.Signed, path, s.Withdrawn, signed.Status)
 		return exitOK
 	}
-	fmt.Fprintf(stdout, "signed %s as %s: %s <%s>, key %s, signed %s (commit of %s)\nattests: %s\nstatus %s\n",
-		path, s.Role, s.Name, s.Principal, s.Fingerprint, s.Signed, s.Date[:min(10, len(s.Date))], s.Attestation, signed.Status)
+	fmt.Fprintf(stdout, "signed %s as %s: %s <%s>, key %s, signed %s (commit of %s)\nattests: %s\n",
+		path, s.Role, s.Name, s.Principal, s.Fingerprint, s.Signed, s.Date[:min(10, len(s.Date))], s.Attestation)
+	if m := s.MethodText(); m != "" {
+		fmt.Fprintf(stdout, "method of checking: %s\n", m)
+	}
+	fmt.Fprintf(stdout, "status %s\n", signed.Status)
 	return exitOK
 }
 
@@ -91,7 +100,7 @@ func errorCode(err error) int {
 	switch {
 	case errors.As(err, &usage):
 		return exitUsage
-	case errors.Is(err, audit.ErrNotVerified), errors.Is(err, audit.ErrKeyRejected):
+	case errors.Is(err, audit.ErrNotVerified), errors.Is(err, audit.ErrKeyRejected), errors.Is(err, audit.ErrReviewOpen):
 		return exitFailed
 	}
 	return exitErrors

@@ -1,0 +1,14 @@
+package templates
+
+import (
+	"embed"
+	"html/template"
+)
+
+//go:embed compare.html
+var compareFiles embed.FS
+
+// Compare parses the template of the report of vouch compare.
+func Compare(funcs template.FuncMap) (*template.Template, error) {
+	return template.New("compare.html").Funcs(funcs).ParseFS(compareFiles, "compare.html")
+}
