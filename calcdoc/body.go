@@ -74,6 +74,9 @@ func (d *Doc) replaceCalcNodes() {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.diagramHTML(d.diagramBlocks[i])})
 		}
 	}
+	for i, f := range fs.assumptions {
+		f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.assumptionsHTML(i)})
+	}
 	for i, f := range fs.calcs {
 		f.Parent().ReplaceChild(f.Parent(), f, &calcBlock{items: byBlock[i]})
 	}

@@ -25,6 +25,8 @@ type Front struct {
 	Summary    []string
 	// SummaryLine is the file line of the summary key (0 when absent).
 	SummaryLine int
+	// References are the documents the calc cites (key references).
+	References []Reference
 
 	Ctx units.Context
 }
@@ -44,7 +46,7 @@ type Person struct {
 }
 
 // frontKeys are the front-matter keys; any other key is an error.
-var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary"}
+var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary", "references"}
 
 // peopleKeys are the roles under people.
 var peopleKeys = []string{"preparer", "checker", "approver"}
@@ -168,6 +170,8 @@ func (f *Front) set(k, v *yaml.Node) []*frontErr {
 		return f.setPeople(v)
 	case "summary":
 		return f.setSummary(v)
+	case "references":
+		return f.setReferences(v)
 	default:
 		return nodeErr(k, "unknown front-matter key %s; known keys are %s", excerpt.Quote(k.Value), strings.Join(sorted(frontKeys), ", "))
 	}

@@ -41,6 +41,8 @@ type Doc struct {
 	Items  []*Item
 	Errors ErrorList
 	Sweeps []*Sweep
+	// Assumptions are the lines of the assumptions blocks, in file order.
+	Assumptions []Assumption
 	// DataFiles are the data files the calc read, in order of first use.
 	DataFiles []DataFile
 	// Files is the tree data files and images are read from: the work tree
@@ -179,7 +181,12 @@ func (d *Doc) collect() {
 	for _, s := range f.diagrams {
 		d.readDiagram(s)
 	}
+	seen := map[string]int{}
+	for i, b := range f.assumptions {
+		d.readAssumptions(i, b, seen)
+	}
 	sortItems(d.Items)
+	d.checkSources()
 }
 
 // readBlock parses the lines of one calc fence.

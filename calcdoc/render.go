@@ -44,6 +44,9 @@ type view struct {
 	Summary                                  []rowView
 	Checks                                   []checkView
 	Inputs                                   []rowView
+	Unsourced                                []rowView // inputs without a source, for the checker
+	References                               []refView
+	Assumptions, OpenAssumptions             []assumptionView
 	Atmosphere                               string
 	Body                                     string
 	Engine, SourcePath, SourceHash           string
@@ -80,6 +83,7 @@ type revView struct{ Date, Commit, Author, Subject string }
 type rowView struct {
 	Name, Value string // trusted HTML built by this package
 	Desc        string
+	Source      string // trusted HTML (sourceHTML); "" when none
 	Line        int
 }
 type checkView struct {
@@ -164,6 +168,13 @@ func (d *Doc) view(opt RenderOptions) *view {
 	v.Summary = d.summaryRows()
 	v.Checks, v.Failed = d.checkRows()
 	v.Inputs = d.inputRows()
+	for _, r := range v.Inputs {
+		if r.Source == "" {
+			v.Unsourced = append(v.Unsourced, r)
+		}
+	}
+	v.References = d.referenceRows()
+	v.Assumptions, v.OpenAssumptions = d.assumptionRows(false), d.assumptionRows(true)
 	v.Formulations = d.formulations()
 	return v
 }
@@ -206,9 +217,18 @@ func (d *Doc) inputRows() []rowView {
 		if _, ok := it.Outcome.Value.(eval.Record); ok {
 			continue
 		}
-		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
+		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Source: d.inputSource(it), Line: it.Stmt.Line})
 	}
 	return rows
+}
+
+// inputSource is the source of an input as HTML: the | source written on
+// its line, else "" (no source).
+func (d *Doc) inputSource(it *Item) string {
+	if it.Stmt.Source == "" {
+		return ""
+	}
+	return d.sourceHTML(it.Stmt.Source)
 }
 
 // formulations lists the property formulations the calc used.

@@ -78,6 +78,7 @@ func (d *Doc) Evaluate() {
 			continue
 		}
 		it.Outcome = out
+		d.checkRecordSource(it)
 	}
 	d.loadImages()
 	if len(d.Errors) == 0 {
