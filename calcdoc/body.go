@@ -467,24 +467,12 @@ func (d *Doc) sweepXHTML(sw *Sweep, i int) string {
 	return numberIn(sw.X[i], sw.XUnit, d)
 }
 
-// valuesHTML lists the values a yaml() line read, so a checker sees them.
+// valuesHTML lists the values of a yaml() line's file as written (its own
+// digits and units), in file order, so a checker sees them.
 func (d *Doc) valuesHTML(vs *eval.Values) string {
 	var parts []string
-	for _, k := range vs.FieldNames() {
-		x, _ := vs.Field(k)
-		var text string
-		switch v := x.(type) {
-		case units.Quantity:
-			text = quantityText(v, units.DefaultUnit(v), d.Front.Digits, d.Front.Ctx)
-			if v.T == units.Abs {
-				text = quantityText(v, celsius, d.Front.Digits, d.Front.Ctx)
-			}
-		case string:
-			text = "“" + html.EscapeString(v) + "”"
-		default:
-			text = html.EscapeString(sprintf("%v", v))
-		}
-		parts = append(parts, nameText(k)+"&#8239;=&#8239;"+text)
+	for _, kv := range vs.Pairs() {
+		parts = append(parts, nameText(kv.Key)+"&#8239;=&#8239;"+writtenHTML(kv))
 	}
 	return strings.Join(parts, ", ")
 }

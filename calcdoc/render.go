@@ -207,11 +207,19 @@ func (d *Doc) checkRows() ([]checkView, int) {
 	return rows, failed
 }
 
-// inputRows lists every definition whose expression reads no names.
+// inputRows lists every definition whose expression reads no names, and
+// every value the calc read from a YAML data file.
 func (d *Doc) inputRows() []rowView {
 	var rows []rowView
 	for _, it := range d.Items {
-		if it.Outcome == nil || it.Stmt.Kind != eval.Def || len(it.Stmt.Deps()) > 0 {
+		if it.Outcome == nil || it.Stmt.Kind != eval.Def {
+			continue
+		}
+		if vs, ok := it.Outcome.Value.(*eval.Values); ok {
+			rows = append(rows, d.dataInputRows(it, vs)...)
+			continue
+		}
+		if len(it.Stmt.Deps()) > 0 {
 			continue
 		}
 		if _, ok := it.Outcome.Value.(eval.Record); ok {

@@ -79,7 +79,7 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
 		return nil, err
 	}
 	out.Sources, out.Solve = sc.sources, sc.solution
-	if err := e.finish(out, v); err != nil {
+	if err := e.finish(out, v, sc.written); err != nil {
 		e.markFailed(s)
 		return nil, err
 	}
@@ -101,7 +101,7 @@ func (e *Engine) markFailed(s *Stmt) {
 }
 
 // finish checks the value against the statement kind and display unit.
-func (e *Engine) finish(out *Outcome, v any) *Error {
+func (e *Engine) finish(out *Outcome, v any, written *units.Unit) *Error {
 	s := out.Stmt
 	out.Value = v
 	if s.Kind == Check {
@@ -118,6 +118,9 @@ func (e *Engine) finish(out *Outcome, v any) *Error {
 	}
 	if isQ {
 		out.Display = e.displayUnit(s, q)
+		if written != nil && !s.hasUnit {
+			out.Display = *written
+		}
 		if _, err := q.In(out.Display, e.Ctx); err != nil {
 			off := s.ExprOff
 			if s.hasUnit {
@@ -134,7 +137,8 @@ func (e *Engine) finish(out *Outcome, v any) *Error {
 }
 
 // displayUnit picks the [UNIT], else the unit of a lone literal, else a
-// sensible SI unit.
+// sensible SI unit. (A line that is one value of a data file, NAME =
+// data.key, shows it in the unit the file writes: see finish.)
 func (e *Engine) displayUnit(s *Stmt, q units.Quantity) units.Unit {
 	if s.hasUnit {
 		return s.display

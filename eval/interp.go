@@ -30,6 +30,7 @@ type scope struct {
 	solution *Solution   // set by solve
 	res      *resolution // the statement's slot numbers; nil: look names up by text
 	slow     bool        // a quick path failed: evaluate the general way (quick.go)
+	written  *units.Unit // the unit of a data-file value the whole line reads (NAME = data.key)
 }
 
 // note records the formulation of a property result once.
@@ -291,6 +292,11 @@ func (c *scope) member(v *ast.MemberNode) (any, *Error) {
 	f, ferr := rec.Field(prop.Value)
 	if ferr != nil {
 		return nil, c.errAt(v.Property, "%s", ferr.Error())
+	}
+	if vs, ok := rec.(*Values); ok && ast.Node(v) == c.s.tree {
+		if u, ok := vs.WrittenUnit(prop.Value); ok {
+			c.written = &u
+		}
 	}
 	return f, nil
 }
