@@ -173,3 +173,42 @@ func TestYAMLValuesAsWritten(t *testing.T) {
 		t.Errorf("m_out = pipe.m_out is not shown in the file's unit: %+v", it.Outcome.Display)
 	}
 }
+
+// TestCSVAppendixAndInterpRows: a CSV table is printed in the appendix as
+// written, every row with its line, and an interp line shows the two rows
+// it used and the fraction.
+func TestCSVAppendixAndInterpRows(t *testing.T) {
+	dir := writeTree(t, map[string]string{
+		"data/cw.csv": "# river curve (fictional)\nT_cw [degC],p [kPa]\n10,1.2280\n15.0,1.7050\n20,2.3390\n25,3.1690\n",
+		"c.calc.md":   "```calc\ncw = csv(\"data/cw.csv\")\np_c = interp(cw, \"T_cw\", 21.5 degC, \"p\")\n```\n",
+	})
+	d, err := ReadFile(filepath.Join(dir, "c.calc.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(d.Errors) > 0 {
+		t.Fatal(d.Errors.Format("c", d.Src))
+	}
+	ip := d.itemOf("p_c").Outcome.Interps
+	if len(ip) != 1 || ip[0].Rows != [2]int{2, 3} || ip[0].Fraction != 0.3 {
+		t.Fatalf("interpolation %+v", ip[0])
+	}
+	pkg, err := d.Render(RenderOptions{Engine: "test"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := string(pkg.HTML)
+	for _, want := range []string{
+		`between the rows at lines 5 and 6, fraction 0.3 of the way:`,
+		`<tr><td class="num">5</td><td class="num">20</td><td class="num">2.3390</td></tr><tr><td class="num">6</td><td class="num">25</td><td class="num">3.1690</td></tr>`,
+		`<h2 id="data-data-cw.csv">data/cw.csv</h2>`,
+		`<th>line</th><th>T_cw [degC]</th><th>p [kPa]</th>`,
+		`<tr><td class="num ln">3</td><td class="num">10</td><td class="num">1.2280</td></tr>`,
+		`<tr><td class="num ln">4</td><td class="num">15.0</td><td class="num">1.7050</td></tr>`,
+		`data/cw.csv: 4 rows of T_cw, p, printed as written in <a href="#data-data-cw.csv">Appendix: data tables</a>`,
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("package lacks %s", want)
+		}
+	}
+}

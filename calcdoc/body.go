@@ -182,7 +182,10 @@ func (d *Doc) lineHTML(it *Item) string {
 		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits) + "</div>")
 	}
 	if t, ok := o.Value.(*eval.Table); ok {
-		b.WriteString("<div class=\"state\">" + tableHTML(t) + "</div>")
+		b.WriteString("<div class=\"state\">" + tableNoteHTML(t) + "</div>")
+	}
+	for _, ip := range o.Interps {
+		b.WriteString(d.interpHTML(ip))
 	}
 	if s.Desc != "" {
 		b.WriteString("<div class=\"desc\">" + html.EscapeString(s.Desc) + "</div>")
@@ -438,25 +441,6 @@ func phaseText(st eval.Record, phase string) string {
 		}
 	}
 	return phase
-}
-
-// tableHTML shows the data a csv() line read, so a checker sees it.
-func tableHTML(t *eval.Table) string {
-	var b strings.Builder
-	b.WriteString("<table class=\"grid data\"><tr>")
-	for i, n := range t.Names {
-		b.WriteString("<th>" + nameText(n) + unitHeading(t.Units[i]) + "</th>")
-	}
-	b.WriteString("</tr>")
-	for r := range t.Cols[0] {
-		b.WriteString("<tr>")
-		for c := range t.Names {
-			b.WriteString("<td class=\"num\">" + html.EscapeString(groupDigits(t.Text[c][r])) + "</td>")
-		}
-		b.WriteString("</tr>")
-	}
-	b.WriteString("</table>")
-	return b.String()
 }
 
 // sweepXHTML is the varied input at point i for the table.

@@ -47,6 +47,7 @@ type view struct {
 	Unsourced                                []rowView // inputs without a source, for the checker
 	References                               []refView
 	Assumptions, OpenAssumptions             []assumptionView
+	Tables                                   []tableView // the CSV tables the calc read, as written
 	Atmosphere                               string
 	Body                                     string
 	Engine, SourcePath, SourceHash           string
@@ -174,6 +175,7 @@ func (d *Doc) view(opt RenderOptions) *view {
 		}
 	}
 	v.References = d.referenceRows()
+	v.Tables = d.tableViews()
 	v.Assumptions, v.OpenAssumptions = d.assumptionRows(false), d.assumptionRows(true)
 	v.Formulations = d.formulations()
 	return v

@@ -23,12 +23,13 @@ func errorf(format string, args ...any) error { return errors.New(sprintf(format
 // Outcome is the evaluated result of one statement.
 type Outcome struct {
 	Stmt    *Stmt
-	Value   any        // units.Quantity, bool, string or Record
-	Display units.Unit // the unit the value is shown in (quantities)
-	Pass    bool       // a check's result
-	Skipped bool       // not evaluated because a name it reads failed
-	Sources []string   // formulations of the property calls the line makes (shared: read only)
-	Solve   *Solution  // how solve found the value, for NAME = solve(...)
+	Value   any              // units.Quantity, bool, string or Record
+	Display units.Unit       // the unit the value is shown in (quantities)
+	Pass    bool             // a check's result
+	Skipped bool             // not evaluated because a name it reads failed
+	Sources []string         // formulations of the property calls the line makes (shared: read only)
+	Solve   *Solution        // how solve found the value, for NAME = solve(...)
+	Interps []*Interpolation // the rows each interp call of the line used, in order
 }
 
 // Engine evaluates statements in file order and holds the defined names.
@@ -78,7 +79,7 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
 		e.markFailed(s)
 		return nil, err
 	}
-	out.Sources, out.Solve = sc.sources, sc.solution
+	out.Sources, out.Solve, out.Interps = sc.sources, sc.solution, sc.interps
 	if err := e.finish(out, v, sc.written); err != nil {
 		e.markFailed(s)
 		return nil, err

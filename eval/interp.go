@@ -26,11 +26,12 @@ type Sourced interface {
 type scope struct {
 	e        *Engine
 	s        *Stmt
-	sources  []string    // formulations of the property calls, in order
-	solution *Solution   // set by solve
-	res      *resolution // the statement's slot numbers; nil: look names up by text
-	slow     bool        // a quick path failed: evaluate the general way (quick.go)
-	written  *units.Unit // the unit of a data-file value the whole line reads (NAME = data.key)
+	sources  []string         // formulations of the property calls, in order
+	solution *Solution        // set by solve
+	interps  []*Interpolation // the interp calls, in order
+	res      *resolution      // the statement's slot numbers; nil: look names up by text
+	slow     bool             // a quick path failed: evaluate the general way (quick.go)
+	written  *units.Unit      // the unit of a data-file value the whole line reads (NAME = data.key)
 }
 
 // note records the formulation of a property result once.

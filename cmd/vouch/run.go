@@ -79,6 +79,7 @@ type jsonResult struct {
 	SI     float64 `json:"si"`
 	SIUnit string  `json:"si_unit"`
 	Text   string  `json:"text"`
+	Source string  `json:"source,omitempty"` // the | source of an input
 }
 
 type jsonCheck struct {
@@ -129,7 +130,7 @@ func writeJSON(w io.Writer, d *calcdoc.Doc) error {
 		v, _ := q.In(it.Outcome.Display, d.Front.Ctx)
 		out.Results = append(out.Results, jsonResult{
 			Name: it.Stmt.Name, Line: it.Stmt.Line, Value: v, Unit: unitText(it.Outcome.Display),
-			SI: q.V, SIUnit: units.SIUnitText(q.D), Text: d.ValueText(it.Outcome),
+			SI: q.V, SIUnit: units.SIUnitText(q.D), Text: d.ValueText(it.Outcome), Source: it.Stmt.Source,
 		})
 	}
 	for _, it := range d.Checks() {
