@@ -302,6 +302,9 @@ func (d *Doc) resultMathML(o *eval.Outcome) string {
 
 // valueHTML formats an outcome's value as HTML text.
 func (d *Doc) valueHTML(o *eval.Outcome) string {
+	if o.Written != "" {
+		return html.EscapeString(o.Written)
+	}
 	if isNumberInput(o) {
 		return groupDigits(o.Stmt.Expr)
 	}

@@ -133,7 +133,8 @@ func keyValues(raw []byte) ([]eval.KeyValue, error) {
 		}
 		seen[k.Value] = k.Line
 		quoted := v.Style&(yaml.DoubleQuotedStyle|yaml.SingleQuotedStyle) != 0
-		out = append(out, eval.KeyValue{Key: k.Value, Value: v.Value, Quoted: quoted, Line: v.Line})
+		comment := strings.TrimSpace(strings.TrimPrefix(strings.TrimSpace(v.LineComment+k.LineComment), "#"))
+		out = append(out, eval.KeyValue{Key: k.Value, Value: v.Value, Quoted: quoted, Line: v.Line, Comment: comment})
 	}
 	return out, nil
 }

@@ -3,6 +3,7 @@ package calcdoc
 import (
 	"bytes"
 	"errors"
+	"html"
 	"html/template"
 	"sort"
 
@@ -233,12 +234,17 @@ func (d *Doc) inputRows() []rowView {
 }
 
 // inputSource is the source of an input as HTML: the | source written on
-// its line, else "" (no source).
+// its line; for a CSV table without one, its file, linked to the appendix
+// that prints it; else "" (no source).
 func (d *Doc) inputSource(it *Item) string {
-	if it.Stmt.Source == "" {
-		return ""
+	t, isTable := it.Outcome.Value.(*eval.Table)
+	switch {
+	case it.Stmt.Source != "":
+		return d.sourceHTML(it.Stmt.Source)
+	case isTable:
+		return `<a href="#` + tableAnchor(t.Path) + `">` + html.EscapeString(t.Path) + `</a>`
 	}
-	return d.sourceHTML(it.Stmt.Source)
+	return ""
 }
 
 // formulations lists the property formulations the calc used.

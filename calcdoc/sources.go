@@ -99,7 +99,8 @@ func (d *Doc) checkSources() {
 // checkRecordSource reports a source on a line whose value is a state: a
 // state is not an input; its sources belong on the inputs it is made from.
 func (d *Doc) checkRecordSource(it *Item) {
-	if _, ok := it.Outcome.Value.(eval.Record); ok && it.Stmt.Source != "" {
+	_, isData := it.Outcome.Value.(*eval.Values) // a data file: its values are inputs
+	if _, ok := it.Outcome.Value.(eval.Record); ok && !isData && it.Stmt.Source != "" {
 		d.errorf(it.Stmt.SourceOff, "%s is a state, not an input; put the source (| %s) on input lines and make the state from them", it.Stmt.Name, it.Stmt.Source)
 	}
 }

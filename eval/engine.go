@@ -30,6 +30,11 @@ type Outcome struct {
 	Sources []string         // formulations of the property calls the line makes (shared: read only)
 	Solve   *Solution        // how solve found the value, for NAME = solve(...)
 	Interps []*Interpolation // the rows each interp call of the line used, in order
+	// Written is the value as a data file writes it, for a line that is
+	// one value of a YAML file (NAME = data.key) without a display unit.
+	Written string
+	// WrittenIn is where: the file and line ("data/x.yaml line 4").
+	WrittenIn string
 }
 
 // Engine evaluates statements in file order and holds the defined names.
@@ -80,6 +85,10 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
 		return nil, err
 	}
 	out.Sources, out.Solve, out.Interps = sc.sources, sc.solution, sc.interps
+	out.Written, out.WrittenIn = "", sc.wfrom
+	if !s.hasUnit {
+		out.Written = sc.wtext
+	}
 	if err := e.finish(out, v, sc.written); err != nil {
 		e.markFailed(s)
 		return nil, err

@@ -2,6 +2,7 @@ package eval
 
 import (
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/expr-lang/expr/ast"
@@ -32,6 +33,8 @@ type scope struct {
 	res      *resolution      // the statement's slot numbers; nil: look names up by text
 	slow     bool             // a quick path failed: evaluate the general way (quick.go)
 	written  *units.Unit      // the unit of a data-file value the whole line reads (NAME = data.key)
+	wtext    string           // that value as the file writes it
+	wfrom    string           // and where: "PATH line N"
 }
 
 // note records the formulation of a property result once.
@@ -298,6 +301,8 @@ func (c *scope) member(v *ast.MemberNode) (any, *Error) {
 		if u, ok := vs.WrittenUnit(prop.Value); ok {
 			c.written = &u
 		}
+		kv := vs.Pairs()[vs.index[prop.Value]]
+		c.wtext, c.wfrom = kv.Value, vs.Path+" line "+strconv.Itoa(kv.Line)
 	}
 	return f, nil
 }

@@ -18,6 +18,7 @@ type KeyValue struct {
 	Key, Value string
 	Quoted     bool // the value was written in quotes: text, not a quantity
 	Line       int
+	Comment    string // the comment at the end of the line, without its #
 }
 
 // ValuesReader reads the key: value pairs of a YAML data file; the document
