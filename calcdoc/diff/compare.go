@@ -38,6 +38,12 @@ type FileChange struct {
 	Path             string
 	Kind             string // "added", "removed" or "changed"
 	OldHash, NewHash string // git blob hashes, "" on the side without the file
+	// Values are the values that changed in a changed CSV or YAML file
+	// (at most MaxCellChanges; More counts the rest); Note says why they
+	// could not be compared.
+	Values []CellChange
+	More   int
+	Note   string
 }
 
 // FieldChange is a front-matter field that changed.
@@ -85,6 +91,12 @@ func Compare(old, new *calcdoc.Doc) *Diff {
 	df.compareDefs(old, new)
 	df.compareChecks(old, new)
 	df.Files = fileChanges(old.DataFiles, new.DataFiles)
+	for i, f := range df.Files {
+		if f.Kind == "changed" {
+			fc := &df.Files[i]
+			fc.Values, fc.More, fc.Note = dataValueChanges(old, new, calcdoc.DataFile{Path: f.Path, Hash: f.NewHash}, f.OldHash)
+		}
+	}
 	df.Prose = proseHunks(old.Prose(), new.Prose())
 	return df
 }
