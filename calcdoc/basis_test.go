@@ -97,7 +97,7 @@ func TestBasisRendered(t *testing.T) {
 		`<strong>For the checker:</strong> 1 of 3 inputs have no source: <a href="#L10"><i>η</i><sub>p</sub></a>.`,
 		`<tr id="ref-HB-001"><td>HB-001</td><td>Heat balance diagram of the fictional Unit 1</td><td>C</td><td class="num">2026-03-02</td></tr>`,
 		`<td>DS-17</td><td>Feed pump datasheet (fictional vendor)</td><td>2nd</td>`,
-		`1 open assumption: the package is PRELIMINARY`,
+		`1 open assumption: not for construction. The package cannot be approved, and once signed reads PRELIMINARY, until it is confirmed.`,
 		`<tr><td><a href="#A-A2">A2</a></td><td>pump efficiency until the vendor confirms it</td><td class="num"><a href="#L16">16</a></td></tr>`,
 		`<h1>Assumptions</h1>`,
 		`<span class="verdict pass">CONFIRMED</span></td><td>condenser pressure from the heat balance</td><td><a href="#ref-HB-001">HB-001</a> rev C</td>`,

@@ -190,6 +190,9 @@ func (d *Doc) lineHTML(it *Item) string {
 	if s.Desc != "" {
 		b.WriteString("<div class=\"desc\">" + html.EscapeString(s.Desc) + "</div>")
 	}
+	if s.Source != "" {
+		b.WriteString("<div class=\"src\">Source: " + d.sourceHTML(s.Source) + "</div>")
+	}
 	if sv := o.Solve; sv != nil {
 		b.WriteString(sprintf("<div class=\"desc\">Solved by bracketing (Brent's method) in %d evaluations; remaining residual %s.</div>",
 			sv.Iterations, quantityText(sv.Residual, units.DefaultUnit(sv.Residual), 3, d.Front.Ctx)))
