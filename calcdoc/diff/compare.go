@@ -159,10 +159,39 @@ func frontChanges(a, b calcdoc.Front) []FieldChange {
 		{"approver", a.People.Approver.Text, b.People.Approver.Text},
 		{"summary", strings.Join(a.Summary, ", "), strings.Join(b.Summary, ", ")},
 	}
+	fields = append(fields, referenceChanges(a.References, b.References)...)
 	var out []FieldChange
 	for _, f := range fields {
 		if f.Old != f.New {
 			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// referenceChanges compares the references by id: the new side's in its
+// order, then those only the old side lists.
+func referenceChanges(a, b []calcdoc.Reference) []FieldChange {
+	text := func(r calcdoc.Reference) string {
+		s := r.Title + ", " + r.Revision
+		if r.Date != "" {
+			s += ", " + r.Date
+		}
+		return s
+	}
+	was := map[string]string{}
+	for _, r := range a {
+		was[r.ID] = text(r)
+	}
+	var out []FieldChange
+	seen := map[string]bool{}
+	for _, r := range b {
+		seen[r.ID] = true
+		out = append(out, FieldChange{"reference " + r.ID, was[r.ID], text(r)})
+	}
+	for _, r := range a {
+		if !seen[r.ID] {
+			out = append(out, FieldChange{"reference " + r.ID, text(r), ""})
 		}
 	}
 	return out

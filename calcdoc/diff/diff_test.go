@@ -499,3 +499,26 @@ func TestDiffDataValues(t *testing.T) {
 func sprintfCell(path string, c CellChange) string {
 	return path + " " + c.Where + ": " + c.Old + " -> " + c.New + " (" + strconv.Itoa(c.OldLine) + "," + strconv.Itoa(c.NewLine) + ")"
 }
+
+// TestReferenceChanges: a reference whose revision changed, one added and
+// one removed are front-matter changes, by id.
+func TestReferenceChanges(t *testing.T) {
+	read := func(refs string) *calcdoc.Doc {
+		d := calcdoc.Read("t.calc.md", []byte("---\nreferences:\n"+refs+"---\n```calc\na = 1 m\n```\n"))
+		d.Evaluate()
+		if len(d.Errors) > 0 {
+			t.Fatalf("%s", d.Errors.Format("t", d.Src))
+		}
+		return d
+	}
+	old := read("  - {id: HB-001, title: Heat balance, revision: C}\n  - {id: DS-1, title: Datasheet, revision: A}\n")
+	new := read("  - {id: HB-001, title: Heat balance, revision: D, date: 2026-04-01}\n  - {id: DS-2, title: Datasheet, edition: 2nd}\n")
+	var got []string
+	for _, f := range Compare(old, new).Front {
+		got = append(got, f.Field+": "+f.Old+" -> "+f.New)
+	}
+	want := "reference HB-001: Heat balance, C -> Heat balance, D, 2026-04-01|reference DS-2:  -> Datasheet, 2nd|reference DS-1: Datasheet, A -> "
+	if strings.Join(got, "|") != want {
+		t.Errorf("got  %s\nwant %s", strings.Join(got, "|"), want)
+	}
+}
