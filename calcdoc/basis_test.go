@@ -94,7 +94,7 @@ func TestBasisRendered(t *testing.T) {
 		`<th>Source</th>`,
 		`<td><a href="#ref-HB-001">HB-001</a> rev C, sheet 2</td>`,
 		`<td>unit log 2026-02 (fictional)</td>`,
-		`<strong>For the checker:</strong> 1 of 3 inputs have no source: <a href="#L10"><i>η</i><sub>p</sub></a>.`,
+		`<strong>For the checker:</strong> inputs without a source (1 of 3): <a href="#L10"><i>η</i><sub>p</sub></a>.`,
 		`<tr id="ref-HB-001"><td>HB-001</td><td>Heat balance diagram of the fictional Unit 1</td><td>C</td><td class="num">2026-03-02</td></tr>`,
 		`<td>DS-17</td><td>Feed pump datasheet (fictional vendor)</td><td>2nd</td>`,
 		`1 open assumption: not for construction. The package cannot be approved, and once signed reads PRELIMINARY, until it is confirmed.`,
