@@ -49,6 +49,7 @@ type view struct {
 	References                               []refView
 	Assumptions, OpenAssumptions             []assumptionView
 	Tables                                   []tableView // the CSV tables the calc read, as written
+	Preliminary                              bool        // the stamp reads PRELIMINARY: open assumptions
 	Atmosphere                               string
 	Body                                     string
 	Engine, SourcePath, SourceHash           string
