@@ -40,6 +40,9 @@ func (d *Doc) OpenAssumptions() []Assumption {
 
 // readAssumptions reads the lines of one assumptions fence.
 func (d *Doc) readAssumptions(index int, b *gast.FencedCodeBlock, seen map[string]int) {
+	if !d.checkClosed(b) {
+		return // the rest of the file is not assumptions: one error, at the fence
+	}
 	lines := b.Lines()
 	for i := 0; i < lines.Len(); i++ {
 		seg := lines.At(i)

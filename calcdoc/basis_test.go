@@ -50,6 +50,8 @@ func TestBasisErrors(t *testing.T) {
 			"2:3: expected an assumption id (letters, digits, - _ .) then its status; write ID open: text, or ID confirmed: text | SOURCE"},
 		{"confirmed without source", "```assumptions\nA1 confirmed: steady state\n```\n",
 			"2:4: confirmed assumption A1 needs the document that confirms it: end the line with | SOURCE"},
+		{"assumptions not closed", "# A\n\n```assumptions\nA1 open: steady state\n\nProse after it.\n",
+			"3:1: calc block is not closed: add a closing fence line"},
 		{"assumption without text", "```assumptions\nA1 open:\n```\n",
 			"2:4: assumption A1 has no text; write ID open: text, or ID confirmed: text | SOURCE"},
 	}

@@ -210,8 +210,9 @@ func (d *Doc) readBlock(index int, b *gast.FencedCodeBlock) {
 }
 
 // checkClosed reports a calc fence that runs to the end of the file: the
-// line after its content must be a closing fence.
-func (d *Doc) checkClosed(b *gast.FencedCodeBlock) {
+// line after its content must be a closing fence. It reports whether the
+// fence is closed.
+func (d *Doc) checkClosed(b *gast.FencedCodeBlock) bool {
 	var rest []byte
 	if n := b.Lines().Len(); n > 0 {
 		rest = d.body[b.Lines().At(n-1).Stop:]
@@ -223,7 +224,9 @@ func (d *Doc) checkClosed(b *gast.FencedCodeBlock) {
 	if !strings.HasPrefix(t, "```") && !strings.HasPrefix(t, "~~~") {
 		p := d.lines.pos(d.Src, b.Info.Segment.Start)
 		d.errorf(p.Off-(p.Col-1), "calc block is not closed: add a closing fence line")
+		return false
 	}
+	return true
 }
 
 // readInline parses an inline `=expr` or `=expr [UNIT]` span.
