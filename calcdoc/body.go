@@ -74,6 +74,9 @@ func (d *Doc) replaceCalcNodes() {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.diagramHTML(d.diagramBlocks[i])})
 		}
 	}
+	for i, f := range fs.assumptions {
+		f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.assumptionsHTML(i)})
+	}
 	for i, f := range fs.calcs {
 		f.Parent().ReplaceChild(f.Parent(), f, &calcBlock{items: byBlock[i]})
 	}
@@ -179,10 +182,16 @@ func (d *Doc) lineHTML(it *Item) string {
 		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits) + "</div>")
 	}
 	if t, ok := o.Value.(*eval.Table); ok {
-		b.WriteString("<div class=\"state\">" + tableHTML(t) + "</div>")
+		b.WriteString("<div class=\"state\">" + tableNoteHTML(t) + "</div>")
+	}
+	for _, ip := range o.Interps {
+		b.WriteString(d.interpHTML(ip))
 	}
 	if s.Desc != "" {
 		b.WriteString("<div class=\"desc\">" + html.EscapeString(s.Desc) + "</div>")
+	}
+	if s.Source != "" {
+		b.WriteString("<div class=\"src\">Source: " + d.sourceHTML(s.Source) + "</div>")
 	}
 	if sv := o.Solve; sv != nil {
 		b.WriteString(sprintf("<div class=\"desc\">Solved by bracketing (Brent's method) in %d evaluations; remaining residual %s.</div>",
@@ -296,6 +305,9 @@ func (d *Doc) resultMathML(o *eval.Outcome) string {
 
 // valueHTML formats an outcome's value as HTML text.
 func (d *Doc) valueHTML(o *eval.Outcome) string {
+	if o.Written != "" {
+		return html.EscapeString(o.Written)
+	}
 	if isNumberInput(o) {
 		return groupDigits(o.Stmt.Expr)
 	}
@@ -437,25 +449,6 @@ func phaseText(st eval.Record, phase string) string {
 	return phase
 }
 
-// tableHTML shows the data a csv() line read, so a checker sees it.
-func tableHTML(t *eval.Table) string {
-	var b strings.Builder
-	b.WriteString("<table class=\"grid data\"><tr>")
-	for i, n := range t.Names {
-		b.WriteString("<th>" + nameText(n) + unitHeading(t.Units[i]) + "</th>")
-	}
-	b.WriteString("</tr>")
-	for r := range t.Cols[0] {
-		b.WriteString("<tr>")
-		for c := range t.Names {
-			b.WriteString("<td class=\"num\">" + html.EscapeString(groupDigits(t.Text[c][r])) + "</td>")
-		}
-		b.WriteString("</tr>")
-	}
-	b.WriteString("</table>")
-	return b.String()
-}
-
 // sweepXHTML is the varied input at point i for the table.
 func (d *Doc) sweepXHTML(sw *Sweep, i int) string {
 	if sw.Texts != nil {
@@ -464,24 +457,12 @@ func (d *Doc) sweepXHTML(sw *Sweep, i int) string {
 	return numberIn(sw.X[i], sw.XUnit, d)
 }
 
-// valuesHTML lists the values a yaml() line read, so a checker sees them.
+// valuesHTML lists the values of a yaml() line's file as written (its own
+// digits and units), in file order, so a checker sees them.
 func (d *Doc) valuesHTML(vs *eval.Values) string {
 	var parts []string
-	for _, k := range vs.FieldNames() {
-		x, _ := vs.Field(k)
-		var text string
-		switch v := x.(type) {
-		case units.Quantity:
-			text = quantityText(v, units.DefaultUnit(v), d.Front.Digits, d.Front.Ctx)
-			if v.T == units.Abs {
-				text = quantityText(v, celsius, d.Front.Digits, d.Front.Ctx)
-			}
-		case string:
-			text = "“" + html.EscapeString(v) + "”"
-		default:
-			text = html.EscapeString(sprintf("%v", v))
-		}
-		parts = append(parts, nameText(k)+"&#8239;=&#8239;"+text)
+	for _, kv := range vs.Pairs() {
+		parts = append(parts, nameText(kv.Key)+"&#8239;=&#8239;"+writtenHTML(kv))
 	}
 	return strings.Join(parts, ", ")
 }

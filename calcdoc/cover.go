@@ -42,6 +42,7 @@ func (v *view) setStamp(d *Doc, rec *Stamp) error {
 	if v.Status == "" {
 		v.Status = "DRAFT"
 	}
+	v.Preliminary = strings.HasPrefix(v.Status, "PRELIMINARY") // open assumptions (audit.Preliminary)
 	v.Roles = d.roleRows(states)
 	v.Signatures = signatureRows(states)
 	v.Exceptions, v.KeysNote = signerNotes(m, states)

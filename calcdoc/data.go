@@ -137,7 +137,21 @@ func keyValues(raw []byte) ([]eval.KeyValue, error) {
 		}
 		seen[k.Value] = k.Line
 		quoted := v.Style&(yaml.DoubleQuotedStyle|yaml.SingleQuotedStyle) != 0
-		out = append(out, eval.KeyValue{Key: k.Value, Value: v.Value, Quoted: quoted, Line: v.Line})
+		comment := strings.TrimSpace(strings.TrimPrefix(strings.TrimSpace(v.LineComment+k.LineComment), "#"))
+		out = append(out, eval.KeyValue{Key: k.Value, Value: v.Value, Quoted: quoted, Line: v.Line, Comment: comment})
 	}
 	return out, nil
 }
+
+// ReadData returns the bytes of a data file the calc read, from Files (the
+// tree the calc was evaluated in), for a comparison of two revisions.
+func (d *Doc) ReadData(f DataFile) ([]byte, error) {
+	if d.Files == nil {
+		return nil, fmt.Errorf("%s: the calc has not been evaluated", f.Path)
+	}
+	return safefile.ReadFS(d.Files, f.Path, MaxDataBytes)
+}
+
+// DataValues decodes a YAML data file's key: value pairs as yaml() reads
+// them, each as written, with its line.
+func DataValues(raw []byte) ([]eval.KeyValue, error) { return keyValues(raw) }

@@ -9,12 +9,14 @@
 //   - reading: parse.go (Doc, Read), front.go (front matter), errors.go
 //     (Pos, Error, ErrorList, UsageError), prose.go (prose lines for the
 //     diff), files.go (the work tree as an fs.FS), data.go (csv and yaml readers,
-//     path rules), images.go (images of the prose).
+//     path rules), images.go (images of the prose), sources.go (| sources
+//     of inputs, the references key), assumptions.go (assumptions blocks).
 //   - evaluating: run.go (Evaluate, ReadFile, ReadIn), sweep.go and
 //     sweeprun.go (sweep blocks), diagram.go (T-s and h-s diagrams).
 //   - rendering: render.go (Render, Package), body.go (the Markdown body),
 //     mathml.go and typeset.go (formulas and values), cover.go (cover,
-//     signature block, history), manifest.go (Stamp, the evaluation's part
+//     signature block, history), datainputs.go (YAML values as inputs),
+//     datatables.go (the CSV appendix, interp rows), manifest.go (Stamp, the evaluation's part
 //     of the manifest), writefile.go (atomic writes for the commands).
 //
 // Its neighbours: calcdoc/audit builds stamps from git and signs and

@@ -28,6 +28,8 @@ type Front struct {
 	Compare Compare
 	// SummaryLine is the file line of the summary key (0 when absent).
 	SummaryLine int
+	// References are the documents the calc cites (key references).
+	References []Reference
 
 	Ctx units.Context
 }
@@ -47,7 +49,7 @@ type Person struct {
 }
 
 // frontKeys are the front-matter keys; any other key is an error.
-var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary", "compare"}
+var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary", "compare", "references"}
 
 // peopleKeys are the roles under people.
 var peopleKeys = []string{"preparer", "checker", "approver"}
@@ -173,6 +175,8 @@ func (f *Front) set(k, v *yaml.Node) []*frontErr {
 		return f.setSummary(v)
 	case "compare":
 		return f.setCompare(v)
+	case "references":
+		return f.setReferences(v)
 	default:
 		return nodeErr(k, "unknown front-matter key %s; known keys are %s", excerpt.Quote(k.Value), strings.Join(sorted(frontKeys), ", "))
 	}

@@ -62,6 +62,7 @@ func FuzzRead(f *testing.F) {
 // MathML that is not finite.
 func FuzzRender(f *testing.F) {
 	f.Add([]byte("---\ntitle: x\n---\n```calc\na = 1 m\nb [mm] = a^2 / (2 m) + sqrt(a * 3 m)\ncheck b > 0 m\n```\n`=b [m]`\n"))
+	f.Add([]byte("---\nreferences:\n  - {id: HB-1, title: t, revision: C}\n---\n```calc\na = 1 m // x | HB-1 rev C\n```\n```assumptions\nA1 open: x\nA2 confirmed: y | HB-1\n```\n"))
 	f.Add([]byte("```calc\nst = water(1 MPa, 500 K)\nh_1 [kJ/kg] = st.h\neta_th = abs(-0.4) * max(1, 2)\nx = solve(x * 2 == 3, 0, 5)\n```\n"))
 	f.Add([]byte("# T\n\n| a | b |\n|---|---|\n| 1 | 2 |\n\n```calc\nDelta_T = 30 degC - 20 degC\nrho_1 = 1000 kg/m^3\nq = rho_1 * 4.18 kJ/(kg*K) * Delta_T\n```\n"))
 	dir := f.TempDir()

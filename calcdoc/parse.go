@@ -42,6 +42,8 @@ type Doc struct {
 	Items  []*Item
 	Errors ErrorList
 	Sweeps []*Sweep
+	// Assumptions are the lines of the assumptions blocks, in file order.
+	Assumptions []Assumption
 	// DataFiles are the data files the calc read, in order of first use.
 	DataFiles []DataFile
 	// Files is the tree data files and images are read from: the work tree
@@ -185,7 +187,12 @@ func (d *Doc) collect() {
 	for _, s := range f.diagrams {
 		d.readDiagram(s)
 	}
+	seen := map[string]int{}
+	for i, b := range f.assumptions {
+		d.readAssumptions(i, b, seen)
+	}
 	sortItems(d.Items)
+	d.checkSources()
 }
 
 // readBlock parses the lines of one calc fence.
@@ -209,8 +216,9 @@ func (d *Doc) readBlock(index int, b *gast.FencedCodeBlock) {
 }
 
 // checkClosed reports a calc fence that runs to the end of the file: the
-// line after its content must be a closing fence.
-func (d *Doc) checkClosed(b *gast.FencedCodeBlock) {
+// line after its content must be a closing fence. It reports whether the
+// fence is closed.
+func (d *Doc) checkClosed(b *gast.FencedCodeBlock) bool {
 	var rest []byte
 	if n := b.Lines().Len(); n > 0 {
 		rest = d.body[b.Lines().At(n-1).Stop:]
@@ -222,7 +230,9 @@ func (d *Doc) checkClosed(b *gast.FencedCodeBlock) {
 	if !strings.HasPrefix(t, "```") && !strings.HasPrefix(t, "~~~") {
 		p := d.lines.pos(d.Src, b.Info.Segment.Start)
 		d.errorf(p.Off-(p.Col-1), "calc block is not closed: add a closing fence line")
+		return false
 	}
+	return true
 }
 
 // readInline parses an inline `=expr` or `=expr [UNIT]` span.

@@ -3,6 +3,7 @@ package calcdoc
 import (
 	"bytes"
 	"errors"
+	"html"
 	"html/template"
 	"sort"
 
@@ -44,6 +45,11 @@ type view struct {
 	Summary                                  []rowView
 	Checks                                   []checkView
 	Inputs                                   []rowView
+	Unsourced                                []rowView // inputs without a source, for the checker
+	References                               []refView
+	Assumptions, OpenAssumptions             []assumptionView
+	Tables                                   []tableView // the CSV tables the calc read, as written
+	Preliminary                              bool        // the stamp reads PRELIMINARY: open assumptions
 	Atmosphere                               string
 	Body                                     string
 	Engine, SourcePath, SourceHash           string
@@ -86,6 +92,7 @@ type revView struct{ Date, Commit, Author, Subject string }
 type rowView struct {
 	Name, Value string // trusted HTML built by this package
 	Desc        string
+	Source      string // trusted HTML (sourceHTML); "" when none
 	Line        int
 }
 type checkView struct {
@@ -170,6 +177,14 @@ func (d *Doc) view(opt RenderOptions) *view {
 	v.Summary = d.summaryRows()
 	v.Checks, v.Failed = d.checkRows()
 	v.Inputs = d.inputRows()
+	for _, r := range v.Inputs {
+		if r.Source == "" {
+			v.Unsourced = append(v.Unsourced, r)
+		}
+	}
+	v.References = d.referenceRows()
+	v.Tables = d.tableViews()
+	v.Assumptions, v.OpenAssumptions = d.assumptionRows(false), d.assumptionRows(true)
 	v.Formulations = d.formulations()
 	v.setReview(d)
 	return v
@@ -203,19 +218,41 @@ func (d *Doc) checkRows() ([]checkView, int) {
 	return rows, failed
 }
 
-// inputRows lists every definition whose expression reads no names.
+// inputRows lists every definition whose expression reads no names, and
+// every value the calc read from a YAML data file.
 func (d *Doc) inputRows() []rowView {
 	var rows []rowView
 	for _, it := range d.Items {
-		if it.Outcome == nil || it.Stmt.Kind != eval.Def || len(it.Stmt.Deps()) > 0 {
+		if it.Outcome == nil || it.Stmt.Kind != eval.Def {
+			continue
+		}
+		if vs, ok := it.Outcome.Value.(*eval.Values); ok {
+			rows = append(rows, d.dataInputRows(it, vs)...)
+			continue
+		}
+		if len(it.Stmt.Deps()) > 0 {
 			continue
 		}
 		if _, ok := it.Outcome.Value.(eval.Record); ok {
 			continue
 		}
-		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
+		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Source: d.inputSource(it), Line: it.Stmt.Line})
 	}
 	return rows
+}
+
+// inputSource is the source of an input as HTML: the | source written on
+// its line; for a CSV table without one, its file, linked to the appendix
+// that prints it; else "" (no source).
+func (d *Doc) inputSource(it *Item) string {
+	t, isTable := it.Outcome.Value.(*eval.Table)
+	switch {
+	case it.Stmt.Source != "":
+		return d.sourceHTML(it.Stmt.Source)
+	case isTable:
+		return `<a href="#` + tableAnchor(t.Path) + `">` + html.EscapeString(t.Path) + `</a>`
+	}
+	return ""
 }
 
 // formulations lists the property formulations the calc used.

@@ -78,6 +78,7 @@ func (d *Doc) Evaluate() {
 			continue
 		}
 		it.Outcome = out
+		d.checkRecordSource(it)
 	}
 	d.loadImages()
 	d.readReview()
@@ -180,6 +181,9 @@ func (d *Doc) Failed() bool {
 // ValueText formats an outcome's value in its display unit with the calc's
 // significant figures.
 func (d *Doc) ValueText(o *eval.Outcome) string {
+	if o.Written != "" {
+		return o.Written
+	}
 	if isNumberInput(o) {
 		return o.Stmt.Expr
 	}

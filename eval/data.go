@@ -27,6 +27,20 @@ type Table struct {
 	Units []units.Unit
 	Cols  [][]units.Quantity
 	Text  [][]string // the values as written, column by column
+	// Header is the header row as written; Lines the file line of each
+	// row of data.
+	Header []string
+	Lines  []int
+}
+
+// Interpolation is how interp found a value: the two rows of the table
+// that bracket x (0-based data rows) and the fraction of the way from the
+// first to the second.
+type Interpolation struct {
+	Table    *Table
+	X, Y     int // column indexes
+	Rows     [2]int
+	Fraction float64
 }
 
 // MaxTableRows bounds a data table.
@@ -65,7 +79,7 @@ func parseTable(path string, raw []byte, ctx units.Context) (*Table, error) {
 	if err != nil {
 		return nil, errorf("%s: cannot read the header row: %v", path, err)
 	}
-	t := &Table{Path: path, Cols: make([][]units.Quantity, len(head)), Text: make([][]string, len(head))}
+	t := &Table{Path: path, Cols: make([][]units.Quantity, len(head)), Text: make([][]string, len(head)), Header: head}
 	for i, h := range head {
 		name, u, err := parseHeader(h)
 		if err != nil {
@@ -84,10 +98,11 @@ func parseTable(path string, raw []byte, ctx units.Context) (*Table, error) {
 		if row > MaxTableRows {
 			return nil, errorf("%s: more than %d rows", path, MaxTableRows)
 		}
+		line, _ := r.FieldPos(0)
 		if err := t.addRow(rec, ctx); err != nil {
-			line, _ := r.FieldPos(0)
 			return nil, errorf("%s:%d: %v", path, line, err)
 		}
+		t.Lines = append(t.Lines, line)
 	}
 	if len(t.Cols[0]) < 2 {
 		return nil, errorf("%s: a table needs at least two rows of data", path)
@@ -156,28 +171,39 @@ func (t *Table) column(name string) ([]units.Quantity, error) {
 
 // callInterp interpolates linearly: interp(table, "x", x, "y").
 func callInterp(args []any) (any, error) {
+	y, _, err := interpDetail(args)
+	return y, err
+}
+
+// interpDetail interpolates and says between which rows.
+func interpDetail(args []any) (units.Quantity, *Interpolation, error) {
 	t, ok := args[0].(*Table)
+	none := units.Quantity{}
 	if !ok {
-		return nil, errorf("interp needs a table read with csv(...) first, not %s", kindOf(args[0]))
+		return none, nil, errorf("interp needs a table read with csv(...) first, not %s", kindOf(args[0]))
 	}
 	xn, ok1 := args[1].(string)
 	yn, ok2 := args[3].(string)
 	x, ok3 := args[2].(units.Quantity)
 	if !ok1 || !ok2 || !ok3 {
-		return nil, errorf("write interp(table, \"x column\", x, \"y column\")")
+		return none, nil, errorf("write interp(table, \"x column\", x, \"y column\")")
 	}
 	xs, err := t.column(xn)
 	if err != nil {
-		return nil, err
+		return none, nil, err
 	}
 	ys, err := t.column(yn)
 	if err != nil {
-		return nil, err
+		return none, nil, err
 	}
 	if xs[0].D != x.D {
-		return nil, errorf("interp: column %s is %s, but x is %s", xn, xs[0].D.Name(), x.D.Name())
+		return none, nil, errorf("interp: column %s is %s, but x is %s", xn, xs[0].D.Name(), x.D.Name())
 	}
-	return interpolate(t, xn, xs, ys, x, t.Units[t.index(xn)])
+	y, i, f, err := interpolate(t, xn, xs, ys, x, t.Units[t.index(xn)])
+	if err != nil {
+		return none, nil, err
+	}
+	return y, &Interpolation{Table: t, X: t.index(xn), Y: t.index(yn), Rows: [2]int{i - 1, i}, Fraction: f}, nil
 }
 
 func (t *Table) index(name string) int {
@@ -189,7 +215,9 @@ func (t *Table) index(name string) int {
 	return -1
 }
 
-func interpolate(t *Table, xn string, xs, ys []units.Quantity, x units.Quantity, xu units.Unit) (units.Quantity, error) {
+// interpolate returns y at x, the row i such that rows i-1 and i bracket
+// x, and the fraction of the way from row i-1 to row i.
+func interpolate(t *Table, xn string, xs, ys []units.Quantity, x units.Quantity, xu units.Unit) (units.Quantity, int, float64, error) {
 	show := func(q units.Quantity) string {
 		s, err := q.Text(xu, 4, units.StandardAtmosphere)
 		if err != nil {
@@ -200,7 +228,7 @@ func interpolate(t *Table, xn string, xs, ys []units.Quantity, x units.Quantity,
 	sign := math.Copysign(1, xs[1].V-xs[0].V)
 	for i := 1; i < len(xs); i++ {
 		if float64((xs[i].V-xs[i-1].V)*sign) <= 0 {
-			return units.Quantity{}, errorf("interp: column %s of %s is not strictly increasing or decreasing at row %d", xn, t.Path, i+2)
+			return units.Quantity{}, 0, 0, errorf("interp: column %s of %s is not strictly increasing or decreasing at row %d", xn, t.Path, i+2)
 		}
 	}
 	lo, hi := xs[0], xs[len(xs)-1]
@@ -208,7 +236,7 @@ func interpolate(t *Table, xn string, xs, ys []units.Quantity, x units.Quantity,
 		lo, hi = hi, lo
 	}
 	if x.V < lo.V || x.V > hi.V {
-		return units.Quantity{}, errorf("interp: %s = %s is outside the table's range %s to %s (%s); a table is never extrapolated",
+		return units.Quantity{}, 0, 0, errorf("interp: %s = %s is outside the table's range %s to %s (%s); a table is never extrapolated",
 			xn, show(x), show(lo), show(hi), t.Path)
 	}
 	i := 1
@@ -216,8 +244,9 @@ func interpolate(t *Table, xn string, xs, ys []units.Quantity, x units.Quantity,
 		i++
 	}
 	y := ys[i-1]
-	y.V = lerp(ys[i-1].V, ys[i].V, fraction(xs[i-1].V, xs[i].V, x.V))
-	return y, nil
+	f := fraction(xs[i-1].V, xs[i].V, x.V)
+	y.V = lerp(ys[i-1].V, ys[i].V, f)
+	return y, i, f, nil
 }
 
 // fraction is (x - a)/(b - a), computed in halves when b - a would

@@ -23,12 +23,18 @@ func errorf(format string, args ...any) error { return errors.New(sprintf(format
 // Outcome is the evaluated result of one statement.
 type Outcome struct {
 	Stmt    *Stmt
-	Value   any        // units.Quantity, bool, string or Record
-	Display units.Unit // the unit the value is shown in (quantities)
-	Pass    bool       // a check's result
-	Skipped bool       // not evaluated because a name it reads failed
-	Sources []string   // formulations of the property calls the line makes (shared: read only)
-	Solve   *Solution  // how solve found the value, for NAME = solve(...)
+	Value   any              // units.Quantity, bool, string or Record
+	Display units.Unit       // the unit the value is shown in (quantities)
+	Pass    bool             // a check's result
+	Skipped bool             // not evaluated because a name it reads failed
+	Sources []string         // formulations of the property calls the line makes (shared: read only)
+	Solve   *Solution        // how solve found the value, for NAME = solve(...)
+	Interps []*Interpolation // the rows each interp call of the line used, in order
+	// Written is the value as a data file writes it, for a line that is
+	// one value of a YAML file (NAME = data.key) without a display unit.
+	Written string
+	// WrittenIn is where: the file and line ("data/x.yaml line 4").
+	WrittenIn string
 }
 
 // Engine evaluates statements in file order and holds the defined names.
@@ -78,8 +84,12 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
 		e.markFailed(s)
 		return nil, err
 	}
-	out.Sources, out.Solve = sc.sources, sc.solution
-	if err := e.finish(out, v); err != nil {
+	out.Sources, out.Solve, out.Interps = sc.sources, sc.solution, sc.interps
+	out.Written, out.WrittenIn = "", sc.wfrom
+	if !s.hasUnit {
+		out.Written = sc.wtext
+	}
+	if err := e.finish(out, v, sc.written); err != nil {
 		e.markFailed(s)
 		return nil, err
 	}
@@ -101,7 +111,7 @@ func (e *Engine) markFailed(s *Stmt) {
 }
 
 // finish checks the value against the statement kind and display unit.
-func (e *Engine) finish(out *Outcome, v any) *Error {
+func (e *Engine) finish(out *Outcome, v any, written *units.Unit) *Error {
 	s := out.Stmt
 	out.Value = v
 	if s.Kind == Check {
@@ -118,6 +128,9 @@ func (e *Engine) finish(out *Outcome, v any) *Error {
 	}
 	if isQ {
 		out.Display = e.displayUnit(s, q)
+		if written != nil && !s.hasUnit {
+			out.Display = *written
+		}
 		if _, err := q.In(out.Display, e.Ctx); err != nil {
 			off := s.ExprOff
 			if s.hasUnit {
@@ -134,7 +147,8 @@ func (e *Engine) finish(out *Outcome, v any) *Error {
 }
 
 // displayUnit picks the [UNIT], else the unit of a lone literal, else a
-// sensible SI unit.
+// sensible SI unit. (A line that is one value of a data file, NAME =
+// data.key, shows it in the unit the file writes: see finish.)
 func (e *Engine) displayUnit(s *Stmt, q units.Quantity) units.Unit {
 	if s.hasUnit {
 		return s.display

@@ -190,7 +190,17 @@ func (c *scope) call(v *ast.CallNode) (any, *Error) {
 	if err != nil {
 		return nil, err
 	}
-	out, ferr := f.Call(args)
+	var out any
+	var ferr error
+	if f.Name == "interp" {
+		var ip *Interpolation
+		out, ip, ferr = interpDetail(args)
+		if ip != nil {
+			c.interps = append(c.interps, ip)
+		}
+	} else {
+		out, ferr = f.Call(args)
+	}
 	c.e.popArgs(base)
 	if ferr != nil {
 		return nil, c.errAt(v, "%s", ferr.Error())

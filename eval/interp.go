@@ -2,6 +2,7 @@ package eval
 
 import (
 	"math"
+	"strconv"
 	"strings"
 
 	"github.com/expr-lang/expr/ast"
@@ -26,10 +27,14 @@ type Sourced interface {
 type scope struct {
 	e        *Engine
 	s        *Stmt
-	sources  []string    // formulations of the property calls, in order
-	solution *Solution   // set by solve
-	res      *resolution // the statement's slot numbers; nil: look names up by text
-	slow     bool        // a quick path failed: evaluate the general way (quick.go)
+	sources  []string         // formulations of the property calls, in order
+	solution *Solution        // set by solve
+	interps  []*Interpolation // the interp calls, in order
+	res      *resolution      // the statement's slot numbers; nil: look names up by text
+	slow     bool             // a quick path failed: evaluate the general way (quick.go)
+	written  *units.Unit      // the unit of a data-file value the whole line reads (NAME = data.key)
+	wtext    string           // that value as the file writes it
+	wfrom    string           // and where: "PATH line N"
 }
 
 // note records the formulation of a property result once.
@@ -291,6 +296,13 @@ func (c *scope) member(v *ast.MemberNode) (any, *Error) {
 	f, ferr := rec.Field(prop.Value)
 	if ferr != nil {
 		return nil, c.errAt(v.Property, "%s", ferr.Error())
+	}
+	if vs, ok := rec.(*Values); ok && ast.Node(v) == c.s.tree {
+		if u, ok := vs.WrittenUnit(prop.Value); ok {
+			c.written = &u
+		}
+		kv := vs.Pairs()[vs.index[prop.Value]]
+		c.wtext, c.wfrom = kv.Value, vs.Path+" line "+strconv.Itoa(kv.Line)
 	}
 	return f, nil
 }

@@ -48,7 +48,12 @@ type Stmt struct {
 	UnitOff int
 	Expr    string // the expression as written
 	ExprOff int
-	Desc    string // the trailing // description
+	Desc    string // the trailing // description, without its source
+	// Source is the document a value comes from, written after a | at the
+	// end of the description ("" when none); SourceOff is the offset of
+	// the |. Only an input may have one (the reader checks that).
+	Source    string
+	SourceOff int
 
 	display units.Unit
 	hasUnit bool
@@ -97,6 +102,9 @@ func ParseLine(text string, off, line int, ctx units.Context) (*Stmt, []*Error) 
 		return nil, nil
 	}
 	s := &Stmt{Line: line, Off: off, Desc: desc}
+	if e := s.splitSource(text, off); e != nil {
+		return s, []*Error{e}
+	}
 	lead := len(code) - len(strings.TrimLeft(code, " \t"))
 	rest := strings.TrimRight(code[lead:], " \t")
 	var err *Error
@@ -144,6 +152,22 @@ func splitComment(text string) (code, desc string) {
 		}
 	}
 	return text, ""
+}
+
+// splitSource moves a "| SOURCE" at the end of the description into
+// Source. The | is the last one of the line, inside the description.
+func (s *Stmt) splitSource(text string, off int) *Error {
+	bar := strings.LastIndexByte(s.Desc, '|')
+	if bar < 0 {
+		return nil
+	}
+	s.SourceOff = off + strings.LastIndexByte(text, '|')
+	s.Source = strings.TrimSpace(s.Desc[bar+1:])
+	s.Desc = strings.TrimSpace(s.Desc[:bar])
+	if s.Source == "" {
+		return &Error{Off: s.SourceOff, Msg: "expected a source after |, such as | HB-001 rev C (the document the input comes from)"}
+	}
+	return nil
 }
 
 // parseHead reads NAME [UNIT] = and sets the expression that follows.

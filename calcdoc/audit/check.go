@@ -19,7 +19,7 @@ var stamps = []string{"PREPARED", "CHECKED", "APPROVED"}
 func check(d *calcdoc.Doc, st *calcdoc.Stamp, tr *trust) {
 	st.Signatures = checkSignatures(d, st)
 	tr.judge(st)
-	st.Status = status(st.Signatures)
+	st.Status = preliminary(d, status(st.Signatures))
 	st.Status = keysNote(st.Status, st.Signatures)
 }
 

@@ -5,7 +5,9 @@
 // evaluating its source again from the recorded commit.
 //
 // Files: record.go (Provenance, Workspace: the one stamp builder),
-// check.go (signature verdicts and the cover status), reproduce.go (the
+// check.go (signature verdicts and the cover status), assumptions.go (the
+// PRELIMINARY stamp and the approver's refusal while an assumption is
+// open), reproduce.go (the
 // manifest inside a package, the calc evaluated again at its commit),
 // verify.go (Verify and its steps), signatures.go (the role findings and
 // the allowed-signers check), sign.go (Sign), report.go (Report, Finding,

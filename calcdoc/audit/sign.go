@@ -104,6 +104,9 @@ func Sign(pkgPath string, opt SignOptions) (*Signed, *Report, error) {
 	if err := v.checkReview(opt.Role); err != nil {
 		return nil, v.rep, err
 	}
+	if err := openAssumptionsBlock(v.repro.doc, opt.Role); err != nil {
+		return nil, v.rep, err
+	}
 	signed, err := v.sign(opt)
 	return signed, v.rep, err
 }

@@ -38,6 +38,12 @@ type FileChange struct {
 	Path             string
 	Kind             string // "added", "removed" or "changed"
 	OldHash, NewHash string // git blob hashes, "" on the side without the file
+	// Values are the values that changed in a changed CSV or YAML file
+	// (at most MaxCellChanges; More counts the rest); Note says why they
+	// could not be compared.
+	Values []CellChange
+	More   int
+	Note   string
 }
 
 // FieldChange is a front-matter field that changed.
@@ -85,6 +91,12 @@ func Compare(old, new *calcdoc.Doc) *Diff {
 	df.compareDefs(old, new)
 	df.compareChecks(old, new)
 	df.Files = fileChanges(old.DataFiles, new.DataFiles)
+	for i, f := range df.Files {
+		if f.Kind == "changed" {
+			fc := &df.Files[i]
+			fc.Values, fc.More, fc.Note = dataValueChanges(old, new, calcdoc.DataFile{Path: f.Path, Hash: f.NewHash}, f.OldHash)
+		}
+	}
 	df.Prose = proseHunks(old.Prose(), new.Prose())
 	return df
 }
@@ -147,10 +159,39 @@ func frontChanges(a, b calcdoc.Front) []FieldChange {
 		{"approver", a.People.Approver.Text, b.People.Approver.Text},
 		{"summary", strings.Join(a.Summary, ", "), strings.Join(b.Summary, ", ")},
 	}
+	fields = append(fields, referenceChanges(a.References, b.References)...)
 	var out []FieldChange
 	for _, f := range fields {
 		if f.Old != f.New {
 			out = append(out, f)
+		}
+	}
+	return out
+}
+
+// referenceChanges compares the references by id: the new side's in its
+// order, then those only the old side lists.
+func referenceChanges(a, b []calcdoc.Reference) []FieldChange {
+	text := func(r calcdoc.Reference) string {
+		s := r.Title + ", " + r.Revision
+		if r.Date != "" {
+			s += ", " + r.Date
+		}
+		return s
+	}
+	was := map[string]string{}
+	for _, r := range a {
+		was[r.ID] = text(r)
+	}
+	var out []FieldChange
+	seen := map[string]bool{}
+	for _, r := range b {
+		seen[r.ID] = true
+		out = append(out, FieldChange{"reference " + r.ID, was[r.ID], text(r)})
+	}
+	for _, r := range a {
+		if !seen[r.ID] {
+			out = append(out, FieldChange{"reference " + r.ID, text(r), ""})
 		}
 	}
 	return out

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"errors"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -444,5 +445,80 @@ func TestDiffPercentagePointsAndIntervals(t *testing.T) {
 		if v := df.Values[0]; v.Change != c.change || v.Rel != c.rel {
 			t.Errorf("%s → %s: change %q, relative %q; want %q, %q", c.old, c.new, v.Change, v.Rel, c.change, c.rel)
 		}
+	}
+}
+
+// TestDiffDataValues: a changed YAML file shows its values key by key and
+// a changed CSV cell by cell with its row key, in the text and the report.
+func TestDiffDataValues(t *testing.T) {
+	r := testkit.NewRepo(t)
+	r.Write("c/pipe.yaml", "# line list (fictional)\nDN: 150\neps: 0.045 mm\nm_out: 14 t/h\nold_key: 1\n")
+	r.Write("c/cw.csv", "T [degC],p [kPa],note\n10,1.2,a\n20,2.3,b\n30,4.2,c\n")
+	src := "```calc\npipe = yaml(\"pipe.yaml\")\nD = pipe.DN\ncw = csv(\"cw.csv\")\np = interp(cw, \"T\", 25 degC, \"p\")\n```\n"
+	r.Write("c/x.calc.md", src)
+	r.Commit("first")
+	r.Git("tag", "v1")
+	r.Write("c/pipe.yaml", "# line list (fictional)\nDN: 200\neps: 0.045 mm\nm_out: 14 t/h\nnew_key: \"x\"\n")
+	r.Write("c/cw.csv", "T [degC],p [kPa],note\n10,1.2,a\n20,2.35,b\n30,4.2,c\n40,7.4,d\n")
+	r.Commit("second")
+	df, err := Revisions(r.Path("c/x.calc.md"), Options{From: "v1", To: "HEAD"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var got []string
+	for _, f := range df.Files {
+		for _, c := range f.Values {
+			got = append(got, sprintfCell(f.Path, c))
+		}
+	}
+	want := []string{
+		"c/pipe.yaml DN: 150 -> 200 (2,2)",
+		"c/pipe.yaml new_key:  -> x (0,5)",
+		"c/pipe.yaml old_key: 1 ->  (5,0)",
+		"c/cw.csv row T [degC] = 20: p [kPa]: 2.3 -> 2.35 (3,3)",
+		"c/cw.csv row T [degC] = 40: row added:  -> 40, 7.4, d (0,5)",
+	}
+	if strings.Join(got, "\n") != strings.Join(want, "\n") {
+		t.Errorf("value changes\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(want, "\n"))
+	}
+	text := df.Text(false)
+	for _, w := range []string{"  c/pipe.yaml:\n    DN       150  ->  200  (line 2)", "row T [degC] = 20: p [kPa]    2.3  ->  2.35"} {
+		if !strings.Contains(text, w) {
+			t.Errorf("the text lacks %q:\n%s", w, text)
+		}
+	}
+	html, err := df.HTML(false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(html), `<tr><td>DN</td><td class="num">150</td><td class="num">200</td>`) {
+		t.Error("the report lacks the YAML value change")
+	}
+}
+
+func sprintfCell(path string, c CellChange) string {
+	return path + " " + c.Where + ": " + c.Old + " -> " + c.New + " (" + strconv.Itoa(c.OldLine) + "," + strconv.Itoa(c.NewLine) + ")"
+}
+
+// TestReferenceChanges: a reference whose revision changed, one added and
+// one removed are front-matter changes, by id.
+func TestReferenceChanges(t *testing.T) {
+	read := func(refs string) *calcdoc.Doc {
+		d := calcdoc.Read("t.calc.md", []byte("---\nreferences:\n"+refs+"---\n```calc\na = 1 m\n```\n"))
+		d.Evaluate()
+		if len(d.Errors) > 0 {
+			t.Fatalf("%s", d.Errors.Format("t", d.Src))
+		}
+		return d
+	}
+	old := read("  - {id: HB-001, title: Heat balance, revision: C}\n  - {id: DS-1, title: Datasheet, revision: A}\n")
+	new := read("  - {id: HB-001, title: Heat balance, revision: D, date: 2026-04-01}\n  - {id: DS-2, title: Datasheet, edition: 2nd}\n")
+	var got []string
+	for _, f := range Compare(old, new).Front {
+		got = append(got, f.Field+": "+f.Old+" -> "+f.New)
+	}
+	want := "reference HB-001: Heat balance, C -> Heat balance, D, 2026-04-01|reference DS-2:  -> Datasheet, 2nd|reference DS-1: Datasheet, A -> "
+	if strings.Join(got, "|") != want {
+		t.Errorf("got  %s\nwant %s", strings.Join(got, "|"), want)
 	}
 }

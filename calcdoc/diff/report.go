@@ -110,6 +110,36 @@ func (v *diffView) filesText(b *strings.Builder) {
 		fmt.Fprintf(tw, "  %s\t%s\t%s\t->\t%s\n", f.Kind, f.Path, blobText(f.OldHash), blobText(f.NewHash))
 	}
 	tw.Flush()
+	for _, f := range v.Files {
+		if len(f.Values) == 0 && f.Note == "" {
+			continue
+		}
+		fmt.Fprintf(b, "  %s:\n", f.Path)
+		if f.Note != "" {
+			fmt.Fprintf(b, "    %s\n", f.Note)
+		}
+		tw := tabwriter.NewWriter(b, 0, 0, 2, ' ', 0)
+		for _, c := range f.Values {
+			fmt.Fprintf(tw, "    %s\t%s\t->\t%s\t%s\n", c.Where, orDash(c.Old), orDash(c.New), cellLines(c))
+		}
+		tw.Flush()
+		if f.More > 0 {
+			fmt.Fprintf(b, "    and %d more values changed\n", f.More)
+		}
+	}
+}
+
+// cellLines says where a changed value sits in the two files.
+func cellLines(c CellChange) string {
+	switch {
+	case c.OldLine == 0:
+		return fmt.Sprintf("(line %d)", c.NewLine)
+	case c.NewLine == 0:
+		return fmt.Sprintf("(was line %d)", c.OldLine)
+	case c.OldLine == c.NewLine:
+		return fmt.Sprintf("(line %d)", c.NewLine)
+	}
+	return fmt.Sprintf("(line %d -> %d)", c.OldLine, c.NewLine)
 }
 
 // blobText is the first 12 digits of a blob hash, or "-".

@@ -13,22 +13,25 @@ import (
 
 // cacheFormat names the layout of a cache entry; a new layout renders
 // everything again.
-const cacheFormat = "vouch-register/1"
+const cacheFormat = "vouch-register/2"
 
 // Entry is one calc of the register, as the cache keeps it.
 type Entry struct {
-	Path     string      `json:"path"` // slash path relative to the registered folder
-	Key      string      `json:"key"`  // hash of the engine, the source and the data files
-	Number   string      `json:"number,omitempty"`
-	Title    string      `json:"title,omitempty"`
-	Revision string      `json:"revision,omitempty"`
-	Project  string      `json:"project,omitempty"`
-	Package  string      `json:"package,omitempty"` // the rendered package, relative to the output folder
-	Passed   int         `json:"passed"`
-	Failed   int         `json:"failed"`
-	Errors   []CalcError `json:"errors,omitempty"` // the calc is broken when it has any
-	Data     []DataRef   `json:"data,omitempty"`   // data files read, relative to the calc's folder
-	Signed   *Signed     `json:"signed,omitempty"` // the signed package beside the calc, if any
+	Path     string `json:"path"` // slash path relative to the registered folder
+	Key      string `json:"key"`  // hash of the engine, the source and the data files
+	Number   string `json:"number,omitempty"`
+	Title    string `json:"title,omitempty"`
+	Revision string `json:"revision,omitempty"`
+	Project  string `json:"project,omitempty"`
+	Package  string `json:"package,omitempty"` // the rendered package, relative to the output folder
+	Passed   int    `json:"passed"`
+	Failed   int    `json:"failed"`
+	// Open is the number of open assumptions: while any is open the calc
+	// cannot be approved.
+	Open   int         `json:"open_assumptions"`
+	Errors []CalcError `json:"errors,omitempty"` // the calc is broken when it has any
+	Data   []DataRef   `json:"data,omitempty"`   // data files read, relative to the calc's folder
+	Signed *Signed     `json:"signed,omitempty"` // the signed package beside the calc, if any
 }
 
 // DataRef is a data file a calc read and its git blob hash.

@@ -37,7 +37,7 @@ type statusCount struct {
 
 type rowView struct {
 	Number, Title, Revision, Project, Path, Package, Status string
-	Passed, Failed                                          int
+	Passed, Failed, Open                                    int
 	Errors                                                  []string
 	MoreErrors                                              int
 	Signed, Stale, Problem                                  string
@@ -74,7 +74,7 @@ func (r *run) view() *indexView {
 			v.Stale++
 		}
 	}
-	for _, s := range []string{"APPROVED", "CHECKED", "PREPARED", "DRAFT"} {
+	for _, s := range []string{"APPROVED", "CHECKED", "PREPARED", "PRELIMINARY", "DRAFT"} {
 		v.Statuses = append(v.Statuses, statusCount{s, counts[s]})
 	}
 	return v
@@ -83,7 +83,7 @@ func (r *run) view() *indexView {
 // rowOf is one calc's row of the index.
 func rowOf(e *Entry) rowView {
 	row := rowView{Number: e.Number, Title: e.Title, Revision: e.Revision, Project: e.Project, Path: e.Path,
-		Package: e.Package, Status: "DRAFT", Passed: e.Passed, Failed: e.Failed, Signed: "none"}
+		Package: e.Package, Status: "DRAFT", Passed: e.Passed, Failed: e.Failed, Open: e.Open, Signed: "none"}
 	errs := e.ErrorText(e.Path)
 	if len(errs) > maxErrors {
 		row.MoreErrors = len(errs) - maxErrors

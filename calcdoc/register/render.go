@@ -118,7 +118,7 @@ func (w *worker) render(calc, path string, src []byte) (*Entry, error) {
 // errors.
 func entryOf(calc string, d *calcdoc.Doc) *Entry {
 	f := d.Front
-	e := &Entry{Path: calc, Number: f.Number, Title: f.Title, Revision: f.Revision, Project: f.Project, Data: dataRefs(d)}
+	e := &Entry{Path: calc, Number: f.Number, Title: f.Title, Revision: f.Revision, Project: f.Project, Data: dataRefs(d), Open: len(d.OpenAssumptions())}
 	for _, c := range d.Checks() {
 		if c.Outcome.Pass {
 			e.Passed++

@@ -79,6 +79,7 @@ type jsonResult struct {
 	SI     float64 `json:"si"`
 	SIUnit string  `json:"si_unit"`
 	Text   string  `json:"text"`
+	Source string  `json:"source,omitempty"` // where an input comes from (inputSource)
 }
 
 type jsonCheck struct {
@@ -120,6 +121,15 @@ type jsonRun struct {
 	Errors  []jsonError  `json:"errors"`
 }
 
+// inputSource is where an input comes from: the | source of its line, or
+// the data file and line of a value read from a YAML file.
+func inputSource(it *calcdoc.Item) string {
+	if it.Stmt.Source != "" {
+		return it.Stmt.Source
+	}
+	return it.Outcome.WrittenIn
+}
+
 // writeJSON prints the results, checks and errors of a calc as JSON; it
 // writes nothing when they cannot be encoded.
 func writeJSON(w io.Writer, d *calcdoc.Doc) error {
@@ -129,7 +139,7 @@ func writeJSON(w io.Writer, d *calcdoc.Doc) error {
 		v, _ := q.In(it.Outcome.Display, d.Front.Ctx)
 		out.Results = append(out.Results, jsonResult{
 			Name: it.Stmt.Name, Line: it.Stmt.Line, Value: v, Unit: unitText(it.Outcome.Display),
-			SI: q.V, SIUnit: units.SIUnitText(q.D), Text: d.ValueText(it.Outcome),
+			SI: q.V, SIUnit: units.SIUnitText(q.D), Text: d.ValueText(it.Outcome), Source: inputSource(it),
 		})
 	}
 	for _, it := range d.Checks() {

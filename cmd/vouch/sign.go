@@ -100,7 +100,7 @@ func errorCode(err error) int {
 	switch {
 	case errors.As(err, &usage):
 		return exitUsage
-	case errors.Is(err, audit.ErrNotVerified), errors.Is(err, audit.ErrKeyRejected), errors.Is(err, audit.ErrReviewOpen):
+	case errors.Is(err, audit.ErrNotVerified), errors.Is(err, audit.ErrKeyRejected), errors.Is(err, audit.ErrReviewOpen), errors.Is(err, audit.ErrOpenAssumptions):
 		return exitFailed
 	}
 	return exitErrors

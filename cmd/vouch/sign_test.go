@@ -6,6 +6,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -145,5 +146,46 @@ func TestSignWithdrawCommand(t *testing.T) {
 	out = vouch(exitOK, "verify", pkg)
 	if !strings.Contains(out, "withdrawn") || !strings.Contains(out, "intact; key not checked against a signers file") {
 		t.Errorf("verify output:\n%s", out)
+	}
+}
+
+// TestSignApproverOpenAssumption: the approver is refused, with the open
+// assumption named, exit 1 and the package left alone.
+func TestSignApproverOpenAssumption(t *testing.T) {
+	needTools(t, "git", "ssh-keygen")
+	src, err := os.ReadFile(filepath.Join("..", "..", "examples", "rankine-simple.calc.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	withOpen := string(src) + "\n```assumptions\nA1 open: condenser pressure until the vendor confirms it\n```\n"
+	r := testkit.NewRepo(t)
+	r.Write("hb.calc.md", withOpen)
+	r.Write(".gitignore", "*.html\n*.manifest.json\n")
+	r.Commit("Unit 1 heat balance, open assumption")
+	calc, pkg := r.Path("hb.calc.md"), r.Path("hb.html")
+	prep, _ := sshKey(t)
+	chk, _ := sshKey(t)
+	key, _ := sshKey(t)
+	var out, errs bytes.Buffer
+	for _, args := range [][]string{{"render", calc}, {"sign", pkg, "--role", "preparer", "--key", prep}, {"sign", pkg, "--role", "checker", "--key", chk}} {
+		if code := run(args, &out, &errs); code != exitOK {
+			t.Fatalf("vouch %s: exit %d\n%s", strings.Join(args, " "), code, errs.String())
+		}
+	}
+	if !strings.Contains(out.String(), "status PRELIMINARY") {
+		t.Errorf("a signed package with an open assumption is not PRELIMINARY:\n%s", out.String())
+	}
+	before, _ := os.ReadFile(pkg)
+	errs.Reset()
+	if code := run([]string{"sign", pkg, "--role", "approver", "--key", key}, &out, &errs); code != exitFailed {
+		t.Fatalf("approver with an open assumption: exit %d, want %d\n%s", code, exitFailed, errs.String())
+	}
+	line := strings.Count(withOpen, "\n") - 1
+	want := "not approved: 1 assumption is still open: A1 (line " + strconv.Itoa(line) + ")"
+	if !strings.Contains(errs.String(), want) {
+		t.Errorf("the refusal does not say why:\n%s\nwant %q", errs.String(), want)
+	}
+	if after, _ := os.ReadFile(pkg); !bytes.Equal(before, after) {
+		t.Error("a refused approver signature changed the package")
 	}
 }

@@ -1,8 +1,9 @@
 #!/usr/bin/python3
 """Independent recomputation of the worked examples' key results.
 
-Reads the givens (the input lines `NAME = NUMBER UNIT`) of each example calc
-in examples/, recomputes the cycle with IAPWS-IF97 from python3-iapws
+Reads the givens (the input lines `NAME = NUMBER UNIT`, and `NAME = DATA.KEY`
+for a value of a YAML data file read by `DATA = yaml("PATH")`) of each
+example calc in examples/, recomputes the cycle with IAPWS-IF97 from python3-iapws
 (iapws.IAPWS97), written out here without vouch, and prints one JSON object:
 {example: {result name: value in SI}}. examples/examples_test.go compares
 these values with vouch's own results.
@@ -38,12 +39,38 @@ UNITS = {
     "MJ/kg": 1e6,
 }
 
+YAML_LINE = re.compile(r'^([A-Za-z]\w*)\s*=\s*yaml\("([^"]+)"\)')
+DATA_LINE = re.compile(r"^([A-Za-z]\w*)\s*=\s*([A-Za-z]\w*)\.([A-Za-z]\w*)\s*(?://.*)?$")
+YAML_PAIR = re.compile(r"^([A-Za-z]\w*):\s*([^#]*?)\s*(?:#.*)?$")
+
+
+def read_yaml(path):
+    """Return a flat YAML file of key: NUMBER UNIT lines as {key: text}."""
+    out = {}
+    with open(os.path.join(EXAMPLES, path), encoding="utf-8") as f:
+        for line in f:
+            m = YAML_PAIR.match(line.strip())
+            if m:
+                out[m.group(1)] = m.group(2)
+    return out
+
+
+def si(name, key, num, unit):
+    """A given in SI."""
+    if unit == "degC":
+        return num + 273.15
+    if unit in UNITS:
+        return num * UNITS[unit]
+    raise SystemExit("%s: %s: unit %r is not in recompute.py's table" % (name, key, unit))
+
+
 GIVEN = re.compile(r"^([A-Za-z]\w*)\s*=\s*([-+]?[0-9][0-9.]*(?:[eE][-+]?[0-9]+)?)\s*((?:[^/\s]|/(?!/))*)\s*(?://.*)?$")
 
 
 def givens(name):
     """Return the calc's input lines as {name: value in SI}."""
     out = {}
+    files = {}
     in_calc = False
     with open(os.path.join(EXAMPLES, name + ".calc.md"), encoding="utf-8") as f:
         for line in f:
@@ -53,16 +80,21 @@ def givens(name):
                 continue
             if not in_calc:
                 continue
+            m = YAML_LINE.match(line)
+            if m:
+                files[m.group(1)] = read_yaml(m.group(2))
+                continue
+            m = DATA_LINE.match(line)
+            if m and m.group(2) in files:
+                text = files[m.group(2)][m.group(3)]
+                num, _, unit = text.partition(" ")
+                out[m.group(1)] = si(name, m.group(1), float(num), unit.strip())
+                continue
             m = GIVEN.match(line)
             if not m:
                 continue
             key, num, unit = m.group(1), float(m.group(2)), m.group(3)
-            if unit == "degC":
-                out[key] = num + 273.15
-            elif unit in UNITS:
-                out[key] = num * UNITS[unit]
-            else:
-                raise SystemExit("%s: %s: unit %r is not in recompute.py's table" % (name, key, unit))
+            out[key] = si(name, key, num, unit)
     return out
 
 
