@@ -10,13 +10,15 @@ import (
 	"github.com/yuin/goldmark/util"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/settings"
 	"github.com/vouchcalc/vouch/eval"
 	"github.com/vouchcalc/vouch/props"
 	"github.com/vouchcalc/vouch/templates"
 )
 
-// Caution is the notice on every cover (PRODUCT.md §3).
-const Caution = "This package records calculations. It is no substitute for the review of a licensed professional engineer under the codes and rules that apply where the plant is built, and a signature made with this tool is not a professional seal unless those rules say so."
+// Caution is vouch's own notice on every cover (PRODUCT.md §3), unless the
+// firm's settings give their own.
+const Caution = settings.DefaultCaution
 
 // RenderOptions are what the package records beyond the calc itself.
 type RenderOptions struct {
@@ -55,6 +57,7 @@ type view struct {
 	Review       []reviewView
 	HasReview    bool
 	ReviewCounts string
+	House        houseView
 
 	// Provenance and signatures (cover.go).
 	Signatures                   []sigView
@@ -137,6 +140,7 @@ func (d *Doc) Render(opt RenderOptions) (*Package, error) {
 		return nil, err
 	}
 	v.Body = body
+	v.House = d.house(v.Status)
 	var out bytes.Buffer
 	out.Grow(len(body) + 64<<10)
 	if err := packageTemplate.Execute(&out, v); err != nil {
@@ -165,7 +169,7 @@ func (d *Doc) view(opt RenderOptions) *view {
 	f := d.Front
 	v := &view{
 		Title: f.Title, Number: f.Number, Project: f.Project, Revision: f.Revision,
-		Caution: Caution, Engine: opt.Engine, Digits: f.Digits, Atmosphere: f.Atmosphere,
+		Caution: d.Settings.Caution, Engine: opt.Engine, Digits: f.Digits, Atmosphere: f.Atmosphere,
 	}
 	v.Summary = d.summaryRows()
 	v.Checks, v.Failed = d.checkRows()

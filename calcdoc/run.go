@@ -30,8 +30,14 @@ func ReadFile(path string) (*Doc, error) {
 // tree whose folder on disk is root (a commit's tree for verify and diff):
 // its data files and images are read from files, not from the work tree.
 func ReadIn(files fs.FS, root, rel string, src []byte) *Doc {
-	d := Read(filepath.Join(root, filepath.FromSlash(rel)), src)
+	opt, ssrc, err := SettingsIn(files, root)
+	d := ReadWith(filepath.Join(root, filepath.FromSlash(rel)), src, opt)
 	d.Files, d.Root, d.Rel = files, root, rel
+	if err != nil {
+		d.errorf(0, "the settings file at this commit has errors:\n%s", SettingsErrorText(err, ssrc))
+		d.Errors.Sort()
+		return d
+	}
 	d.Evaluate()
 	return d
 }
@@ -81,6 +87,7 @@ func (d *Doc) Evaluate() {
 	}
 	d.loadImages()
 	d.readReview()
+	d.loadLogo()
 	if len(d.Errors) == 0 {
 		d.runSweeps(eng)
 		d.drawDiagrams()

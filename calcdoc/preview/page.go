@@ -146,7 +146,11 @@ func (s *Server) render(rel string) ([]byte, map[string][]byte) {
 	if err != nil {
 		return problemPage(rel, err.Error()), inputs
 	}
-	d := calcdoc.Read(file, src)
+	opt, ssrc, err := calcdoc.SettingsIn(os.DirFS(s.root), s.root)
+	if err != nil {
+		return problemPage(rel, calcdoc.SettingsErrorText(err, ssrc)), inputs
+	}
+	d := calcdoc.ReadWith(file, src, opt)
 	d.Evaluate()
 	for _, f := range d.DataFiles {
 		p := d.DataPath(f)

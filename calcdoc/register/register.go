@@ -14,6 +14,8 @@ import (
 	"runtime"
 	"runtime/debug"
 	"sync"
+
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // ErrNoCalcs reports a folder that holds no calc file.
@@ -35,6 +37,9 @@ type Options struct {
 	// Signers is an allowed-signers file for checking the keys of the
 	// signed packages; "" checks signatures without it.
 	Signers string
+	// Read are the repository's settings (vouch.yaml) every calc is read
+	// with.
+	Read calcdoc.ReadOptions
 	// Progress, when set, is told after each calc how many are done. It
 	// is called from one goroutine at a time.
 	Progress func(done, total int)

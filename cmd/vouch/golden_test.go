@@ -158,3 +158,50 @@ func TestRenderErrorWritesNothing(t *testing.T) {
 		t.Errorf("the folder holds %d entries; a failed render must leave no temporary file", len(entries))
 	}
 }
+
+// TestGoldenHouse renders calcs of a repository with a full house style
+// (testdata/house: a fictional firm's vouch.yaml with a logo, extra
+// front-matter keys and its caution), on A4 (the firm's paper) and on
+// Letter (a calc's own), and compares the packages with their golden files.
+func TestGoldenHouse(t *testing.T) {
+	dir := t.TempDir()
+	copyDir(t, filepath.Join("testdata", "house"), dir)
+	for _, name := range []string{"house-a4", "house-letter"} {
+		t.Run(name, func(t *testing.T) {
+			calc := filepath.Join(dir, name+".calc.md")
+			var out, errs bytes.Buffer
+			if code := run([]string{"render", calc}, &out, &errs); code != exitOK {
+				t.Fatalf("render exit %d: %s", code, errs.String())
+			}
+			html, err := os.ReadFile(filepath.Join(dir, name+".html"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			golden(t, name+".html", html)
+		})
+	}
+}
+
+// TestHouseKeys: a firm's key is read only with the firm's settings, and a
+// key the firm did not declare stays an error at its line.
+func TestHouseKeys(t *testing.T) {
+	dir := t.TempDir()
+	copyDir(t, filepath.Join("testdata", "house"), dir)
+	calc := filepath.Join(dir, "typo.calc.md")
+	os.WriteFile(calc, []byte("---\ntitle: T\nclient: C\nclinet_ref: X\n---\n```calc\na = 1 m\n```\n"), 0o644)
+	var out, errs bytes.Buffer
+	if code := run([]string{"run", calc}, &out, &errs); code != exitErrors {
+		t.Fatalf("exit %d, want %d", code, exitErrors)
+	}
+	if want := `typo.calc.md:4:1: unknown front-matter key "clinet_ref"`; !strings.Contains(errs.String(), want) {
+		t.Errorf("stderr %q lacks %q", errs.String(), want)
+	}
+	if strings.Contains(errs.String(), `key "client"`) {
+		t.Errorf("the firm's key client was refused: %s", errs.String())
+	}
+	os.WriteFile(filepath.Join(dir, "vouch.yaml"), []byte("paper: A5\n"), 0o644)
+	errs.Reset()
+	if code := run([]string{"run", calc}, &out, &errs); code != exitErrors || !strings.Contains(errs.String(), "vouch.yaml:1:8:") {
+		t.Errorf("bad vouch.yaml: exit %d, stderr %q; want exit 1 and the error at vouch.yaml:1:8", code, errs.String())
+	}
+}

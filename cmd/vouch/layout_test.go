@@ -21,7 +21,7 @@ var allowed = map[string][]string{
 	"calcdoc/audit":      {"calcdoc", "calcdoc/provenance", "calcdoc/settings", "calcdoc/review", "internal/safefile"},
 	"calcdoc/diff":       {"internal/safefile", "calcdoc", "calcdoc/provenance", "eval", "units", "templates", "internal/fpmath"},
 	"internal/testkit":   {},
-	"calcdoc":            {"calcdoc/provenance", "calcdoc/review", "internal/safefile", "internal/excerpt", "eval", "props", "units", "templates", "svgplot", "internal/fpmath", "github.com/yuin/goldmark", "go.yaml.in/yaml/v3"},
+	"calcdoc":            {"calcdoc/provenance", "calcdoc/review", "calcdoc/settings", "internal/safefile", "internal/excerpt", "eval", "props", "units", "templates", "svgplot", "internal/fpmath", "github.com/yuin/goldmark", "go.yaml.in/yaml/v3"},
 	"qualify":            {"internal/safefile", "calcdoc", "props/if97", "props/helmholtz", "units", "internal/engine", "internal/fpmath", "go.yaml.in/yaml/v3"},
 	"internal/engine":    {},
 	"internal/safefile":  {},
