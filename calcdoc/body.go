@@ -74,6 +74,11 @@ func (d *Doc) replaceCalcNodes() {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.diagramHTML(d.diagramBlocks[i])})
 		}
 	}
+	for i, f := range fs.states {
+		if i < len(d.stateTables) {
+			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.stateTableHTML(d.stateTables[i])})
+		}
+	}
 	for i, f := range fs.calcs {
 		f.Parent().ReplaceChild(f.Parent(), f, &calcBlock{items: byBlock[i]})
 	}

@@ -67,6 +67,7 @@ type Doc struct {
 	logoData    *provenance.DataFile // the logo's entry in the manifest
 
 	diagramBlocks []*diagramBlock
+	stateTables   []*stateTable // the states blocks, in file order
 	images        []*image         // the images of the prose, embedded when rendered
 	byName        map[string]*Item // evaluated definitions, built on first use
 	engine        *eval.Engine     // the engine after evaluation, for substitution
@@ -198,6 +199,9 @@ func (d *Doc) collect() {
 	}
 	for _, s := range f.diagrams {
 		d.readDiagram(s)
+	}
+	for _, s := range f.states {
+		d.readStates(s)
 	}
 	sortItems(d.Items)
 }

@@ -88,6 +88,7 @@ func (d *Doc) Evaluate() {
 	d.loadImages()
 	d.readReview()
 	d.loadLogo()
+	d.checkStates()
 	if len(d.Errors) == 0 {
 		d.runSweeps(eng)
 		d.drawDiagrams()

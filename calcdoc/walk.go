@@ -11,11 +11,11 @@ import (
 // shared by the reader (collect), the renderer (replaceCalcNodes) and the
 // prose of the diff (calcFenceLines). Nothing matches two walks by index.
 type fences struct {
-	calcs, sweeps, diagrams []*gast.FencedCodeBlock
-	others                  []*gast.FencedCodeBlock // every other fenced block
-	comments                []*gast.HTMLBlock       // HTML comments (<!-- -->)
-	spans                   []*gast.CodeSpan
-	images                  []*gast.Image
+	calcs, sweeps, diagrams, states []*gast.FencedCodeBlock
+	others                          []*gast.FencedCodeBlock // every other fenced block
+	comments                        []*gast.HTMLBlock       // HTML comments (<!-- -->)
+	spans                           []*gast.CodeSpan
+	images                          []*gast.Image
 }
 
 // fenceFinder is the goldmark AST transformer that fills a Doc's fences.
@@ -38,6 +38,8 @@ func (t fenceFinder) Transform(doc *gast.Document, reader text.Reader, _ parser.
 				t.f.sweeps = append(t.f.sweeps, v)
 			case "diagram":
 				t.f.diagrams = append(t.f.diagrams, v)
+			case "states":
+				t.f.states = append(t.f.states, v)
 			default:
 				t.f.others = append(t.f.others, v)
 			}
