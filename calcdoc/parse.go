@@ -67,7 +67,7 @@ type Doc struct {
 	logoData    *provenance.DataFile // the logo's entry in the manifest
 
 	diagramBlocks []*diagramBlock
-	stateTables   []*stateTable // the states blocks, in file order
+	stateTables   []*stateTable    // the states blocks, in file order
 	images        []*image         // the images of the prose, embedded when rendered
 	byName        map[string]*Item // evaluated definitions, built on first use
 	engine        *eval.Engine     // the engine after evaluation, for substitution
