@@ -139,13 +139,48 @@ func (r *bodyRenderer) block(w util.BufWriter, _ []byte, n gast.Node, entering b
 		return gast.WalkContinue, nil
 	}
 	w.WriteString("<div class=\"calc\">\n")
-	for _, it := range n.(*calcBlock).items {
-		if it.Outcome != nil {
-			w.WriteString(r.d.lineHTML(it))
+	items := n.(*calcBlock).items
+	for i := 0; i < len(items); i++ {
+		it := items[i]
+		if it.Outcome == nil {
+			continue
 		}
+		if !isInputItem(it) {
+			w.WriteString(r.d.lineHTML(it))
+			continue
+		}
+		j := i
+		for j+1 < len(items) && items[j+1].Outcome != nil && isInputItem(items[j+1]) {
+			j++
+		}
+		w.WriteString(inputRefHTML(items[i : j+1]))
+		for _, in := range items[i : j+1] {
+			w.WriteString(strings.Replace(r.d.lineHTML(in), `class="calc-line"`, `class="calc-line input"`, 1))
+		}
+		i = j
 	}
 	w.WriteString("</div>\n")
 	return gast.WalkSkipChildren, nil
+}
+
+// inputRefHTML is the printed stand-in for a run of input lines, whose
+// values the Inputs table lists: the lines and the names they define.
+// On screen the lines themselves are shown (the package's styles choose).
+func inputRefHTML(run []*Item) string {
+	lines := sprintf("%d", run[0].Stmt.Line)
+	if n := len(run); n > 1 {
+		lines += "–" + sprintf("%d", run[n-1].Stmt.Line)
+	}
+	names := make([]string, len(run))
+	for i, it := range run {
+		names[i] = nameText(it.Stmt.Name)
+	}
+	what := "Input "
+	if len(run) > 1 {
+		what = "Inputs "
+	}
+	return "<div class=\"input-ref\"><div class=\"ln\">" + lines + "</div><div>" + what + strings.Join(names, ", ") +
+		" defined here; their values are listed in the Inputs table.</div></div>\n"
 }
 
 func (r *bodyRenderer) inline(w util.BufWriter, _ []byte, n gast.Node, entering bool) (gast.WalkStatus, error) {

@@ -211,15 +211,23 @@ func (d *Doc) checkRows() ([]checkView, int) {
 func (d *Doc) inputRows() []rowView {
 	var rows []rowView
 	for _, it := range d.Items {
-		if it.Outcome == nil || it.Stmt.Kind != eval.Def || len(it.Stmt.Deps()) > 0 {
-			continue
-		}
-		if _, ok := it.Outcome.Value.(eval.Record); ok {
+		if !isInputItem(it) {
 			continue
 		}
 		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Line: it.Stmt.Line})
 	}
 	return rows
+}
+
+// isInputItem reports whether an evaluated item is an input: a calc line
+// defining a value from no names (a state or a data file's record is not
+// one: it has fields, not a value).
+func isInputItem(it *Item) bool {
+	if it.Inline || it.Outcome == nil || it.Stmt.Kind != eval.Def || len(it.Stmt.Deps()) > 0 {
+		return false
+	}
+	_, isRecord := it.Outcome.Value.(eval.Record)
+	return !isRecord
 }
 
 // formulations lists the property formulations the calc used.
