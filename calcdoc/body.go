@@ -216,7 +216,7 @@ func (d *Doc) lineHTML(it *Item) string {
 	if vs, ok := o.Value.(*eval.Values); ok {
 		b.WriteString("<div class=\"state\">" + d.valuesHTML(vs) + "</div>")
 	} else if st, ok := o.Value.(eval.Record); ok {
-		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits) + "</div>")
+		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits, d.systemUnit) + "</div>")
 	}
 	if t, ok := o.Value.(*eval.Table); ok {
 		b.WriteString("<div class=\"state\">" + tableHTML(t) + "</div>")
@@ -307,7 +307,7 @@ func (d *Doc) formula(s *eval.Stmt, substitute bool) string {
 }
 
 func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]string) string {
-	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp}
+	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp, shown: d.shownUnit}
 	if substitute {
 		m.values = d.outcomeOf
 		m.evalAt = func(n eval.Node) (any, bool) {
@@ -326,7 +326,7 @@ func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]st
 // resultMathML writes a line's result in its display unit.
 func (d *Doc) resultMathML(o *eval.Outcome) string {
 	if q, ok := o.Value.(units.Quantity); ok {
-		return quantityMathML(q, o.Display, d.Front.Digits, d.Front.Ctx)
+		return quantityMathML(q, d.shownUnit(o, q), d.Front.Digits, d.Front.Ctx)
 	}
 	if b, ok := o.Value.(bool); ok {
 		return "<mi>" + map[bool]string{true: "true", false: "false"}[b] + "</mi>"
@@ -349,7 +349,7 @@ func (d *Doc) valueHTML(o *eval.Outcome) string {
 	}
 	switch v := o.Value.(type) {
 	case units.Quantity:
-		return quantityText(v, o.Display, d.Front.Digits, d.Front.Ctx)
+		return quantityText(v, d.shownUnit(o, v), d.Front.Digits, d.Front.Ctx)
 	case bool:
 		return map[bool]string{true: "true", false: "false"}[v]
 	case string:
@@ -365,8 +365,9 @@ func (d *Doc) valueHTML(o *eval.Outcome) string {
 // stateFields shown under a property call, in order.
 var stateShown = []string{"p", "T", "h", "s", "v", "x", "hf", "hg", "sf", "sg", "vf", "vg"}
 
-// stateHTML lists a state's main fields on one line.
-func stateHTML(st eval.Record, digits int) string {
+// stateHTML lists a state's main fields on one line, each in the unit
+// shown(q, si) picks for it from its SI unit.
+func stateHTML(st eval.Record, digits int, shown func(units.Quantity, units.Unit) units.Unit) string {
 	var parts []string
 	phase := ""
 	if ph, err := st.Field("phase"); err == nil {
@@ -386,8 +387,9 @@ func stateHTML(st eval.Record, digits int) string {
 		}
 		u := units.DefaultUnit(q)
 		if f == "T" {
-			u = units.MustParse("degC")
+			u = degC
 		}
+		u = shown(q, u)
 		parts = append(parts, nameText(f)+"&#8239;=&#8239;"+quantityText(q, u, digits, units.StandardAtmosphere))
 	}
 	if phase != "" {

@@ -200,7 +200,7 @@ func (d *Doc) ValueText(o *eval.Outcome) string {
 	}
 	switch v := o.Value.(type) {
 	case units.Quantity:
-		s, err := v.Text(o.Display, d.Front.Digits, d.Front.Ctx)
+		s, err := v.Text(d.shownUnit(o, v), d.Front.Digits, d.Front.Ctx)
 		if err != nil {
 			return err.Error()
 		}

@@ -205,3 +205,32 @@ func TestHouseKeys(t *testing.T) {
 		t.Errorf("bad vouch.yaml: exit %d, stderr %q; want exit 1 and the error at vouch.yaml:1:8", code, errs.String())
 	}
 }
+
+// TestGoldenUS renders a calc with display: US, whose results carry no
+// [UNIT] (so they are shown in psia, °F, BTU/lb, lb/h, hp) and whose
+// inputs are shown as written, and compares the package and the run table
+// with their golden files.
+func TestGoldenUS(t *testing.T) {
+	dir := t.TempDir()
+	copyDir(t, filepath.Join("testdata", "house"), dir)
+	calc := filepath.Join(dir, "house-us.calc.md")
+	var out, errs bytes.Buffer
+	if code := run([]string{"run", calc}, &out, &errs); code != exitOK {
+		t.Fatalf("run exit %d: %s", code, errs.String())
+	}
+	golden(t, "house-us.txt", out.Bytes())
+	if code := run([]string{"render", calc}, &out, &errs); code != exitOK {
+		t.Fatalf("render exit %d: %s", code, errs.String())
+	}
+	html, err := os.ReadFile(filepath.Join(dir, "house-us.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	golden(t, "house-us.html", html)
+	for _, want := range []string{"1692000 lb/h", "1483 BTU/lb", "340400 hp", "12.5 MPa"} {
+		if !strings.Contains(strings.ReplaceAll(strings.ReplaceAll(string(html), "\u2009", " "), "\u202f", ""), want) &&
+			!strings.Contains(out.String(), want) {
+			t.Errorf("neither the package nor the run table shows %s", want)
+		}
+	}
+}
