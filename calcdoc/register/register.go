@@ -16,6 +16,7 @@ import (
 	"sync"
 
 	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // ErrNoCalcs reports a folder that holds no calc file.
@@ -195,4 +196,14 @@ func (r *run) finish(i int, o outcome) {
 	if r.opt.Progress != nil {
 		r.opt.Progress(r.done, len(r.calcs))
 	}
+}
+
+// cacheEngine is what the cache key records of the engine and of the
+// settings every calc is read with: a changed vouch.yaml renders every
+// calc again.
+func (o Options) cacheEngine() string {
+	if o.Read.SettingsSource == nil {
+		return o.Engine
+	}
+	return o.Engine + " settings " + provenance.BlobHash(o.Read.SettingsSource)
 }
