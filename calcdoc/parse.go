@@ -203,6 +203,7 @@ func (d *Doc) collect() {
 	for _, s := range f.states {
 		d.readStates(s)
 	}
+	d.resolveStateRefs()
 	sortItems(d.Items)
 }
 

@@ -17,6 +17,7 @@ import (
 //	st_1, m_dot
 //	st_2
 type stateTable struct {
+	off  int // the block's offset in the file
 	rows []stateRow
 }
 
@@ -29,7 +30,7 @@ type stateRow struct {
 // readStates parses a states block; names are checked after evaluation.
 func (d *Doc) readStates(b *gast.FencedCodeBlock) {
 	d.checkClosed(b)
-	t := &stateTable{}
+	t := &stateTable{off: b.Info.Segment.Start}
 	lines := d.directives(b)
 	for _, l := range lines {
 		fs := splitList(l.text, l.off)
@@ -47,6 +48,33 @@ func (d *Doc) readStates(b *gast.FencedCodeBlock) {
 		d.errorf(b.Info.Segment.Start, "a states block lists at least one state, one per line: st_1 or st_1, m_dot")
 	}
 	d.stateTables = append(d.stateTables, t)
+}
+
+// resolveStateRefs gives each diagram line written `T-s: states` (or h-s)
+// the states of the nearest states block above it, in the table's order.
+func (d *Doc) resolveStateRefs() {
+	for _, blk := range d.diagramBlocks {
+		for _, dg := range blk.diagrams {
+			if len(dg.States) != 1 || dg.States[0].text != "states" {
+				continue
+			}
+			var table *stateTable
+			for _, t := range d.stateTables {
+				if t.off < dg.Off {
+					table = t
+				}
+			}
+			if table == nil || len(table.rows) < 2 {
+				d.errorf(dg.States[0].off, "%s: states draws the states of a states block above this diagram, which lists at least two; write that block first, or list the states here", dg.Kind)
+				dg.States = nil
+				continue
+			}
+			dg.States = nil
+			for _, r := range table.rows {
+				dg.States = append(dg.States, r.state)
+			}
+		}
+	}
 }
 
 // checkStates reports the names of states blocks that are not states or

@@ -59,3 +59,30 @@ func TestStatesTable(t *testing.T) {
 		}
 	}
 }
+
+// TestDiagramOfStates: `T-s: states` draws the states of the states block
+// above the diagram; without one it is an error at the word.
+func TestDiagramOfStates(t *testing.T) {
+	calc := "```calc\nst_1 = water(10 MPa, 500 degC)\nst_2 = water(10 kPa, 0.9)\nst_3 = water(10 kPa, 0)\n```\n\n"
+	ok := calc + "```states\nst_1\nst_2\nst_3\n```\n\n```diagram\nT-s: states\n```\n"
+	d := Read("s.calc.md", []byte(ok))
+	d.Evaluate()
+	if len(d.Errors) > 0 {
+		t.Fatal(d.Errors.Format(d.Path, d.Src))
+	}
+	dg := d.diagramBlocks[0].diagrams[0]
+	var names []string
+	for _, f := range dg.States {
+		names = append(names, f.text)
+	}
+	if strings.Join(names, ",") != "st_1,st_2,st_3" || len(dg.SVG) == 0 {
+		t.Errorf("diagram states %v, SVG %d bytes; want st_1,st_2,st_3 drawn", names, len(dg.SVG))
+	}
+	bad := calc + "```diagram\nT-s: states\n```\n\n```states\nst_1\nst_2\n```\n"
+	d = Read("s.calc.md", []byte(bad))
+	d.Evaluate()
+	want := "8:6: T-s: states draws the states of a states block above this diagram, which lists at least two; write that block first, or list the states here"
+	if len(d.Errors) == 0 || sprintf("%d:%d: %s", d.Errors[0].Pos.Line, d.Errors[0].Pos.Col, d.Errors[0].Msg) != want {
+		t.Errorf("errors %v, want %s", d.Errors, want)
+	}
+}
