@@ -32,7 +32,7 @@ var allowed = map[string][]string{
 	"calcdoc/compare":    {"calcdoc", "calcdoc/provenance", "units", "templates", "internal/fpmath"},
 	"calcdoc/starter":    {"calcdoc/settings", "templates", "go.yaml.in/yaml/v3"},
 	"calcdoc/register":   {"internal/safefile", "calcdoc", "calcdoc/audit", "calcdoc/provenance", "templates"},
-	"calcdoc/preview":    {"internal/safefile", "calcdoc", "calcdoc/audit"},
+	"calcdoc/preview":    {"internal/safefile", "calcdoc", "calcdoc/audit", "calcdoc/settings"},
 	"eval":               {"internal/excerpt", "props", "units", "internal/fpmath", "github.com/expr-lang/expr"},
 	"props":              {"props/if97", "props/helmholtz", "units", "internal/fpmath"},
 	"props/if97":         {"internal/fpmath"},
