@@ -11,7 +11,6 @@ import (
 	"strconv"
 	"strings"
 	"time"
-	"unicode/utf16"
 )
 
 // pdfMeta is what the archival PDF records of its package: the title and
@@ -62,10 +61,14 @@ func archivePDF(path string, meta pdfMeta) error {
 	if err := os.WriteFile(def, pdfaDef(icc, meta), 0o600); err != nil {
 		return err
 	}
+	title := filepath.Join(dir, "title.ps")
+	if err := os.WriteFile(title, []byte("%!\n[ /Title ("+asciiTitle(meta.Title)+") /DOCINFO pdfmark\n"), 0o600); err != nil {
+		return err
+	}
 	tmp := path + ".tmp"
 	cmd := exec.Command(gs, "-q", "-dPDFA=2", "-dBATCH", "-dNOPAUSE", "-dNOOUTERSAVE", "-dSAFER",
 		"-dPDFACompatibilityPolicy=1", "-sColorConversionStrategy=RGB", "-sDEVICE=pdfwrite",
-		"--permit-file-read="+filepath.Dir(icc)+"/", "-sOutputFile="+tmp, def, path)
+		"--permit-file-read="+filepath.Dir(icc)+"/", "-sOutputFile="+tmp, def, path, title)
 	cmd.Env = append(os.Environ(), "SOURCE_DATE_EPOCH="+strconv.FormatInt(meta.Date.Unix(), 10))
 	if out, err := cmd.CombinedOutput(); err != nil {
 		os.Remove(tmp)
@@ -90,7 +93,7 @@ func archivePDF(path string, meta pdfMeta) error {
 func pdfaDef(icc string, meta pdfMeta) []byte {
 	date := "D:" + meta.Date.UTC().Format("20060102150405") + "Z"
 	var b bytes.Buffer
-	fmt.Fprintf(&b, "%%!\n[ /Title %s /CreationDate (%s) /ModDate (%s) /DOCINFO pdfmark\n", psText(meta.Title), date, date)
+	fmt.Fprintf(&b, "%%!\n[ /CreationDate (%s) /ModDate (%s) /DOCINFO pdfmark\n", date, date)
 	fmt.Fprintf(&b, "/ICCProfile %s def\n", psString(icc))
 	b.WriteString(`[/_objdef {icc_PDFA} /type /stream /OBJ pdfmark
 [{icc_PDFA} << /N 3 >> /PUT pdfmark
@@ -107,24 +110,21 @@ func psString(s string) string {
 	return "(" + strings.NewReplacer(`\`, `\\`, "(", `\(`, ")", `\)`).Replace(s) + ")"
 }
 
-// psText is a PDF text string: plain when ASCII, else UTF-16BE with its
-// byte-order mark, written in hex.
-func psText(s string) string {
-	ascii := true
-	for _, r := range s {
-		if r < 0x20 || r > 0x7e {
-			ascii = false
+// asciiFold are the plain spellings of the characters a title may hold.
+var asciiFold = strings.NewReplacer("°", " deg ", "·", "-", "–", "-", "—", "-", "×", "x", "µ", "u", "±", "+/-", "²", "2", "³", "3", "‘", "'", "’", "'", "“", "'", "”", "'")
+
+// asciiTitle is the title as Ghostscript's PDF/A writer keeps it: printable
+// ASCII without the brackets and backslash it refuses (it drops the whole
+// document information otherwise); other characters are spelt plainly or
+// left out, the XMP and the document information alike.
+func asciiTitle(s string) string {
+	var b strings.Builder
+	for _, r := range asciiFold.Replace(s) {
+		if r >= 0x20 && r < 0x7f && r != '(' && r != ')' && r != '\\' {
+			b.WriteRune(r)
 		}
 	}
-	if ascii {
-		return psString(s)
-	}
-	var b strings.Builder
-	b.WriteString("<FEFF")
-	for _, u := range utf16.Encode([]rune(s)) {
-		fmt.Fprintf(&b, "%04X", u)
-	}
-	return b.String() + ">"
+	return strings.Join(strings.Fields(b.String()), " ")
 }
 
 // fixID replaces the file identifier Ghostscript draws from the clock with

@@ -34,6 +34,7 @@ func TestArchivalPDF(t *testing.T) {
 	r.Commit("house-style calcs")
 	commitDate := strings.TrimSpace(r.Git("log", "-1", "--format=%cd", "--date=iso-strict-local"))
 	want := map[string][2]float64{"house-a4": {595, 842}, "house-letter": {612, 792}}
+	numbers := map[string]string{"house-a4": "HB-001", "house-letter": "HB-001L"}
 	for name, size := range want {
 		t.Run(name, func(t *testing.T) {
 			calc := filepath.Join(r.Dir, name+".calc.md")
@@ -51,6 +52,10 @@ func TestArchivalPDF(t *testing.T) {
 			}
 			first := render()
 			checkPDFInfo(t, pdf, size, commitDate)
+			title := numbers[name] + " Unit 1 simple Rankine cycle heat balance at 100 % load, revision A"
+			if info := tool(t, "pdfinfo", pdf); !strings.Contains(info, "Title:           "+title+"\n") {
+				t.Errorf("the PDF's title is not %q:\n%s", title, info)
+			}
 			checkPDFA(t, pdf)
 			checkFonts(t, pdf)
 			if !bytes.Equal(first, render()) {
@@ -143,3 +148,18 @@ func absDiff(x float64) float64 {
 
 // parseISO reads an ISO 8601 time as pdfinfo and git print it.
 func parseISO(s string) (time.Time, error) { return time.Parse(time.RFC3339, s) }
+
+// TestASCIITitle: the PDF's title keeps what Ghostscript's PDF/A writer
+// accepts, spelling the rest plainly.
+func TestASCIITitle(t *testing.T) {
+	for in, want := range map[string]string{
+		"HB-1 Feed pump (revision A)":         "HB-1 Feed pump revision A",
+		"Main steam at 540 °C · 16.5 MPa":     "Main steam at 540 deg C - 16.5 MPa",
+		`Back\slash and η_th`:                 "Backslash and _th",
+		"Condenser — 2 × 50 % pumps, 12 m³/s": "Condenser - 2 x 50 % pumps, 12 m3/s",
+	} {
+		if got := asciiTitle(in); got != want {
+			t.Errorf("asciiTitle(%q) = %q, want %q", in, got, want)
+		}
+	}
+}

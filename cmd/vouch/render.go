@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
-	"strings"
 	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc"
@@ -145,10 +144,14 @@ func packagePath(path, outDir string) string {
 	return filepath.Join(outDir, base)
 }
 
-// pdfMetaOf is what the archival PDF of a package records: its title and
-// the commit's date (the Unix epoch when no commit holds the calc).
+// pdfMetaOf is what the archival PDF of a package records: its number,
+// title and revision, and the commit's date (the Unix epoch when no commit holds the calc).
 func pdfMetaOf(d *calcdoc.Doc, st *calcdoc.Stamp) pdfMeta {
-	m := pdfMeta{Title: strings.TrimSpace(d.Front.Number + " " + d.Front.Title), Date: time.Unix(0, 0).UTC()}
+	title := d.Front.Number + " " + d.Front.Title
+	if d.Front.Revision != "" {
+		title += ", revision " + d.Front.Revision
+	}
+	m := pdfMeta{Title: title, Date: time.Unix(0, 0).UTC()}
 	if t, err := time.Parse(time.RFC3339, st.Date); err == nil && st.Versioned {
 		m.Date = t.UTC()
 	}
