@@ -118,7 +118,8 @@ var stateColumns = []struct {
 }
 
 // stateTableHTML draws a states block in the calc's display system. The
-// quality is a dash where it is not defined (a single-phase state).
+// quality is a dash where it is not defined (a single-phase state). The
+// heading row repeats on each printed page the table runs over.
 func (d *Doc) stateTableHTML(t *stateTable) string {
 	us := d.Display() == settings.US
 	flows := false
@@ -126,7 +127,7 @@ func (d *Doc) stateTableHTML(t *stateTable) string {
 		flows = flows || r.flow != nil
 	}
 	var b strings.Builder
-	b.WriteString("<table class=\"grid states\">\n<tr><th>State</th>")
+	b.WriteString("<table class=\"grid states\">\n<thead><tr><th>State</th>")
 	for _, c := range stateColumns {
 		b.WriteString("<th>" + nameText(c.field) + unitHeading(units.MustParse(pick(us, c.us, c.si))) + "</th>")
 	}
@@ -134,7 +135,7 @@ func (d *Doc) stateTableHTML(t *stateTable) string {
 	if flows {
 		b.WriteString("<th>" + nameText("m_dot") + unitHeading(flowUnit) + "</th>")
 	}
-	b.WriteString("<th>Phase</th></tr>\n")
+	b.WriteString("<th>Phase</th></tr></thead>\n<tbody>\n")
 	for _, r := range t.rows {
 		o, _ := d.outcomeOf(r.state.text)
 		st := o.Value.(*props.State)
@@ -152,7 +153,7 @@ func (d *Doc) stateTableHTML(t *stateTable) string {
 		}
 		b.WriteString("<td>" + html.EscapeString(phaseText(st, st.Phase)) + "</td></tr>\n")
 	}
-	b.WriteString("</table>\n")
+	b.WriteString("</tbody>\n</table>\n")
 	return b.String()
 }
 
