@@ -14,14 +14,21 @@ import (
 
 func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }
 
-// ReadFile reads and evaluates a calc file. An unreadable file is an error;
-// everything wrong inside the file is in Doc.Errors.
+// ReadFile reads and evaluates a calc file with the settings (vouch.yaml)
+// of the work tree that holds it. An unreadable file, or a settings file
+// with errors, is an error; everything wrong inside the calc is in
+// Doc.Errors.
 func ReadFile(path string) (*Doc, error) {
 	src, err := safefile.Read(path, MaxFileBytes)
 	if err != nil {
 		return nil, err
 	}
-	d := Read(path, src)
+	root, _ := locate(path)
+	opt, ssrc, err := SettingsIn(newWorkTree(root), root)
+	if err != nil {
+		return nil, fmt.Errorf("%s", SettingsErrorText(err, ssrc))
+	}
+	d := ReadWith(path, src, opt)
 	d.Evaluate()
 	return d, nil
 }

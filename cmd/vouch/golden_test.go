@@ -199,6 +199,15 @@ func TestHouseKeys(t *testing.T) {
 	if strings.Contains(errs.String(), `key "client"`) {
 		t.Errorf("the firm's key client was refused: %s", errs.String())
 	}
+	os.WriteFile(filepath.Join(dir, "vouch.yaml"), []byte("firm:\n  logo: .vouch/missing.png\nfront_matter:\n  client: Client\n"), 0o644)
+	os.WriteFile(calc, []byte("---\ntitle: T\nclient: C\n---\n```calc\na = 1 m\n```\n"), 0o644)
+	errs.Reset()
+	if code := run([]string{"render", calc}, &out, &errs); code != exitErrors || !strings.Contains(errs.String(), "firm logo .vouch/missing.png does not exist in the repository") {
+		t.Errorf("missing logo: exit %d, stderr %q", code, errs.String())
+	}
+	if _, err := os.Stat(filepath.Join(dir, "typo.html")); err == nil {
+		t.Error("a package was written although the logo is missing")
+	}
 	os.WriteFile(filepath.Join(dir, "vouch.yaml"), []byte("paper: A5\n"), 0o644)
 	errs.Reset()
 	if code := run([]string{"run", calc}, &out, &errs); code != exitErrors || !strings.Contains(errs.String(), "vouch.yaml:1:8:") {
