@@ -77,6 +77,11 @@ func (d *Doc) replaceCalcNodes() {
 	for i, f := range fs.assumptions {
 		f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.assumptionsHTML(i)})
 	}
+	for i, f := range fs.states {
+		if i < len(d.stateTables) {
+			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.stateTableHTML(d.stateTables[i])})
+		}
+	}
 	for i, f := range fs.calcs {
 		f.Parent().ReplaceChild(f.Parent(), f, &calcBlock{items: byBlock[i]})
 	}
@@ -137,13 +142,48 @@ func (r *bodyRenderer) block(w util.BufWriter, _ []byte, n gast.Node, entering b
 		return gast.WalkContinue, nil
 	}
 	w.WriteString("<div class=\"calc\">\n")
-	for _, it := range n.(*calcBlock).items {
-		if it.Outcome != nil {
-			w.WriteString(r.d.lineHTML(it))
+	items := n.(*calcBlock).items
+	for i := 0; i < len(items); i++ {
+		it := items[i]
+		if it.Outcome == nil {
+			continue
 		}
+		if !isInputItem(it) {
+			w.WriteString(r.d.lineHTML(it))
+			continue
+		}
+		j := i
+		for j+1 < len(items) && items[j+1].Outcome != nil && isInputItem(items[j+1]) {
+			j++
+		}
+		w.WriteString(inputRefHTML(items[i : j+1]))
+		for _, in := range items[i : j+1] {
+			w.WriteString(strings.Replace(r.d.lineHTML(in), `class="calc-line"`, `class="calc-line input"`, 1))
+		}
+		i = j
 	}
 	w.WriteString("</div>\n")
 	return gast.WalkSkipChildren, nil
+}
+
+// inputRefHTML is the printed stand-in for a run of input lines, whose
+// values the Inputs table lists: the lines and the names they define.
+// On screen the lines themselves are shown (the package's styles choose).
+func inputRefHTML(run []*Item) string {
+	lines := sprintf("%d", run[0].Stmt.Line)
+	if n := len(run); n > 1 {
+		lines += "–" + sprintf("%d", run[n-1].Stmt.Line)
+	}
+	names := make([]string, len(run))
+	for i, it := range run {
+		names[i] = nameText(it.Stmt.Name)
+	}
+	what := "Input "
+	if len(run) > 1 {
+		what = "Inputs "
+	}
+	return "<div class=\"input-ref\"><div class=\"ln\">" + lines + "</div><div>" + what + strings.Join(names, ", ") +
+		" defined here; their values are listed in the Inputs table.</div></div>\n"
 }
 
 func (r *bodyRenderer) inline(w util.BufWriter, _ []byte, n gast.Node, entering bool) (gast.WalkStatus, error) {
@@ -179,7 +219,7 @@ func (d *Doc) lineHTML(it *Item) string {
 	if vs, ok := o.Value.(*eval.Values); ok {
 		b.WriteString("<div class=\"state\">" + d.valuesHTML(vs) + "</div>")
 	} else if st, ok := o.Value.(eval.Record); ok {
-		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits) + "</div>")
+		b.WriteString("<div class=\"state\">" + stateHTML(st, d.Front.Digits, d.systemUnit) + "</div>")
 	}
 	if t, ok := o.Value.(*eval.Table); ok {
 		b.WriteString("<div class=\"state\">" + tableNoteHTML(t) + "</div>")
@@ -276,7 +316,7 @@ func (d *Doc) formula(s *eval.Stmt, substitute bool) string {
 }
 
 func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]string) string {
-	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp}
+	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp, shown: d.shownUnit}
 	if substitute {
 		m.values = d.outcomeOf
 		m.evalAt = func(n eval.Node) (any, bool) {
@@ -295,7 +335,7 @@ func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]st
 // resultMathML writes a line's result in its display unit.
 func (d *Doc) resultMathML(o *eval.Outcome) string {
 	if q, ok := o.Value.(units.Quantity); ok {
-		return quantityMathML(q, o.Display, d.Front.Digits, d.Front.Ctx)
+		return quantityMathML(q, d.shownUnit(o, q), d.Front.Digits, d.Front.Ctx)
 	}
 	if b, ok := o.Value.(bool); ok {
 		return "<mi>" + map[bool]string{true: "true", false: "false"}[b] + "</mi>"
@@ -321,7 +361,7 @@ func (d *Doc) valueHTML(o *eval.Outcome) string {
 	}
 	switch v := o.Value.(type) {
 	case units.Quantity:
-		return quantityText(v, o.Display, d.Front.Digits, d.Front.Ctx)
+		return quantityText(v, d.shownUnit(o, v), d.Front.Digits, d.Front.Ctx)
 	case bool:
 		return map[bool]string{true: "true", false: "false"}[v]
 	case string:
@@ -337,8 +377,9 @@ func (d *Doc) valueHTML(o *eval.Outcome) string {
 // stateFields shown under a property call, in order.
 var stateShown = []string{"p", "T", "h", "s", "v", "x", "hf", "hg", "sf", "sg", "vf", "vg"}
 
-// stateHTML lists a state's main fields on one line.
-func stateHTML(st eval.Record, digits int) string {
+// stateHTML lists a state's main fields on one line, each in the unit
+// shown(q, si) picks for it from its SI unit.
+func stateHTML(st eval.Record, digits int, shown func(units.Quantity, units.Unit) units.Unit) string {
 	var parts []string
 	phase := ""
 	if ph, err := st.Field("phase"); err == nil {
@@ -358,8 +399,9 @@ func stateHTML(st eval.Record, digits int) string {
 		}
 		u := units.DefaultUnit(q)
 		if f == "T" {
-			u = units.MustParse("degC")
+			u = degC
 		}
+		u = shown(q, u)
 		parts = append(parts, nameText(f)+"&#8239;=&#8239;"+quantityText(q, u, digits, units.StandardAtmosphere))
 	}
 	if phase != "" {

@@ -56,6 +56,12 @@ func (d *Doc) readDiagram(b *gast.FencedCodeBlock) {
 			continue
 		}
 		states := splitList(list, listOff)
+		if len(states) == 1 && states[0].text == "states" && kind != "branch" {
+			// The states of the states block above, resolved once every
+			// block is read (resolveStateRefs).
+			blk.diagrams = append(blk.diagrams, &Diagram{Kind: kind, Off: l.off, States: states, block: len(d.diagramBlocks)})
+			continue
+		}
 		if len(states) < 2 {
 			d.errorf(l.off, "a %s line needs at least two states", kind)
 			continue

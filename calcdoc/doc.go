@@ -10,11 +10,15 @@
 //     (Pos, Error, ErrorList, UsageError), prose.go (prose lines for the
 //     diff), files.go (the work tree as an fs.FS), data.go (csv and yaml readers,
 //     path rules), images.go (images of the prose), sources.go (| sources
-//     of inputs, the references key), assumptions.go (assumptions blocks).
+//     of inputs, the references key), assumptions.go (assumptions blocks), house.go (the
+//     repository's settings: ReadWith, SettingsIn, the firm's logo and
+//     title block, paper and display system).
 //   - evaluating: run.go (Evaluate, ReadFile, ReadIn), sweep.go and
-//     sweeprun.go (sweep blocks), diagram.go (T-s and h-s diagrams).
+//     sweeprun.go (sweep blocks), diagram.go (T-s and h-s diagrams),
+//     states.go (states blocks: tables of state points).
 //   - rendering: render.go (Render, Package), body.go (the Markdown body),
-//     mathml.go and typeset.go (formulas and values), cover.go (cover,
+//     mathml.go and typeset.go (formulas and values), display.go (the SI
+//     and US display systems), cover.go (cover,
 //     signature block, history), datainputs.go (YAML values as inputs),
 //     datatables.go (the CSV appendix, interp rows), manifest.go (Stamp, the evaluation's part
 //     of the manifest), writefile.go (atomic writes for the commands).

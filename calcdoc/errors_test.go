@@ -88,7 +88,7 @@ func TestErrorListIsError(t *testing.T) {
 
 func TestDocumentErrors(t *testing.T) {
 	cases := []struct{ name, src, want string }{
-		{"unknown front-matter key", "---\ntitle: x\ncolour: blue\n---\n", "3:1: unknown front-matter key \"colour\"; known keys are atmosphere, compare, digits, number, people, project, references, revision, summary, title"},
+		{"unknown front-matter key", "---\ntitle: x\ncolour: blue\n---\n", "3:1: unknown front-matter key \"colour\"; known keys are atmosphere, compare, digits, display, number, paper, people, project, references, revision, summary, title, us_power (a firm declares its own keys under front_matter in vouch.yaml)"},
 		{"malformed front matter", "---\ntitle: [x\n---\n", "2:1: front matter is not valid YAML: line 1: did not find expected ',' or ']'"},
 		{"unclosed front matter", "---\ntitle: x\n", "1:1: front matter is not closed: add a line --- after it"},
 		{"bad digits", "---\ndigits: 40\n---\n", "2:9: digits must be a whole number from 2 to 15, not \"40\""},

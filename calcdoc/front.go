@@ -9,6 +9,7 @@ import (
 
 	"go.yaml.in/yaml/v3"
 
+	"github.com/vouchcalc/vouch/calcdoc/settings"
 	"github.com/vouchcalc/vouch/internal/excerpt"
 	"github.com/vouchcalc/vouch/units"
 )
@@ -30,8 +31,20 @@ type Front struct {
 	SummaryLine int
 	// References are the documents the calc cites (key references).
 	References []Reference
+	// Paper, Display and USPower are the calc's own choices ("" when the
+	// front matter leaves them to the settings).
+	Paper, Display, USPower string
+	// Extra are the firm's extra keys the calc sets, in file order.
+	Extra []ExtraField
 
-	Ctx units.Context
+	Ctx   units.Context
+	house *settings.Settings // the settings the front matter is read with
+}
+
+// ExtraField is one of the firm's extra front-matter keys (vouch.yaml's
+// front_matter) as a calc sets it, with the label the cover prints.
+type ExtraField struct {
+	Key, Label, Value string
 }
 
 // People names who prepared, checked and approved the calc.
@@ -49,7 +62,7 @@ type Person struct {
 }
 
 // frontKeys are the front-matter keys; any other key is an error.
-var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary", "compare", "references"}
+var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary", "compare", "paper", "display", "us_power", "references"}
 
 // peopleKeys are the roles under people.
 var peopleKeys = []string{"preparer", "checker", "approver"}
@@ -96,8 +109,8 @@ type frontErr struct {
 
 // parseFront decodes and checks the front matter. Errors carry positions
 // relative to the YAML text.
-func parseFront(text []byte) (Front, []*frontErr) {
-	f := Front{Digits: DefaultDigits, Ctx: units.StandardAtmosphere}
+func parseFront(text []byte, s *settings.Settings) (Front, []*frontErr) {
+	f := Front{Digits: DefaultDigits, Ctx: units.StandardAtmosphere, house: s}
 	var root yaml.Node
 	if err := yaml.Unmarshal(text, &root); err != nil {
 		return f, []*frontErr{{line: 1, col: 1, msg: "front matter is not valid YAML: " + strings.TrimPrefix(err.Error(), "yaml: ")}}
@@ -177,8 +190,10 @@ func (f *Front) set(k, v *yaml.Node) []*frontErr {
 		return f.setCompare(v)
 	case "references":
 		return f.setReferences(v)
+	case "paper", "display", "us_power":
+		return f.setChoice(k, v)
 	default:
-		return nodeErr(k, "unknown front-matter key %s; known keys are %s", excerpt.Quote(k.Value), strings.Join(sorted(frontKeys), ", "))
+		return f.setExtra(k, v)
 	}
 	return nil
 }
@@ -262,5 +277,49 @@ func (f *Front) setSummary(v *yaml.Node) []*frontErr {
 		}
 		f.Summary = append(f.Summary, n.Value)
 	}
+	return nil
+}
+
+// choices are the values of the front-matter keys that pick from a list.
+var choices = map[string][]string{
+	"paper":    {settings.A4, settings.Letter},
+	"display":  {settings.SI, settings.US},
+	"us_power": {settings.PowerHP, settings.PowerKW},
+}
+
+// setChoice sets paper, display or us_power, each one of a few values.
+func (f *Front) setChoice(k, v *yaml.Node) []*frontErr {
+	s, e := scalar(k, v)
+	if e != nil {
+		return e
+	}
+	ok := choices[k.Value]
+	if !contains(ok, s) {
+		return nodeErr(v, "%s must be %s, not %q", k.Value, strings.Join(ok, " or "), s)
+	}
+	*map[string]*string{"paper": &f.Paper, "display": &f.Display, "us_power": &f.USPower}[k.Value] = s
+	return nil
+}
+
+// setExtra sets one of the firm's extra keys; any other key is an error
+// that lists the known keys, the firm's among them.
+func (f *Front) setExtra(k, v *yaml.Node) []*frontErr {
+	label, ok := f.house.Label(k.Value)
+	if !ok {
+		known := append([]string(nil), frontKeys...)
+		for _, x := range f.house.FrontMatter {
+			known = append(known, x.Key)
+		}
+		msg := fmt.Sprintf("unknown front-matter key %s; known keys are %s", excerpt.Quote(k.Value), strings.Join(sorted(known), ", "))
+		if len(f.house.FrontMatter) == 0 {
+			msg += " (a firm declares its own keys under front_matter in vouch.yaml)"
+		}
+		return nodeErr(k, "%s", msg)
+	}
+	s, e := scalar(k, v)
+	if e != nil {
+		return e
+	}
+	f.Extra = append(f.Extra, ExtraField{Key: k.Value, Label: label, Value: s})
 	return nil
 }

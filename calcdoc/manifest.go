@@ -84,9 +84,13 @@ func (d *Doc) Manifest(engine string) (*provenance.Manifest, error) {
 	return m, nil
 }
 
-// manifestData lists the data files the calc read, in order of first use.
+// manifestData lists the settings file and the firm's logo, when read, and
+// the data files the calc read, in order of first use.
 func (d *Doc) manifestData() []provenance.DataFile {
-	out := []provenance.DataFile{}
+	out := append([]provenance.DataFile{}, d.settingsData()...)
+	if d.logoData != nil {
+		out = append(out, *d.logoData)
+	}
 	for _, f := range d.DataFiles {
 		out = append(out, provenance.DataFile{Path: f.Path, Hash: f.Hash})
 	}

@@ -16,6 +16,7 @@ type mathml struct {
 	evalAt func(n eval.Node) (any, bool)           // evaluates a part, for substitution
 	digits int
 	ctx    units.Context
+	shown  func(*eval.Outcome, units.Quantity) units.Unit // the unit a value is shown in
 	b      strings.Builder
 	kelvin bool // inside a product, quotient or power: temperatures in K
 	root   eval.Node
@@ -115,7 +116,11 @@ func (m *mathml) name(name string) {
 				m.w(numberMathML(o.Value.(units.Quantity).V, 15, true))
 				return
 			}
-			m.value(o.Value, o.Display)
+			u := o.Display
+			if q, isQ := o.Value.(units.Quantity); isQ && m.shown != nil {
+				u = m.shown(o, q)
+			}
+			m.value(o.Value, u)
 			return
 		}
 	}

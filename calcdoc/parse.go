@@ -15,7 +15,9 @@ import (
 	"github.com/yuin/goldmark/text"
 	"github.com/yuin/goldmark/util"
 
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 	"github.com/vouchcalc/vouch/calcdoc/review"
+	"github.com/vouchcalc/vouch/calcdoc/settings"
 	"github.com/vouchcalc/vouch/eval"
 )
 
@@ -58,8 +60,16 @@ type Doc struct {
 	// ReviewPlaces where each of its comments stands in the calc now.
 	Review       *review.File
 	ReviewPlaces []review.Place
+	// Settings are the repository's settings (vouch.yaml) the calc was
+	// read with; never nil after Read.
+	Settings *settings.Settings
+
+	settingsSrc []byte               // the settings file as read, for the manifest
+	logoURI     string               // the firm's logo as a data URI, once read
+	logoData    *provenance.DataFile // the logo's entry in the manifest
 
 	diagramBlocks []*diagramBlock
+	stateTables   []*stateTable    // the states blocks, in file order
 	images        []*image         // the images of the prose, embedded when rendered
 	byName        map[string]*Item // evaluated definitions, built on first use
 	engine        *eval.Engine     // the engine after evaluation, for substitution
@@ -89,8 +99,13 @@ func newMarkdown(f *fences) goldmark.Markdown {
 
 // Read parses a calc file's bytes. It never fails: problems are gathered in
 // Doc.Errors.
-func Read(path string, src []byte) *Doc {
-	d := &Doc{Path: path, Src: src, lines: newLineIndex(src)}
+func Read(path string, src []byte) *Doc { return read(path, src, ReadOptions{}) }
+
+func read(path string, src []byte, opt ReadOptions) *Doc {
+	d := &Doc{Path: path, Src: src, lines: newLineIndex(src), Settings: opt.Settings, settingsSrc: opt.SettingsSource}
+	if d.Settings == nil {
+		d.Settings = settings.Default()
+	}
 	d.md = newMarkdown(&d.fences)
 	if len(src) > MaxFileBytes {
 		d.errorf(0, "file is %d bytes; a calc file may be at most %d bytes", len(src), MaxFileBytes)
@@ -154,7 +169,7 @@ func (d *Doc) readFront() {
 			d.body[i] = ' '
 		}
 	}
-	f, errs := parseFront(yml)
+	f, errs := parseFront(yml, d.Settings)
 	d.Front = f
 	firstLine := d.lines.pos(d.Src, start).Line
 	if f.SummaryLine > 0 {
@@ -191,6 +206,10 @@ func (d *Doc) collect() {
 	for i, b := range f.assumptions {
 		d.readAssumptions(i, b, seen)
 	}
+	for _, s := range f.states {
+		d.readStates(s)
+	}
+	d.resolveStateRefs()
 	sortItems(d.Items)
 	d.checkSources()
 }

@@ -1,6 +1,7 @@
 package calcdoc
 
 import (
+	"github.com/vouchcalc/vouch/calcdoc/settings"
 	"strings"
 
 	gast "github.com/yuin/goldmark/ast"
@@ -74,6 +75,6 @@ func FrontNumber(src []byte) string {
 	if err != nil || end == 0 {
 		return ""
 	}
-	f, _ := parseFront(yml)
+	f, _ := parseFront(yml, settings.Default())
 	return f.Number
 }

@@ -62,7 +62,7 @@ func (d *Doc) checkLateFront() {
 }
 
 // fenceWords are the languages of the fences vouch reads.
-var fenceWords = map[string]bool{"calc": true, "sweep": true, "diagram": true}
+var fenceWords = map[string]bool{"calc": true, "sweep": true, "diagram": true, "states": true}
 
 // lookalike returns the language a line opens a fence with, when that
 // language is a fence vouch reads written in another way ({calc}, Calc, or
@@ -90,7 +90,7 @@ func lookalike(line []byte) string {
 // fenced block (an example of calc syntax) are content and left alone.
 func (d *Doc) checkLookalikes() {
 	read := map[int]bool{}
-	for _, list := range [][]*gast.FencedCodeBlock{d.fences.calcs, d.fences.sweeps, d.fences.diagrams} {
+	for _, list := range [][]*gast.FencedCodeBlock{d.fences.calcs, d.fences.sweeps, d.fences.diagrams, d.fences.states} {
 		for _, f := range list {
 			read[d.lines.pos(d.Src, f.Info.Segment.Start).Line] = true
 		}

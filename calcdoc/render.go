@@ -11,13 +11,15 @@ import (
 	"github.com/yuin/goldmark/util"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/calcdoc/settings"
 	"github.com/vouchcalc/vouch/eval"
 	"github.com/vouchcalc/vouch/props"
 	"github.com/vouchcalc/vouch/templates"
 )
 
-// Caution is the notice on every cover (PRODUCT.md §3).
-const Caution = "This package records calculations. It is no substitute for the review of a licensed professional engineer under the codes and rules that apply where the plant is built, and a signature made with this tool is not a professional seal unless those rules say so."
+// Caution is vouch's own notice on every cover (PRODUCT.md §3), unless the
+// firm's settings give their own.
+const Caution = settings.DefaultCaution
 
 // RenderOptions are what the package records beyond the calc itself.
 type RenderOptions struct {
@@ -61,6 +63,7 @@ type view struct {
 	Review       []reviewView
 	HasReview    bool
 	ReviewCounts string
+	House        houseView
 
 	// Provenance and signatures (cover.go).
 	Signatures                   []sigView
@@ -144,6 +147,7 @@ func (d *Doc) Render(opt RenderOptions) (*Package, error) {
 		return nil, err
 	}
 	v.Body = body
+	v.House = d.house(v.Status)
 	var out bytes.Buffer
 	out.Grow(len(body) + 64<<10)
 	if err := packageTemplate.Execute(&out, v); err != nil {
@@ -172,7 +176,7 @@ func (d *Doc) view(opt RenderOptions) *view {
 	f := d.Front
 	v := &view{
 		Title: f.Title, Number: f.Number, Project: f.Project, Revision: f.Revision,
-		Caution: Caution, Engine: opt.Engine, Digits: f.Digits, Atmosphere: f.Atmosphere,
+		Caution: d.Settings.Caution, Engine: opt.Engine, Digits: f.Digits, Atmosphere: f.Atmosphere,
 	}
 	v.Summary = d.summaryRows()
 	v.Checks, v.Failed = d.checkRows()
@@ -223,17 +227,13 @@ func (d *Doc) checkRows() ([]checkView, int) {
 func (d *Doc) inputRows() []rowView {
 	var rows []rowView
 	for _, it := range d.Items {
-		if it.Outcome == nil || it.Stmt.Kind != eval.Def {
-			continue
+		if it.Outcome != nil && !it.Inline && it.Stmt.Kind == eval.Def {
+			if vs, ok := it.Outcome.Value.(*eval.Values); ok {
+				rows = append(rows, d.dataInputRows(it, vs)...)
+				continue
+			}
 		}
-		if vs, ok := it.Outcome.Value.(*eval.Values); ok {
-			rows = append(rows, d.dataInputRows(it, vs)...)
-			continue
-		}
-		if len(it.Stmt.Deps()) > 0 {
-			continue
-		}
-		if _, ok := it.Outcome.Value.(eval.Record); ok {
+		if !isInputItem(it) {
 			continue
 		}
 		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Source: d.inputSource(it), Line: it.Stmt.Line})
@@ -253,6 +253,17 @@ func (d *Doc) inputSource(it *Item) string {
 		return `<a href="#` + tableAnchor(t.Path) + `">` + html.EscapeString(t.Path) + `</a>`
 	}
 	return ""
+}
+
+// isInputItem reports whether an evaluated item is an input: a calc line
+// defining a value from no names (a state or a data file's record is not
+// one: it has fields, not a value).
+func isInputItem(it *Item) bool {
+	if it.Inline || it.Outcome == nil || it.Stmt.Kind != eval.Def || len(it.Stmt.Deps()) > 0 {
+		return false
+	}
+	_, isRecord := it.Outcome.Value.(eval.Record)
+	return !isRecord
 }
 
 // formulations lists the property formulations the calc used.

@@ -14,14 +14,21 @@ import (
 
 func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }
 
-// ReadFile reads and evaluates a calc file. An unreadable file is an error;
-// everything wrong inside the file is in Doc.Errors.
+// ReadFile reads and evaluates a calc file with the settings (vouch.yaml)
+// of the work tree that holds it. An unreadable file, or a settings file
+// with errors, is an error; everything wrong inside the calc is in
+// Doc.Errors.
 func ReadFile(path string) (*Doc, error) {
 	src, err := safefile.Read(path, MaxFileBytes)
 	if err != nil {
 		return nil, err
 	}
-	d := Read(path, src)
+	root, _ := locate(path)
+	opt, ssrc, err := SettingsIn(newWorkTree(root), root)
+	if err != nil {
+		return nil, fmt.Errorf("%s", SettingsErrorText(err, ssrc))
+	}
+	d := ReadWith(path, src, opt)
 	d.Evaluate()
 	return d, nil
 }
@@ -30,8 +37,14 @@ func ReadFile(path string) (*Doc, error) {
 // tree whose folder on disk is root (a commit's tree for verify and diff):
 // its data files and images are read from files, not from the work tree.
 func ReadIn(files fs.FS, root, rel string, src []byte) *Doc {
-	d := Read(filepath.Join(root, filepath.FromSlash(rel)), src)
+	opt, ssrc, err := SettingsIn(files, root)
+	d := ReadWith(filepath.Join(root, filepath.FromSlash(rel)), src, opt)
 	d.Files, d.Root, d.Rel = files, root, rel
+	if err != nil {
+		d.errorf(0, "the settings file at this commit has errors:\n%s", SettingsErrorText(err, ssrc))
+		d.Errors.Sort()
+		return d
+	}
 	d.Evaluate()
 	return d
 }
@@ -82,6 +95,8 @@ func (d *Doc) Evaluate() {
 	}
 	d.loadImages()
 	d.readReview()
+	d.loadLogo()
+	d.checkStates()
 	if len(d.Errors) == 0 {
 		d.runSweeps(eng)
 		d.drawDiagrams()
@@ -196,7 +211,7 @@ func (d *Doc) ValueText(o *eval.Outcome) string {
 	}
 	switch v := o.Value.(type) {
 	case units.Quantity:
-		s, err := v.Text(o.Display, d.Front.Digits, d.Front.Ctx)
+		s, err := v.Text(d.shownUnit(o, v), d.Front.Digits, d.Front.Ctx)
 		if err != nil {
 			return err.Error()
 		}

@@ -207,15 +207,15 @@ func (d *Doc) sweepPoint(eng *eval.Engine, sw *Sweep, redo map[string]bool, item
 }
 
 // ColumnUnit is the unit a sweep column is shown in: its [UNIT], else the
-// display unit of the name's own line, else a sensible SI unit.
+// unit the name's own line is shown in, else the display system's.
 func (d *Doc) ColumnUnit(c SweepColumn, q units.Quantity) units.Unit {
 	if c.HasUnit {
 		return c.Unit
 	}
 	if it := d.itemOf(c.Name); it != nil && it.Outcome.Display.Dim == q.D {
-		return it.Outcome.Display
+		return d.shownUnit(it.Outcome, q)
 	}
-	return units.DefaultUnit(q)
+	return d.systemUnit(q, units.DefaultUnit(q))
 }
 
 // SweepX is the varied input at point i as text, in its unit.

@@ -11,11 +11,11 @@ import (
 // shared by the reader (collect), the renderer (replaceCalcNodes) and the
 // prose of the diff (calcFenceLines). Nothing matches two walks by index.
 type fences struct {
-	calcs, sweeps, diagrams, assumptions []*gast.FencedCodeBlock
-	others                               []*gast.FencedCodeBlock // every other fenced block
-	comments                             []*gast.HTMLBlock       // HTML comments (<!-- -->)
-	spans                                []*gast.CodeSpan
-	images                               []*gast.Image
+	calcs, sweeps, diagrams, assumptions, states []*gast.FencedCodeBlock
+	others                                       []*gast.FencedCodeBlock // every other fenced block
+	comments                                     []*gast.HTMLBlock       // HTML comments (<!-- -->)
+	spans                                        []*gast.CodeSpan
+	images                                       []*gast.Image
 }
 
 // fenceFinder is the goldmark AST transformer that fills a Doc's fences.
@@ -40,6 +40,8 @@ func (t fenceFinder) Transform(doc *gast.Document, reader text.Reader, _ parser.
 				t.f.diagrams = append(t.f.diagrams, v)
 			case "assumptions":
 				t.f.assumptions = append(t.f.assumptions, v)
+			case "states":
+				t.f.states = append(t.f.states, v)
 			default:
 				t.f.others = append(t.f.others, v)
 			}

@@ -64,7 +64,11 @@ func readWorkTree(repo *provenance.Repo, rel, shown string) (Side, error) {
 	if err != nil {
 		return Side{}, usageErr("%s: %v", rel, err)
 	}
-	d := calcdoc.Read(path, src)
+	opt, ssrc, err := calcdoc.SettingsIn(os.DirFS(repo.Root()), repo.Root())
+	if err != nil {
+		return Side{}, usageErr("%s", calcdoc.SettingsErrorText(err, ssrc))
+	}
+	d := calcdoc.ReadWith(path, src, opt)
 	d.Evaluate()
 	return Side{Label: "work tree", Path: rel, Doc: d, Shown: shown}, nil
 }

@@ -18,6 +18,7 @@ import (
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
+	"github.com/vouchcalc/vouch/calcdoc/settings"
 
 	"github.com/vouchcalc/vouch/internal/safefile"
 )
@@ -146,7 +147,17 @@ func (s *Server) render(rel string) ([]byte, map[string][]byte) {
 	if err != nil {
 		return problemPage(rel, err.Error()), inputs
 	}
-	d := calcdoc.Read(file, src)
+	root := s.opt.SettingsRoot
+	if root == "" {
+		root = s.root
+	}
+	settingsFile := filepath.Join(root, settings.FileName)
+	inputs[settingsFile] = hashFile(settingsFile)
+	opt, ssrc, err := calcdoc.SettingsIn(os.DirFS(root), root)
+	if err != nil {
+		return problemPage(rel, calcdoc.SettingsErrorText(err, ssrc)), inputs
+	}
+	d := calcdoc.ReadWith(file, src, opt)
 	d.Evaluate()
 	for _, f := range d.DataFiles {
 		p := d.DataPath(f)

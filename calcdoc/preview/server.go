@@ -37,6 +37,10 @@ type Options struct {
 	// Remote allows requests whose Host is not a loopback name, for a
 	// server deliberately opened to other machines.
 	Remote bool
+	// SettingsRoot is the folder whose vouch.yaml the calcs are read with
+	// (the repository's root); "" means the calcs' folder. The file is
+	// read for every page, so an edit to it refreshes the page.
+	SettingsRoot string
 }
 
 // Server is a preview server. Its handler is safe for concurrent use.

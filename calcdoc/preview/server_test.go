@@ -181,3 +181,22 @@ func TestNewBadPath(t *testing.T) {
 		}
 	}
 }
+
+// TestServeWithSettings: a calc is previewed with the vouch.yaml of the
+// settings root, which may lie above the served folder; a bad settings
+// file shows as a problem page.
+func TestServeWithSettings(t *testing.T) {
+	dir := folder(t)
+	os.WriteFile(filepath.Join(dir, "vouch.yaml"), []byte("firm:\n  name: Ashgrove Plant Engineers (fictional)\n"), 0o644)
+	srv, err := New(Options{Path: filepath.Join(dir, "unit1", "fp.calc.md"), SettingsRoot: dir})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, body := get(t, srv.Handler(), "/", "127.0.0.1"); !strings.Contains(body, "Ashgrove Plant Engineers (fictional)") {
+		t.Error("the preview does not show the firm of the settings root's vouch.yaml")
+	}
+	os.WriteFile(filepath.Join(dir, "vouch.yaml"), []byte("paper: A5\n"), 0o644)
+	if _, body := get(t, srv.Handler(), "/", "127.0.0.1"); !strings.Contains(body, "paper must be") {
+		t.Errorf("a bad vouch.yaml is not reported: %.300s", body)
+	}
+}

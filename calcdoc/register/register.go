@@ -14,6 +14,9 @@ import (
 	"runtime"
 	"runtime/debug"
 	"sync"
+
+	"github.com/vouchcalc/vouch/calcdoc"
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 )
 
 // ErrNoCalcs reports a folder that holds no calc file.
@@ -35,6 +38,9 @@ type Options struct {
 	// Signers is an allowed-signers file for checking the keys of the
 	// signed packages; "" checks signatures without it.
 	Signers string
+	// Read are the repository's settings (vouch.yaml) every calc is read
+	// with.
+	Read calcdoc.ReadOptions
 	// Progress, when set, is told after each calc how many are done. It
 	// is called from one goroutine at a time.
 	Progress func(done, total int)
@@ -190,4 +196,14 @@ func (r *run) finish(i int, o outcome) {
 	if r.opt.Progress != nil {
 		r.opt.Progress(r.done, len(r.calcs))
 	}
+}
+
+// cacheEngine is what the cache key records of the engine and of the
+// settings every calc is read with: a changed vouch.yaml renders every
+// calc again.
+func (o Options) cacheEngine() string {
+	if o.Read.SettingsSource == nil {
+		return o.Engine
+	}
+	return o.Engine + " settings " + provenance.BlobHash(o.Read.SettingsSource)
 }

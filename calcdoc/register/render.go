@@ -85,7 +85,7 @@ func (w *worker) previous(calc string) *Entry {
 // fresh reports whether a cache entry still holds: same key, and the
 // package it names still in the output folder.
 func (w *worker) fresh(old *Entry, calc, path string, src []byte) bool {
-	if old.Key != cacheKey(w.run.opt.Engine, calc, src, currentData(filepath.Dir(path), old.Data)) {
+	if old.Key != cacheKey(w.run.opt.cacheEngine(), calc, src, currentData(filepath.Dir(path), old.Data)) {
 		return false
 	}
 	if old.Broken() {
@@ -98,10 +98,10 @@ func (w *worker) fresh(old *Entry, calc, path string, src []byte) bool {
 // render evaluates a calc and writes its package into the output folder. A calc with errors gets an entry that lists them and no
 // package; the error is for a package that cannot be written.
 func (w *worker) render(calc, path string, src []byte) (*Entry, error) {
-	d := calcdoc.Read(path, src)
+	d := calcdoc.ReadWith(path, src, w.run.opt.Read)
 	d.Evaluate()
 	e := entryOf(calc, d)
-	defer func() { e.Key = cacheKey(w.run.opt.Engine, calc, src, e.Data) }()
+	defer func() { e.Key = cacheKey(w.run.opt.cacheEngine(), calc, src, e.Data) }()
 	if e.Broken() {
 		return e, nil
 	}

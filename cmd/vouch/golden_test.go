@@ -158,3 +158,88 @@ func TestRenderErrorWritesNothing(t *testing.T) {
 		t.Errorf("the folder holds %d entries; a failed render must leave no temporary file", len(entries))
 	}
 }
+
+// TestGoldenHouse renders calcs of a repository with a full house style
+// (testdata/house: a fictional firm's vouch.yaml with a logo, extra
+// front-matter keys and its caution), on A4 (the firm's paper) and on
+// Letter (a calc's own), and compares the packages with their golden files.
+func TestGoldenHouse(t *testing.T) {
+	dir := t.TempDir()
+	copyDir(t, filepath.Join("testdata", "house"), dir)
+	for _, name := range []string{"house-a4", "house-letter"} {
+		t.Run(name, func(t *testing.T) {
+			calc := filepath.Join(dir, name+".calc.md")
+			var out, errs bytes.Buffer
+			if code := run([]string{"render", calc}, &out, &errs); code != exitOK {
+				t.Fatalf("render exit %d: %s", code, errs.String())
+			}
+			html, err := os.ReadFile(filepath.Join(dir, name+".html"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			golden(t, name+".html", html)
+		})
+	}
+}
+
+// TestHouseKeys: a firm's key is read only with the firm's settings, and a
+// key the firm did not declare stays an error at its line.
+func TestHouseKeys(t *testing.T) {
+	dir := t.TempDir()
+	copyDir(t, filepath.Join("testdata", "house"), dir)
+	calc := filepath.Join(dir, "typo.calc.md")
+	os.WriteFile(calc, []byte("---\ntitle: T\nclient: C\nclinet_ref: X\n---\n```calc\na = 1 m\n```\n"), 0o644)
+	var out, errs bytes.Buffer
+	if code := run([]string{"run", calc}, &out, &errs); code != exitErrors {
+		t.Fatalf("exit %d, want %d", code, exitErrors)
+	}
+	if want := `typo.calc.md:4:1: unknown front-matter key "clinet_ref"`; !strings.Contains(errs.String(), want) {
+		t.Errorf("stderr %q lacks %q", errs.String(), want)
+	}
+	if strings.Contains(errs.String(), `key "client"`) {
+		t.Errorf("the firm's key client was refused: %s", errs.String())
+	}
+	os.WriteFile(filepath.Join(dir, "vouch.yaml"), []byte("firm:\n  logo: .vouch/missing.png\nfront_matter:\n  client: Client\n"), 0o644)
+	os.WriteFile(calc, []byte("---\ntitle: T\nclient: C\n---\n```calc\na = 1 m\n```\n"), 0o644)
+	errs.Reset()
+	if code := run([]string{"render", calc}, &out, &errs); code != exitErrors || !strings.Contains(errs.String(), "firm logo .vouch/missing.png does not exist in the repository") {
+		t.Errorf("missing logo: exit %d, stderr %q", code, errs.String())
+	}
+	if _, err := os.Stat(filepath.Join(dir, "typo.html")); err == nil {
+		t.Error("a package was written although the logo is missing")
+	}
+	os.WriteFile(filepath.Join(dir, "vouch.yaml"), []byte("paper: A5\n"), 0o644)
+	errs.Reset()
+	if code := run([]string{"run", calc}, &out, &errs); code != exitErrors || !strings.Contains(errs.String(), "vouch.yaml:1:8:") {
+		t.Errorf("bad vouch.yaml: exit %d, stderr %q; want exit 1 and the error at vouch.yaml:1:8", code, errs.String())
+	}
+}
+
+// TestGoldenUS renders a calc with display: US, whose results carry no
+// [UNIT] (so they are shown in psia, °F, BTU/lb, lb/h, hp) and whose
+// inputs are shown as written, and compares the package and the run table
+// with their golden files.
+func TestGoldenUS(t *testing.T) {
+	dir := t.TempDir()
+	copyDir(t, filepath.Join("testdata", "house"), dir)
+	calc := filepath.Join(dir, "house-us.calc.md")
+	var out, errs bytes.Buffer
+	if code := run([]string{"run", calc}, &out, &errs); code != exitOK {
+		t.Fatalf("run exit %d: %s", code, errs.String())
+	}
+	golden(t, "house-us.txt", out.Bytes())
+	if code := run([]string{"render", calc}, &out, &errs); code != exitOK {
+		t.Fatalf("render exit %d: %s", code, errs.String())
+	}
+	html, err := os.ReadFile(filepath.Join(dir, "house-us.html"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	golden(t, "house-us.html", html)
+	for _, want := range []string{"1692000 lb/h", "1483 BTU/lb", "340400 hp", "12.5 MPa"} {
+		if !strings.Contains(strings.ReplaceAll(strings.ReplaceAll(string(html), "\u2009", " "), "\u202f", ""), want) &&
+			!strings.Contains(out.String(), want) {
+			t.Errorf("neither the package nor the run table shows %s", want)
+		}
+	}
+}

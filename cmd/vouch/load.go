@@ -9,14 +9,19 @@ import (
 	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
-// loadCalc reads and evaluates a calc; a long sweep reports its progress on
+// loadCalc reads and evaluates a calc with its repository's settings
+// (vouch.yaml, whose errors it prints at their lines); a long sweep reports its progress on
 // stderr when stderr is a terminal.
 func loadCalc(path string, stderr io.Writer) (*calcdoc.Doc, error) {
 	src, err := safefile.Read(path, calcdoc.MaxFileBytes)
 	if err != nil {
 		return nil, err
 	}
-	d := calcdoc.Read(path, src)
+	opt, err := readOptions(path, stderr)
+	if err != nil {
+		return nil, err
+	}
+	d := calcdoc.ReadWith(path, src, opt)
 	if tty, ok := terminalOf(stderr); ok {
 		d.Progress = progressPrinter(tty)
 	}

@@ -41,6 +41,10 @@ func cmdRegister(args []string, stdout, stderr io.Writer) int {
 	if tty, ok := terminalOf(stderr); ok {
 		opt.Progress = progressBar(tty)
 	}
+	if opt.Read, err = readOptions(opt.Dir, stderr); err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
 	sum, err := register.Run(opt)
 	return registerReport(opt, sum, err, stdout, stderr)
 }

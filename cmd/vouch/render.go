@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
+	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
@@ -65,6 +66,9 @@ func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
 	fmt.Fprintf(stdout, "wrote %s\n", dest)
 	if pdf {
 		p, err := writePDF(dest)
+		if err == nil {
+			err = archivePDF(p, pdfMetaOf(d, st))
+		}
 		if err != nil {
 			fmt.Fprintf(stderr, "vouch: %v\n", err)
 			return exitErrors
@@ -138,4 +142,18 @@ func packagePath(path, outDir string) string {
 		return filepath.Join(filepath.Dir(path), base)
 	}
 	return filepath.Join(outDir, base)
+}
+
+// pdfMetaOf is what the archival PDF of a package records: its number,
+// title and revision, and the commit's date (the Unix epoch when no commit holds the calc).
+func pdfMetaOf(d *calcdoc.Doc, st *calcdoc.Stamp) pdfMeta {
+	title := d.Front.Number + " " + d.Front.Title
+	if d.Front.Revision != "" {
+		title += ", revision " + d.Front.Revision
+	}
+	m := pdfMeta{Title: title, Date: time.Unix(0, 0).UTC()}
+	if t, err := time.Parse(time.RFC3339, st.Date); err == nil && st.Versioned {
+		m.Date = t.UTC()
+	}
+	return m
 }

@@ -36,7 +36,7 @@ func cmdServe(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitUsage
 	}
-	srv, err := preview.New(preview.Options{Path: paths[0], Engine: Version, Remote: *remote})
+	srv, err := preview.New(preview.Options{Path: paths[0], Engine: Version, Remote: *remote, SettingsRoot: settingsRoot(paths[0])})
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitUsage

@@ -7,6 +7,7 @@ import (
 	"os"
 	"path/filepath"
 
+	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/settings"
 	"github.com/vouchcalc/vouch/calcdoc/starter"
 )
@@ -16,14 +17,7 @@ import (
 // settings, the root they were read from, and exitOK; a settings file with
 // errors prints them at their lines and returns exitErrors.
 func repoSettings(path string, stderr io.Writer) (*settings.Settings, string, int) {
-	dir := path
-	if st, err := os.Stat(path); err != nil || !st.IsDir() {
-		dir = filepath.Dir(path)
-	}
-	root, ok := starter.RepoRoot(dir)
-	if !ok {
-		root = dir
-	}
+	root := settingsRoot(path)
 	s, src, err := settings.Load(os.DirFS(root), root)
 	var list settings.ErrorList
 	if errors.As(err, &list) {
@@ -35,4 +29,30 @@ func repoSettings(path string, stderr io.Writer) (*settings.Settings, string, in
 		return nil, root, exitErrors
 	}
 	return s, root, exitOK
+}
+
+// settingsRoot is the folder whose vouch.yaml applies to path: the root of
+// the repository that holds it, or outside one its folder.
+func settingsRoot(path string) string {
+	dir := path
+	if st, err := os.Stat(path); err != nil || !st.IsDir() {
+		dir = filepath.Dir(path)
+	}
+	if root, ok := starter.RepoRoot(dir); ok {
+		return root
+	}
+	return dir
+}
+
+// readOptions reads the settings a calc at path is read with. A settings
+// file with errors prints them at their lines and gives an error.
+func readOptions(path string, stderr io.Writer) (calcdoc.ReadOptions, error) {
+	root := settingsRoot(path)
+	opt, src, err := calcdoc.SettingsIn(os.DirFS(root), root)
+	var list settings.ErrorList
+	if errors.As(err, &list) {
+		fmt.Fprint(stderr, list.Format(src))
+		return opt, fmt.Errorf("%s has errors; nothing written", filepath.Join(root, settings.FileName))
+	}
+	return opt, err
 }
