@@ -179,8 +179,9 @@ func TestPDFInFolderWithHashOrQuery(t *testing.T) {
 		if err != nil {
 			t.Fatalf("%s: %v", name, err)
 		}
-		page, _ := os.ReadFile(filepath.Join(dir, "p.html"))
-		if err := checkPDF(pdf, htmlTitle(page)); err != nil {
+		// the archival rewrite keeps the title in ASCII (Ghostscript drops
+		// a title with non-ASCII characters or brackets)
+		if err := checkPDF(pdf, asciiTitle(" Feed pump η and head (fictional)")); err != nil {
 			t.Errorf("%s: %v", name, err)
 		}
 	}

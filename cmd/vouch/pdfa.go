@@ -65,27 +65,45 @@ func archivePDF(path string, meta pdfMeta) error {
 	if err := os.WriteFile(title, []byte("%!\n[ /Title ("+asciiTitle(meta.Title)+") /DOCINFO pdfmark\n"), 0o600); err != nil {
 		return err
 	}
-	tmp := path + ".tmp"
+	// Ghostscript reads %d and the like in an output name as a page
+	// template, so it works on copies with plain names in its own folder.
+	in, out := filepath.Join(dir, "in.pdf"), filepath.Join(dir, "out.pdf")
+	if err := copyFile(path, in); err != nil {
+		return err
+	}
 	cmd := exec.Command(gs, "-q", "-dPDFA=2", "-dBATCH", "-dNOPAUSE", "-dNOOUTERSAVE", "-dSAFER",
 		"-dPDFACompatibilityPolicy=1", "-sColorConversionStrategy=RGB", "-sDEVICE=pdfwrite",
-		"--permit-file-read="+filepath.Dir(icc)+"/", "-sOutputFile="+tmp, def, path, title)
+		"--permit-file-read="+filepath.Dir(icc)+"/", "-sOutputFile="+out, def, in, title)
 	cmd.Env = append(os.Environ(), "SOURCE_DATE_EPOCH="+strconv.FormatInt(meta.Date.Unix(), 10))
-	if out, err := cmd.CombinedOutput(); err != nil {
-		os.Remove(tmp)
-		return fmt.Errorf("making %s an archival PDF with Ghostscript failed: %v\n%s", path, err, out)
+	if msg, err := cmd.CombinedOutput(); err != nil {
+		return fmt.Errorf("making %s an archival PDF with Ghostscript failed: %v\n%s", path, err, msg)
 	}
-	pdf, err := os.ReadFile(tmp)
+	pdf, err := os.ReadFile(out)
 	if err == nil {
 		err = fixID(pdf)
 	}
 	if err == nil {
-		err = os.WriteFile(tmp, pdf, 0o644)
+		// the rewrite must still be this package's PDF, titled as asked
+		err = checkPDF(pdf, asciiTitle(meta.Title))
 	}
 	if err != nil {
-		os.Remove(tmp)
 		return fmt.Errorf("%s: %v", path, err)
 	}
+	tmp := path + ".tmp"
+	if err := os.WriteFile(tmp, pdf, 0o644); err != nil {
+		os.Remove(tmp)
+		return err
+	}
 	return os.Rename(tmp, path)
+}
+
+// copyFile copies the file at src to dst.
+func copyFile(src, dst string) error {
+	b, err := os.ReadFile(src)
+	if err != nil {
+		return err
+	}
+	return os.WriteFile(dst, b, 0o600)
 }
 
 // pdfaDef is Ghostscript's PDF/A definition file: the document's title
