@@ -52,6 +52,9 @@ func (d *Doc) runSweep(eng *eval.Engine, sw *Sweep) {
 		d.errorf(sw.VarOff, "vary %s: the calc does not define %s", sw.Var, sw.Var)
 		return
 	}
+	if !d.checkInput(sw, input) {
+		return
+	}
 	if _, isText := input.Outcome.Value.(string); isText {
 		d.runTextSweep(eng, sw)
 		return
