@@ -49,3 +49,111 @@ func TestSweepVariesComputedName(t *testing.T) {
 		t.Error("varying the input T_1 left h flat")
 	}
 }
+
+// boundCalc is a tiny calc for the bound tests: a sweep point costs
+// little, so only the bounds decide what happens.
+const boundCalc = "```calc\nx = 1 m\ny = 2 * x\ncheck y > 0 m\n```\n"
+
+// TestSweepStepCountOverflow: "in 9223372036854775807 steps" overflowed
+// the point count and panicked in makeslice.
+func TestSweepStepCountOverflow(t *testing.T) {
+	_, got := readEval(t, boundCalc+"```sweep\nvary x from 0 m to 1 m in 9223372036854775807 steps\nshow y\n```\n")
+	want := "s.calc.md:7:27: vary x: 9223372036854775807 steps are more than the 99999 a sweep may have (100000 points)"
+	if !strings.Contains(got, want) {
+		t.Errorf("got %s\nwant %s", got, want)
+	}
+}
+
+// TestSweepListTooLong: a list of 150,000 values was accepted and
+// evaluated for half a minute.
+func TestSweepListTooLong(t *testing.T) {
+	list := strings.Repeat("1 m,", 150000)
+	_, got := readEval(t, boundCalc+"```sweep\nvary x over ["+list[:len(list)-1]+"]\nshow y\n```\n")
+	want := "s.calc.md:7:13: vary x over [...]: 150000 values are more than the 100000 a sweep may have"
+	if !strings.Contains(got, want) {
+		t.Errorf("got %.300s\nwant %s", got, want)
+	}
+}
+
+// TestSweepManyColumns: 99,999 steps with one name shown 300 times took
+// 2.3 GB; the table a sweep keeps is bounded by points × columns.
+func TestSweepManyColumns(t *testing.T) {
+	show := strings.TrimSuffix(strings.Repeat("y, ", 300), ", ")
+	d, got := readEval(t, boundCalc+"```sweep\nvary x from 0 m to 1 m in 99999 steps\nshow "+show+"\n```\n")
+	want := "s.calc.md:7:6: vary x: 100000 points × 301 columns (300 shown, 1 checks) are 30100000 values, more than the 1000000 one sweep may hold"
+	if !strings.Contains(got, want) {
+		t.Errorf("got %.300s\nwant %s", got, want)
+	}
+	if d.Sweeps[0].Rows != nil {
+		t.Error("the sweep evaluated points after its error")
+	}
+}
+
+// TestSweepBounds runs hostile vary and show lines: each gives one clear
+// error at its line and column, and evaluates no point.
+func TestSweepBounds(t *testing.T) {
+	cases := []struct{ block, want string }{
+		{"vary x from 0 m to 1 m in 100000 steps\nshow y", "7:27: vary x: 100000 steps are more than the 99999 a sweep may have"},
+		{"vary x from 0 m to 1 m in 99999999999999999999 steps\nshow y", "7:27: vary x: 99999999999999999999 steps are more than the 99999"},
+		{"vary x from 0 m to 1 m in -3 steps\nshow y", "7:27: vary x: -3 steps; a sweep from A to B needs at least 1 step"},
+		{"vary x from 0 m to 1 m in -99999999999999999999 steps\nshow y", "7:27: vary x: \"-99999999999999999999\" steps; N is a whole number of intervals, from 1 to 99999"},
+		{"vary x from 0 m to 1 m in 0 steps\nshow y", "7:27: vary x: 0 steps; a sweep from A to B needs at least 1 step"},
+		{"vary x from 0 m to 1 m in 2.5 steps\nshow y", "7:27: vary x: \"2.5\" steps; N is a whole number of intervals"},
+		{"vary x from 0 m to 1 m in 1e3 steps\nshow y", "7:27: vary x: \"1e3\" steps; N is a whole number of intervals"},
+		{"vary x from 0 m to 1 m in 0x10 steps\nshow y", "7:27: vary x: \"0x10\" steps; N is a whole number of intervals"},
+		{"vary x from 0 m to 1 m in 3 apples\nshow y", "7:27: write: vary x from A to B in N steps"},
+		{"vary x from 0 m to 1 m\nshow y", "7:8: write: vary x from A to B in N steps"},
+		{"vary x over [" + strings.Repeat("1 m,", 100000) + "1 m]\nshow y", "7:13: vary x over [...]: 100001 values are more than the 100000"},
+		{"vary x from 0 m to 1 m in 49999 steps\nshow y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y",
+			"7:6: vary x: 50000 points × 21 columns (20 shown, 1 checks) are 1050000 values, more than the 1000000"},
+	}
+	for _, c := range cases {
+		d, got := readEval(t, boundCalc+"```sweep\n"+c.block+"\n```\n")
+		if !strings.Contains(got, "s.calc.md:"+c.want) {
+			t.Errorf("%.60s:\n got %.300s\nwant %s", c.block, got, c.want)
+		}
+		if len(d.Errors) != 1 {
+			t.Errorf("%.60s: %d errors, want 1", c.block, len(d.Errors))
+		}
+		for _, sw := range d.Sweeps {
+			if sw.Rows != nil {
+				t.Errorf("%.60s: points were evaluated", c.block)
+			}
+		}
+	}
+}
+
+// TestSweepFileBudget: the sweeps of one file share a budget of points,
+// values and line evaluations; the sweep that goes over gets the error at
+// its vary line and evaluates nothing.
+func TestSweepFileBudget(t *testing.T) {
+	d, _ := readEval(t, boundCalc+"```sweep\nvary x from 0 m to 1 m in 9 steps\nshow y\n```\n")
+	sw := d.Sweeps[0]
+	plan := d.planSweep("x")
+	cases := []struct {
+		used sweepBudget
+		want string
+	}{
+		{sweepBudget{points: MaxFileSweepPoints - 9}, "vary x: this sweep's 10 points bring the file's sweeps to 200001 points, more than the 200000"},
+		{sweepBudget{values: MaxFileSweepValues - 19}, "vary x: this sweep's 20 values (points × columns) bring the file's sweeps to 2000001"},
+		{sweepBudget{evals: MaxFileSweepEvals - 19}, "vary x: 10 points × 2 lines to re-evaluate bring the file's sweeps to 20000001 line evaluations"},
+	}
+	for _, c := range cases {
+		d.Errors = nil
+		b := c.used
+		if d.admit(&b, sw, plan) {
+			t.Errorf("%+v: admitted", c.used)
+		}
+		if len(d.Errors) != 1 || !strings.Contains(d.Errors[0].Msg, c.want) || d.Errors[0].Pos.Line != 7 {
+			t.Errorf("%+v: %v, want %s at line 7", c.used, d.Errors, c.want)
+		}
+		if b != c.used {
+			t.Errorf("%+v: a refused sweep used the budget: %+v", c.used, b)
+		}
+	}
+	d.Errors = nil
+	b := sweepBudget{points: MaxFileSweepPoints - 10, values: MaxFileSweepValues - 20, evals: MaxFileSweepEvals - 20}
+	if !d.admit(&b, sw, plan) || b != (sweepBudget{MaxFileSweepPoints, MaxFileSweepValues, MaxFileSweepEvals}) {
+		t.Errorf("a sweep that fits exactly was refused: %v, %+v", d.Errors, b)
+	}
+}
