@@ -96,9 +96,20 @@ func (r *sweepRun) runAll(workers int) {
 	}
 }
 
+// worker is one goroutine's engine, reforked from the main pass's engine
+// at every point, and the point it is at.
+type worker struct {
+	f   *eval.Engine
+	cur int
+}
+
 // work takes chunks of points until none is left or a point before them
 // has failed, and tells done about each chunk it finished.
 func (r *sweepRun) work(chunk int, done func(lo, hi int)) {
+	w := &worker{f: r.eng.Fork(r.plan.redo)}
+	if r.shared {
+		r.readersFor(w)
+	}
 	n := int64(len(r.vals))
 	for {
 		lo := r.next.Add(int64(chunk)) - int64(chunk)
@@ -111,7 +122,7 @@ func (r *sweepRun) work(chunk int, done func(lo, hi int)) {
 				hi = i
 				break
 			}
-			if err := r.point(int(i)); err != nil {
+			if err := r.point(w, int(i)); err != nil {
 				r.errs[i] = err
 				r.lowerStop(i)
 			}
@@ -151,13 +162,13 @@ func (p *progressTracker) mark(lo, hi int) {
 	}
 }
 
-// point re-evaluates the dependent lines at point i and fills its row.
-func (r *sweepRun) point(i int) *pointError {
+// point re-evaluates the dependent lines at point i on the worker's
+// engine and fills its row.
+func (r *sweepRun) point(w *worker, i int) *pointError {
 	d, sw := r.d, r.sw
-	f := r.eng.Fork(r.plan.redo)
-	if r.shared {
-		r.readersFor(f, i)
-	}
+	f := w.f
+	f.Refork(r.eng, r.plan.redo)
+	w.cur = i
 	f.Set(sw.Var, r.vals[i])
 	var failed []int
 	for _, it := range r.plan.items {
@@ -187,14 +198,15 @@ func (r *sweepRun) point(i int) *pointError {
 	return nil
 }
 
-// readersFor gives a fork data readers that run one at a time and note,
-// for point i, each file they are asked for.
-func (r *sweepRun) readersFor(f *eval.Engine, i int) {
+// readersFor gives a worker's engine data readers that run one at a time
+// and note, for the worker's point, each file they are asked for.
+func (r *sweepRun) readersFor(w *worker) {
+	f := w.f
 	if data := f.Data; data != nil {
 		f.Data = func(name string) ([]byte, error) {
 			r.readMu.Lock()
 			defer r.readMu.Unlock()
-			r.reads[i] = append(r.reads[i], name)
+			r.reads[w.cur] = append(r.reads[w.cur], name)
 			return data(name)
 		}
 	}
@@ -202,7 +214,7 @@ func (r *sweepRun) readersFor(f *eval.Engine, i int) {
 		f.YAML = func(name string) ([]eval.KeyValue, error) {
 			r.readMu.Lock()
 			defer r.readMu.Unlock()
-			r.reads[i] = append(r.reads[i], name)
+			r.reads[w.cur] = append(r.reads[w.cur], name)
 			return values(name)
 		}
 	}
