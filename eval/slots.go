@@ -115,7 +115,7 @@ func (e *Engine) forkSlots(dst []slot, redo map[string]bool) []slot {
 	if !e.names.shared.Load() {
 		e.names.shared.Store(true) // whichever engine adds a name next clones the table
 	}
-	copy(dst, e.slots)         // one bulk copy; then keep only what has a value
+	copy(dst, e.slots) // one bulk copy; then keep only what has a value
 	for i := range dst {
 		if s := &dst[i]; !s.has {
 			*s = slot{}
