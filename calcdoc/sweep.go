@@ -36,6 +36,7 @@ type Sweep struct {
 	Failed [][]int            // lines of the checks that fail at each point
 	SVGs   [][]byte           // the plots
 	block  int
+	vary   int // offset of the vary line; -1 until the block has one
 }
 
 // SweepColumn is one shown result.
@@ -52,13 +53,16 @@ const MaxSweepPoints = 100000
 // readSweep parses a sweep block's lines.
 func (d *Doc) readSweep(b *gast.FencedCodeBlock) {
 	d.checkClosed(b)
-	sw := &Sweep{Off: b.Info.Segment.Start, Line: d.lines.pos(d.Src, b.Info.Segment.Start).Line, block: len(d.Sweeps)}
+	sw := &Sweep{Off: b.Info.Segment.Start, Line: d.lines.pos(d.Src, b.Info.Segment.Start).Line, block: len(d.Sweeps), vary: -1}
 	for _, l := range d.directives(b) {
 		d.sweepLine(sw, l.text, l.off)
 	}
-	if sw.Var == "" {
+	if sw.vary < 0 {
 		d.errorf(sw.Off, "a sweep block needs a line: vary NAME from A to B in N steps, or vary NAME over [A, B]")
 		return
+	}
+	if sw.Var == "" {
+		return // the vary line has its error
 	}
 	if len(sw.Show) == 0 && len(sw.plots) == 0 {
 		d.errorf(sw.Off, "a sweep block needs a line: show NAME, ... or plot NAME")
@@ -68,10 +72,18 @@ func (d *Doc) readSweep(b *gast.FencedCodeBlock) {
 }
 
 func (d *Doc) sweepLine(sw *Sweep, code string, off int) {
-	word, rest, _ := strings.Cut(code, " ")
-	restOff := off + len(word) + 1
+	word, rest, spaced := strings.Cut(code, " ")
+	restOff := off + len(word)
+	if spaced {
+		restOff++
+	}
 	switch word {
 	case "vary":
+		if sw.vary >= 0 {
+			d.errorf(off, "a sweep varies one input, and this one has a vary line on line %d; write a second sweep block to vary another", d.lines.pos(d.Src, sw.vary).Line)
+			return
+		}
+		sw.vary = off
 		d.sweepVary(sw, rest, restOff)
 	case "show":
 		d.sweepShow(sw, rest, restOff)
@@ -89,7 +101,13 @@ func (d *Doc) sweepLine(sw *Sweep, code string, off int) {
 
 // sweepVary reads "NAME from A to B in N steps" or "NAME over [A, B, C]".
 func (d *Doc) sweepVary(sw *Sweep, s string, off int) {
+	trimmed := strings.TrimLeft(s, " \t")
+	s, off = trimmed, off+len(s)-len(trimmed)
 	name, rest, _ := strings.Cut(s, " ")
+	if name == "" {
+		d.errorf(off, "write: vary NAME from A to B in N steps, or vary NAME over [A, B, C]")
+		return
+	}
 	sw.Var, sw.VarOff = name, off
 	rest = strings.TrimSpace(rest)
 	restOff := off + strings.Index(s, rest)

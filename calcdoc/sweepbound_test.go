@@ -89,6 +89,18 @@ func TestSweepManyColumns(t *testing.T) {
 	}
 }
 
+// TestSweepSecondVaryLine: a second vary line in one block replaced the
+// varied name but kept the first line's values, so the sweep set y to x's
+// values without an error.
+func TestSweepSecondVaryLine(t *testing.T) {
+	calc := "```calc\nx = 1 m\nz = 5 m\ny = 2 * x + z\n```\n"
+	d, got := readEval(t, calc+"```sweep\nvary x over [1 m, 2 m]\nvary z from 0 m to 1 m in 3 steps\nshow y\n```\n")
+	want := "s.calc.md:8:1: a sweep varies one input, and this one has a vary line on line 7; write a second sweep block to vary another"
+	if !strings.Contains(got, want) || len(d.Errors) != 1 {
+		t.Errorf("got %s\nwant %s", got, want)
+	}
+}
+
 // TestSweepBounds runs hostile vary and show lines: each gives one clear
 // error at its line and column, and evaluates no point.
 func TestSweepBounds(t *testing.T) {
@@ -103,6 +115,8 @@ func TestSweepBounds(t *testing.T) {
 		{"vary x from 0 m to 1 m in 0x10 steps\nshow y", "7:27: vary x: \"0x10\" steps; N is a whole number of intervals"},
 		{"vary x from 0 m to 1 m in 3 apples\nshow y", "7:27: write: vary x from A to B in N steps"},
 		{"vary x from 0 m to 1 m\nshow y", "7:8: write: vary x from A to B in N steps"},
+		{"vary\nshow y", "7:5: write: vary NAME from A to B in N steps, or vary NAME over [A, B, C]"},
+		{"vary   \nshow y", "7:5: write: vary NAME from A to B in N steps, or vary NAME over [A, B, C]"},
 		{"vary x over [" + strings.Repeat("1 m,", 100000) + "1 m]\nshow y", "7:13: vary x over [...]: 100001 values are more than the 100000"},
 		{"vary x from 0 m to 1 m in 49999 steps\nshow y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y, y",
 			"7:6: vary x: 50000 points × 21 columns (20 shown, 1 checks) are 1050000 values, more than the 1000000"},
