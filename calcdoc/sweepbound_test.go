@@ -29,7 +29,7 @@ func TestSweepVariesComputedName(t *testing.T) {
 		{"vary c over [1 MPa, 2 MPa]\nshow h",
 			"vary c: c is computed on line 8 (c = 3 * 4 MPa) and reads no input; a sweep varies an input, a name whose line is a value written out, such as c = 12.00 MPa"},
 		{"vary wf2 over [\"isopentane\", \"R-245fa\"]\nshow p_s",
-			"vary wf2: wf2 is computed on line 10 (wf2 = wf) from the inputs wf; a sweep varies an input, a name whose line is a value written out: vary wf"},
+			"vary wf2: wf2 is computed on line 10 (wf2 = wf) from the input wf; a sweep varies an input, a name whose line is a value written out: vary wf"},
 	}
 	for _, c := range cases {
 		_, got := readEval(t, calc+"```sweep\n"+c.vary+"\n```\n")

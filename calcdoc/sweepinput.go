@@ -28,7 +28,11 @@ func (d *Doc) checkInput(sw *Sweep, input *Item) bool {
 		d.errorf(sw.VarOff, "%s and reads no input; %s, such as %s = %s", head, rule, sw.Var, d.givenText(input))
 		return false
 	}
-	d.errorf(sw.VarOff, "%s from the inputs %s; %s: vary %s", head, strings.Join(ins, ", "), rule, orList(ins))
+	inputs := "the inputs"
+	if len(ins) == 1 {
+		inputs = "the input"
+	}
+	d.errorf(sw.VarOff, "%s from %s %s; %s: vary %s", head, inputs, strings.Join(ins, ", "), rule, orList(ins))
 	return false
 }
 
