@@ -4,6 +4,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/vouchcalc/vouch/units"
 )
 
 // readEval reads and evaluates src and returns the formatted errors.
@@ -213,4 +215,36 @@ func FuzzSweep(f *testing.F) {
 			t.Fatalf("the file's sweeps evaluated %d points and %d values", points, values)
 		}
 	})
+}
+
+// TestSweepEndKinds: the values between the ends of a sweep keep the kind
+// of temperature or pressure the ends give (an absolute end and a
+// kelvin-scale end give absolute values, a gauge end gauge values), and an
+// absolute end with a difference end is an error at the second end.
+func TestSweepEndKinds(t *testing.T) {
+	calc := "```calc\nT_1 = 540 degC\nT_2 = T_1 + 10 Cdeg\np_g = 2 barg\np_2 = p_g + 1 bar\n```\n"
+	d, got := readEval(t, calc+"```sweep\nvary T_1 from 500 K to 600 degC in 2 steps\nshow T_2\n```\n```sweep\nvary p_g from 1 MPa to 3 barg in 2 steps\nshow p_2\n```\n")
+	if len(d.Errors) > 0 {
+		t.Fatal(got)
+	}
+	for _, x := range d.Sweeps[0].X {
+		if x.T != units.Abs {
+			t.Errorf("T_1 = %g K swept as kind %d, want absolute", x.V, x.T)
+		}
+	}
+	for _, x := range d.Sweeps[1].X {
+		if x.P != units.GaugeP {
+			t.Errorf("p_g = %g Pa swept as kind %d, want gauge", x.V, x.P)
+		}
+	}
+	cases := map[string]string{
+		"vary T_1 from 500 degC to 10 Cdeg in 2 steps\nshow T_2":         "s.calc.md:8:27: vary T_1: 500 degC is an absolute temperature but 10 Cdeg is a temperature difference; write both ends as readings or both as differences",
+		"vary p_g from 1 barg to 3 barg - 1 barg in 2 steps\nshow p_2": "s.calc.md:8:25: vary p_g: 1 barg is a gauge pressure but 3 barg - 1 barg is a difference of gauge pressures",
+	}
+	for block, want := range cases {
+		_, got := readEval(t, calc+"```sweep\n"+block+"\n```\n")
+		if !strings.Contains(got, want) {
+			t.Errorf("%s:\n got %s\nwant %s", block, got, want)
+		}
+	}
 }

@@ -123,12 +123,50 @@ func (d *Doc) sweepValues(eng *eval.Engine, sw *Sweep, input *Item) ([]units.Qua
 	if sw.steps == 0 {
 		return qs, len(qs) > 0
 	}
+	tk, pk, ok := endKinds(qs[0], qs[1])
+	if !ok {
+		b := sw.bounds[1]
+		d.errorf(b.ExprOff, "vary %s: %s is %s but %s is %s; write both ends as readings or both as differences",
+			sw.Var, sw.bounds[0].Expr, kindOfReading(qs[0]), b.Expr, kindOfReading(qs[1]))
+		return nil, false
+	}
 	out := make([]units.Quantity, sw.steps+1)
 	for i := range out {
 		t := float64(i) / float64(sw.steps)
-		out[i] = units.Quantity{V: qs[0].V + float64(t*(qs[1].V-qs[0].V)), D: base.D, T: qs[0].T, P: qs[0].P}
+		out[i] = units.Quantity{V: qs[0].V + float64(t*(qs[1].V-qs[0].V)), D: base.D, T: tk, P: pk}
 	}
 	return out, true
+}
+
+// endKinds is the kind of the values between two ends of a sweep: an
+// absolute temperature or gauge pressure when either end is one, a
+// difference when either end is one, else kelvin-scale or absolute
+// pressure; an absolute end and a difference end do not go together.
+func endKinds(a, b units.Quantity) (units.Temp, units.Press, bool) {
+	t, p := a.T, a.P
+	if t == units.Scale {
+		t = b.T
+	}
+	if p == units.AnyP {
+		p = b.P
+	}
+	ok := (a.T == b.T || a.T == units.Scale || b.T == units.Scale) && (a.P == b.P || a.P == units.AnyP || b.P == units.AnyP)
+	return t, p, ok
+}
+
+// kindOfReading names a temperature's or pressure's kind for messages.
+func kindOfReading(q units.Quantity) string {
+	switch {
+	case q.D == units.DimTemperature && q.T == units.Abs:
+		return "an absolute temperature"
+	case q.D == units.DimTemperature && q.T == units.Rel:
+		return "a temperature difference"
+	case q.D == units.DimPressure && q.P == units.GaugeP:
+		return "a gauge pressure"
+	case q.D == units.DimPressure && q.P == units.DiffP:
+		return "a difference of gauge pressures"
+	}
+	return "a reading"
 }
 
 func kindName(v any) string {
