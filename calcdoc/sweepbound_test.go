@@ -238,7 +238,7 @@ func TestSweepEndKinds(t *testing.T) {
 		}
 	}
 	cases := map[string]string{
-		"vary T_1 from 500 degC to 10 Cdeg in 2 steps\nshow T_2":         "s.calc.md:8:27: vary T_1: 500 degC is an absolute temperature but 10 Cdeg is a temperature difference; write both ends as readings or both as differences",
+		"vary T_1 from 500 degC to 10 Cdeg in 2 steps\nshow T_2":       "s.calc.md:8:27: vary T_1: 500 degC is an absolute temperature but 10 Cdeg is a temperature difference; write both ends as readings or both as differences",
 		"vary p_g from 1 barg to 3 barg - 1 barg in 2 steps\nshow p_2": "s.calc.md:8:25: vary p_g: 1 barg is a gauge pressure but 3 barg - 1 barg is a difference of gauge pressures",
 	}
 	for block, want := range cases {
