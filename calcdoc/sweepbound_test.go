@@ -248,3 +248,18 @@ func TestSweepEndKinds(t *testing.T) {
 		}
 	}
 }
+
+// TestSweepPlotLimitVaries: a plot's limit line was drawn at the main
+// pass's value even when the limit depends on the varied input, so the
+// line did not show the limit at any other point.
+func TestSweepPlotLimitVaries(t *testing.T) {
+	calc := "```calc\nx = 1 m\ny = 2 * x\ny_max = 3 * x\nz_max = 5 m\n```\n"
+	_, got := readEval(t, calc+"```sweep\nvary x from 1 m to 2 m in 4 steps\nshow y\nplot y limit y_max\n```\n")
+	want := "s.calc.md:10:14: plot y limit y_max: y_max depends on x, so it changes along the sweep and is not one line; show y_max and plot it with y: plot y, y_max"
+	if !strings.Contains(got, want) {
+		t.Errorf("got %s\nwant %s", got, want)
+	}
+	if d, got := readEval(t, calc+"```sweep\nvary x from 1 m to 2 m in 4 steps\nshow y\nplot y limit z_max\n```\n"); len(d.Errors) > 0 || len(d.Sweeps[0].SVGs) != 1 {
+		t.Errorf("a fixed limit: %s", got)
+	}
+}

@@ -136,6 +136,11 @@ func (d *Doc) plotLimit(p *svgplot.Plot, sw *Sweep, lim field, yu units.Unit) *p
 	if !ok {
 		return &plotError{lim.off, fmt.Sprintf("plot limit %s: the calc does not define %s", lim.text, lim.text)}
 	}
+	if lim.text == sw.Var || d.planSweep(sw.Var).redo[lim.text] {
+		first := p.Series[0].Name
+		return &plotError{lim.off, fmt.Sprintf("plot %s limit %s: %s depends on %s, so it changes along the sweep and is not one line; show %s and plot it with %s: plot %s, %s",
+			first, lim.text, lim.text, sw.Var, lim.text, first, first, lim.text)}
+	}
 	q, isQ := o.Value.(units.Quantity)
 	first := p.Series[0]
 	if !isQ || q.D != yu.Dim {
