@@ -2,6 +2,7 @@ package calcdoc
 
 import (
 	"errors"
+	"fmt"
 	"strconv"
 	"strings"
 
@@ -89,6 +90,9 @@ func (d *Doc) sweepLine(sw *Sweep, code string, off int) {
 		d.sweepShow(sw, rest, restOff)
 	case "plot":
 		pl, msg := readPlotLine(rest, restOff)
+		if msg == "" && len(sw.plots) == MaxSweepPlots {
+			msg = fmt.Sprintf("plot: a sweep draws at most %d plots; write a second sweep block for more", MaxSweepPlots)
+		}
 		if msg != "" {
 			d.errorf(restOff, "%s", msg)
 			return

@@ -263,3 +263,24 @@ func TestSweepPlotLimitVaries(t *testing.T) {
 		t.Errorf("a fixed limit: %s", got)
 	}
 }
+
+// TestSweepPlotManyNames: a 180 KB calc with one plot line of 30,000 names
+// ran for half a minute (each name searched among 30,000 shown ones, each
+// drawn); a plot line has at most MaxPlotNames names and a sweep at most
+// MaxSweepPlots plot lines.
+func TestSweepPlotManyNames(t *testing.T) {
+	many := strings.TrimSuffix(strings.Repeat("y, ", 30000), ", ")
+	_, got := readEval(t, boundCalc+"```sweep\nvary x over [1 m, 2 m]\nshow "+many+"\nplot "+many+"\n```\n")
+	want := "s.calc.md:9:6: plot: 30000 names on one plot line; a plot shows at most 8, so write a second plot line"
+	if !strings.Contains(got, want) {
+		t.Errorf("got %.300s\nwant %s", got, want)
+	}
+	_, got = readEval(t, boundCalc+"```sweep\nvary x over [1 m, 2 m]\nshow y\n"+strings.Repeat("plot y\n", 17)+"```\n")
+	want = "s.calc.md:25:6: plot: a sweep draws at most 16 plots; write a second sweep block for more"
+	if !strings.Contains(got, want) {
+		t.Errorf("got %.300s\nwant %s", got, want)
+	}
+	if d, got := readEval(t, boundCalc+"```sweep\nvary x over [1 m, 2 m]\nshow y\nplot y, y, y, y, y, y, y, y\n```\n"); len(d.Errors) > 0 {
+		t.Errorf("eight names: %s", got)
+	}
+}

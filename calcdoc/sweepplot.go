@@ -17,6 +17,14 @@ type sweepPlot struct {
 	off   int
 }
 
+// Bounds on a sweep's plots, so that a short line cannot ask for a
+// drawing that takes minutes: names on one plot line, plot lines in one
+// sweep.
+const (
+	MaxPlotNames  = 8
+	MaxSweepPlots = 16
+)
+
 // readPlotLine parses the rest of a plot line: NAME, ... [limit NAME].
 func readPlotLine(rest string, off int) (sweepPlot, string) {
 	pl := sweepPlot{off: off}
@@ -24,6 +32,9 @@ func readPlotLine(rest string, off int) (sweepPlot, string) {
 	pl.names = splitList(list, off)
 	if len(pl.names) == 0 {
 		return pl, "write: plot NAME, ... or plot NAME limit LIMIT_NAME"
+	}
+	if len(pl.names) > MaxPlotNames {
+		return pl, fmt.Sprintf("plot: %d names on one plot line; a plot shows at most %d, so write a second plot line", len(pl.names), MaxPlotNames)
 	}
 	if hasLimit {
 		name := strings.TrimSpace(lim)
