@@ -103,6 +103,17 @@ func TestSweepSecondVaryLine(t *testing.T) {
 	}
 }
 
+// TestSweepPlotPoints: a 230-byte calc with 99,999 steps and eight names
+// on a plot line wrote a 74 MB package; the points a sweep's plots draw
+// are bounded before anything is evaluated.
+func TestSweepPlotPoints(t *testing.T) {
+	d, got := readEval(t, boundCalc+"```sweep\nvary x from 0 m to 1 m in 99999 steps\nshow y\nplot y, y, y\n```\n")
+	want := "s.calc.md:7:6: vary x: 100000 points on its plots are 300000 plotted values, more than the 200000 a sweep's plots may draw"
+	if !strings.Contains(got, want) || d.Sweeps[0].Rows != nil {
+		t.Errorf("got %.300s\nwant %s", got, want)
+	}
+}
+
 // TestSweepBounds runs hostile vary and show lines: each gives one clear
 // error at its line and column, and evaluates no point.
 func TestSweepBounds(t *testing.T) {
@@ -154,6 +165,11 @@ func TestSweepFileBudget(t *testing.T) {
 		{sweepBudget{values: MaxFileSweepValues - 19}, "vary x: this sweep's 20 values (points × columns) bring the file's sweeps to 2000001"},
 		{sweepBudget{evals: MaxFileSweepEvals - 19}, "vary x: 10 points × 2 lines to re-evaluate bring the file's sweeps to 20000001 line evaluations"},
 	}
+	sw.plots = []sweepPlot{{names: []field{{"y", 0}}}}
+	cases = append(cases, struct {
+		used sweepBudget
+		want string
+	}{sweepBudget{plotted: MaxFileSweepPlotted - 9}, "vary x: 10 points on its plots are 10 plotted values, more than the 200000 a sweep's plots may draw (400000 for all the sweeps of a file, 399991 used before)"})
 	for _, c := range cases {
 		d.Errors = nil
 		b := c.used
@@ -168,8 +184,8 @@ func TestSweepFileBudget(t *testing.T) {
 		}
 	}
 	d.Errors = nil
-	b := sweepBudget{points: MaxFileSweepPoints - 10, values: MaxFileSweepValues - 20, evals: MaxFileSweepEvals - 20}
-	if !d.admit(&b, sw, plan) || b != (sweepBudget{MaxFileSweepPoints, MaxFileSweepValues, MaxFileSweepEvals}) {
+	b := sweepBudget{points: MaxFileSweepPoints - 10, values: MaxFileSweepValues - 20, evals: MaxFileSweepEvals - 20, plotted: MaxFileSweepPlotted - 10}
+	if !d.admit(&b, sw, plan) || b != (sweepBudget{MaxFileSweepPoints, MaxFileSweepValues, MaxFileSweepEvals, MaxFileSweepPlotted}) {
 		t.Errorf("a sweep that fits exactly was refused: %v, %+v", d.Errors, b)
 	}
 }

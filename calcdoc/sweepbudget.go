@@ -16,6 +16,12 @@ const (
 	// MaxFileSweepEvals bounds the line evaluations of all the sweeps of a
 	// file: each sweep's points × the lines it re-evaluates at each point.
 	MaxFileSweepEvals = 20_000_000
+	// MaxSweepPlotted bounds the points a sweep's plots draw: its points ×
+	// the names on all its plot lines.
+	MaxSweepPlotted = 200_000
+	// MaxFileSweepPlotted bounds the points all the sweeps' plots of a file
+	// draw.
+	MaxFileSweepPlotted = 400_000
 )
 
 // sweepPlan is what a sweep re-evaluates at each point: the lines that
@@ -28,7 +34,7 @@ type sweepPlan struct {
 
 // sweepBudget is what the sweeps of a file have used so far.
 type sweepBudget struct {
-	points, values, evals int
+	points, values, evals, plotted int
 }
 
 // points is the number of points a sweep asks for, known before any value
@@ -50,6 +56,10 @@ func (d *Doc) admit(b *sweepBudget, sw *Sweep, plan sweepPlan) bool {
 		limit = d.SweepLimit
 	}
 	cols := len(sw.Show) + plan.checks
+	plotted := 0
+	for _, pl := range sw.plots {
+		plotted += n * len(pl.names)
+	}
 	switch {
 	case n > limit:
 		d.errorf(sw.VarOff, "vary %s: %d points are more than the %d a sweep may have", sw.Var, n, limit)
@@ -65,7 +75,11 @@ func (d *Doc) admit(b *sweepBudget, sw *Sweep, plan sweepPlan) bool {
 	case len(plan.items) > MaxFileSweepEvals || b.evals+n*len(plan.items) > MaxFileSweepEvals:
 		d.errorf(sw.VarOff, "vary %s: %d points × %d lines to re-evaluate bring the file's sweeps to %d line evaluations, more than the %d allowed for a file",
 			sw.Var, n, len(plan.items), b.evals+n*len(plan.items), MaxFileSweepEvals)
+	case plotted > MaxSweepPlotted || b.plotted+plotted > MaxFileSweepPlotted:
+		d.errorf(sw.VarOff, "vary %s: %d points on its plots are %d plotted values, more than the %d a sweep's plots may draw (%d for all the sweeps of a file, %d used before); take fewer points or plot fewer names",
+			sw.Var, n, plotted, MaxSweepPlotted, MaxFileSweepPlotted, b.plotted)
 	default:
+		b.plotted += plotted
 		b.points += n
 		b.values += n * cols
 		b.evals += n * len(plan.items)
