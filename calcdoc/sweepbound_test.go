@@ -190,25 +190,28 @@ func TestSweepFileBudget(t *testing.T) {
 	}
 }
 
-// FuzzSweep feeds hostile vary and show lines, and several copies of the
+// FuzzSweep feeds hostile vary, show and plot lines, and several copies of the
 // sweep, to a tiny calc: never a panic, every error inside the file, and
 // no sweep (nor the file's sweeps together) over its bounds.
 func FuzzSweep(f *testing.F) {
-	f.Add("x from 0 m to 1 m in 9223372036854775807 steps", "y", uint8(1))
-	f.Add("x from 0 m to 1 m in -1 steps", "y, y", uint8(1))
-	f.Add("x from 0 m to 1 m in 2.5 steps", "y", uint8(1))
-	f.Add("x from 0 m to 1 m in 99999 steps", "y, y, y, y, y, y, y, y, y, y, y", uint8(1))
-	f.Add("x over [1 m, 2 m, 3 m]", "y [mm], y", uint8(3))
-	f.Add("y over [1 m]", "x", uint8(1))
-	f.Add("x from 0 m to 1 m in 40000 steps", "y", uint8(6))
-	f.Add("x over ["+strings.Repeat("1 m, ", 1000)+"2 m]", "y", uint8(2))
+	f.Add("x from 0 m to 1 m in 9223372036854775807 steps", "y", "", uint8(1))
+	f.Add("x from 0 m to 1 m in -1 steps", "y, y", "y", uint8(1))
+	f.Add("x from 0 m to 1 m in 2.5 steps", "y", "", uint8(1))
+	f.Add("x from 0 m to 1 m in 99999 steps", "y, y, y, y, y, y, y, y, y, y, y", "y, y", uint8(1))
+	f.Add("x over [1 m, 2 m, 3 m]", "y [mm], y", "y limit x", uint8(3))
+	f.Add("y over [1 m]", "x", "", uint8(1))
+	f.Add("x from 0 m to 1 m in 40000 steps", "y", "y, y", uint8(6))
+	f.Add("x over ["+strings.Repeat("1 m, ", 1000)+"2 m]", "y", strings.Repeat("y, ", 9)+"y", uint8(2))
 	dir := f.TempDir()
-	f.Fuzz(func(t *testing.T, vary, show string, copies uint8) {
-		if strings.ContainsAny(vary+show, "\n\r`~") {
+	f.Fuzz(func(t *testing.T, vary, show, plot string, copies uint8) {
+		if strings.ContainsAny(vary+show+plot, "\n\r`~") {
 			return
 		}
-		block := "```sweep\nvary " + vary + "\nshow " + show + "\n```\n"
-		src := boundCalc + strings.Repeat(block, int(copies%8)+1)
+		block := "```sweep\nvary " + vary + "\nshow " + show + "\n"
+		if plot != "" {
+			block += "plot " + plot + "\n"
+		}
+		src := boundCalc + strings.Repeat(block+"```\n", int(copies%8)+1)
 		d := Read(filepath.Join(dir, "f.calc.md"), []byte(src))
 		d.Evaluate()
 		for _, e := range d.Errors {
@@ -216,19 +219,25 @@ func FuzzSweep(f *testing.F) {
 				t.Fatalf("error outside the file: %+v", e)
 			}
 		}
-		var points, values int
+		var points, values, plotted int
 		for _, sw := range d.Sweeps {
 			n, cols := len(sw.Rows), len(sw.Show)+d.planSweep(sw.Var).checks
-			if n > MaxSweepPoints || n*cols > MaxSweepValues {
-				t.Fatalf("vary %s: %d points × %d columns evaluated", sw.Var, n, cols)
+			if n > MaxSweepPoints || n*cols > MaxSweepValues || len(sw.plots) > MaxSweepPlots {
+				t.Fatalf("vary %s: %d points × %d columns, %d plots evaluated", sw.Var, n, cols, len(sw.plots))
 			}
 			if len(d.Errors) == 0 && n != sw.points() {
 				t.Fatalf("vary %s: %d rows for %d points", sw.Var, n, sw.points())
 			}
+			for _, pl := range sw.plots {
+				if len(pl.names) > MaxPlotNames {
+					t.Fatalf("vary %s: a plot of %d names", sw.Var, len(pl.names))
+				}
+				plotted += n * len(pl.names)
+			}
 			points, values = points+n, values+n*cols
 		}
-		if points > MaxFileSweepPoints || values > MaxFileSweepValues {
-			t.Fatalf("the file's sweeps evaluated %d points and %d values", points, values)
+		if points > MaxFileSweepPoints || values > MaxFileSweepValues || plotted > MaxFileSweepPlotted {
+			t.Fatalf("the file's sweeps evaluated %d points, %d values and %d plotted values", points, values, plotted)
 		}
 	})
 }
