@@ -309,3 +309,22 @@ func TestSweepPlotManyNames(t *testing.T) {
 		t.Errorf("eight names: %s", got)
 	}
 }
+
+// TestSweepVariesDataValue: a value read from a data file is not written
+// out on its line; varying it is the error of a computed name, which says
+// how to write it out.
+func TestSweepVariesDataValue(t *testing.T) {
+	dir := writeTree(t, map[string]string{
+		"d.yaml":    "m_out: 14 kg/s\n",
+		"c.calc.md": "```calc\nd = yaml(\"d.yaml\")\nm_out = d.m_out\nQ = m_out * 4.2 kJ/(kg*K) * 10 K\n```\n```sweep\nvary m_out from 10 kg/s to 20 kg/s in 2 steps\nshow Q\n```\n",
+	})
+	d, err := ReadFile(filepath.Join(dir, "c.calc.md"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got := d.Errors.Format("c.calc.md", d.Src)
+	want := "c.calc.md:7:6: vary m_out: m_out is computed on line 3 (m_out = d.m_out) and reads no input; a sweep varies an input, a name whose line is a value written out, such as m_out = "
+	if !strings.Contains(got, want) {
+		t.Errorf("got %s\nwant %s", got, want)
+	}
+}
