@@ -1,6 +1,8 @@
 package calcdoc
 
 import (
+	"errors"
+	"fmt"
 	"strconv"
 	"strings"
 
@@ -35,6 +37,7 @@ type Sweep struct {
 	Failed [][]int            // lines of the checks that fail at each point
 	SVGs   [][]byte           // the plots
 	block  int
+	vary   int // offset of the vary line; -1 until the block has one
 }
 
 // SweepColumn is one shown result.
@@ -51,13 +54,16 @@ const MaxSweepPoints = 100000
 // readSweep parses a sweep block's lines.
 func (d *Doc) readSweep(b *gast.FencedCodeBlock) {
 	d.checkClosed(b)
-	sw := &Sweep{Off: b.Info.Segment.Start, Line: d.lines.pos(d.Src, b.Info.Segment.Start).Line, block: len(d.Sweeps)}
+	sw := &Sweep{Off: b.Info.Segment.Start, Line: d.lines.pos(d.Src, b.Info.Segment.Start).Line, block: len(d.Sweeps), vary: -1}
 	for _, l := range d.directives(b) {
 		d.sweepLine(sw, l.text, l.off)
 	}
-	if sw.Var == "" {
+	if sw.vary < 0 {
 		d.errorf(sw.Off, "a sweep block needs a line: vary NAME from A to B in N steps, or vary NAME over [A, B]")
 		return
+	}
+	if sw.Var == "" {
+		return // the vary line has its error
 	}
 	if len(sw.Show) == 0 && len(sw.plots) == 0 {
 		d.errorf(sw.Off, "a sweep block needs a line: show NAME, ... or plot NAME")
@@ -67,15 +73,26 @@ func (d *Doc) readSweep(b *gast.FencedCodeBlock) {
 }
 
 func (d *Doc) sweepLine(sw *Sweep, code string, off int) {
-	word, rest, _ := strings.Cut(code, " ")
-	restOff := off + len(word) + 1
+	word, rest, spaced := strings.Cut(code, " ")
+	restOff := off + len(word)
+	if spaced {
+		restOff++
+	}
 	switch word {
 	case "vary":
+		if sw.vary >= 0 {
+			d.errorf(off, "a sweep varies one input, and this one has a vary line on line %d; write a second sweep block to vary another", d.lines.pos(d.Src, sw.vary).Line)
+			return
+		}
+		sw.vary = off
 		d.sweepVary(sw, rest, restOff)
 	case "show":
 		d.sweepShow(sw, rest, restOff)
 	case "plot":
 		pl, msg := readPlotLine(rest, restOff)
+		if msg == "" && len(sw.plots) == MaxSweepPlots {
+			msg = fmt.Sprintf("plot: a sweep draws at most %d plots; write a second sweep block for more", MaxSweepPlots)
+		}
 		if msg != "" {
 			d.errorf(restOff, "%s", msg)
 			return
@@ -88,42 +105,83 @@ func (d *Doc) sweepLine(sw *Sweep, code string, off int) {
 
 // sweepVary reads "NAME from A to B in N steps" or "NAME over [A, B, C]".
 func (d *Doc) sweepVary(sw *Sweep, s string, off int) {
+	trimmed := strings.TrimLeft(s, " \t")
+	s, off = trimmed, off+len(s)-len(trimmed)
 	name, rest, _ := strings.Cut(s, " ")
+	if name == "" {
+		d.errorf(off, "write: vary NAME from A to B in N steps, or vary NAME over [A, B, C]")
+		return
+	}
 	sw.Var, sw.VarOff = name, off
 	rest = strings.TrimSpace(rest)
 	restOff := off + strings.Index(s, rest)
 	if strings.HasPrefix(rest, "over ") {
-		list := strings.TrimSpace(rest[5:])
-		lo := restOff + strings.Index(rest, list)
-		if !strings.HasPrefix(list, "[") || !strings.HasSuffix(list, "]") {
-			d.errorf(lo, "write the values in brackets: vary %s over [A, B, C]", name)
-			return
-		}
-		values := splitList(list[1:len(list)-1], lo+1)
-		if len(values) == 0 {
-			d.errorf(lo, "vary %s over [...] needs at least one value", name)
-		}
-		for _, f := range values {
-			d.addBound(sw, f.text, f.off)
-		}
+		d.sweepList(sw, rest, restOff)
 		return
 	}
 	from, ok1 := cutWord2(rest, "from ")
 	a, after, ok2 := strings.Cut(from, " to ")
 	b, n, ok3 := strings.Cut(after, " in ")
-	n = strings.TrimSuffix(strings.TrimSpace(n), " steps")
-	steps, err := strconv.Atoi(strings.TrimSuffix(n, " step"))
-	if ok1 && ok2 && ok3 && err == nil && steps < 1 {
-		d.errorf(restOff, "vary %s: %d steps; a sweep from A to B needs at least 1 step (N steps give N+1 points)", name, steps)
+	if !ok1 || !ok2 || !ok3 {
+		d.errorf(restOff, "write: vary %s from A to B in N steps (N a whole number of intervals), or vary %s over [A, B, C]", name, name)
 		return
 	}
-	if !ok1 || !ok2 || !ok3 || err != nil {
-		d.errorf(restOff, "write: vary %s from A to B in N steps (N a whole number of intervals), or vary %s over [A, B, C]", name, name)
+	nOff := restOff + len("from ") + len(a) + len(" to ") + len(b) + len(" in ")
+	nOff += len(n) - len(strings.TrimLeft(n, " "))
+	steps, ok := d.stepCount(name, n, nOff)
+	if !ok {
 		return
 	}
 	sw.steps = steps
 	d.addBound(sw, a, restOff+len("from "))
 	d.addBound(sw, b, restOff+len("from ")+len(a)+len(" to "))
+}
+
+// stepCount reads the N of "in N steps": a whole number from 1 to
+// MaxSweepPoints-1, each other case an error at N.
+func (d *Doc) stepCount(name, text string, off int) (int, bool) {
+	n, unit, _ := strings.Cut(strings.TrimSpace(text), " ")
+	if unit != "steps" && unit != "step" && unit != "" {
+		d.errorf(off, "write: vary %s from A to B in N steps (N a whole number of intervals), or vary %s over [A, B, C]", name, name)
+		return 0, false
+	}
+	steps, err := strconv.Atoi(n)
+	switch {
+	case err != nil && errors.Is(err, strconv.ErrRange) && !strings.HasPrefix(n, "-"),
+		err == nil && steps > MaxSweepPoints-1:
+		d.errorf(off, "vary %s: %s steps are more than the %d a sweep may have (%d points)", name, n, MaxSweepPoints-1, MaxSweepPoints)
+	case err != nil:
+		d.errorf(off, "vary %s: %q steps; N is a whole number of intervals, from 1 to %d", name, n, MaxSweepPoints-1)
+	case steps < 1:
+		d.errorf(off, "vary %s: %d steps; a sweep from A to B needs at least 1 step (N steps give N+1 points)", name, steps)
+	default:
+		return steps, true
+	}
+	return 0, false
+}
+
+// sweepList reads "over [A, B, C]"; it counts the values before it parses
+// any, so a list longer than a sweep may be costs nothing.
+func (d *Doc) sweepList(sw *Sweep, rest string, restOff int) {
+	name := sw.Var
+	list := strings.TrimSpace(rest[5:])
+	lo := restOff + strings.Index(rest, list)
+	if !strings.HasPrefix(list, "[") || !strings.HasSuffix(list, "]") {
+		d.errorf(lo, "write the values in brackets: vary %s over [A, B, C]", name)
+		return
+	}
+	values := splitList(list[1:len(list)-1], lo+1)
+	if len(values) == 0 {
+		d.errorf(lo, "vary %s over [...] needs at least one value", name)
+		return
+	}
+	if len(values) > MaxSweepPoints {
+		d.errorf(lo, "vary %s over [...]: %d values are more than the %d a sweep may have", name, len(values), MaxSweepPoints)
+		return
+	}
+	for _, f := range values {
+		d.addBound(sw, f.text, f.off)
+	}
 }
 
 func cutWord2(s, w string) (string, bool) {

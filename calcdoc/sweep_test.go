@@ -72,7 +72,7 @@ func TestSweepErrors(t *testing.T) {
 	cases := map[string]string{
 		"vary q from 1 to 2 in 2 steps\nshow w":           "vary q: the calc does not define q",
 		"vary p_1 from 1 to 2 in 2 steps\nshow w":         "vary p_1: 1 is dimensionless, but p_1 is pressure",
-		"vary p_1 from 1 MPa to 2 MPa in x steps\nshow w": "write: vary p_1 from A to B in N steps (N a whole number of intervals), or vary p_1 over [A, B, C]",
+		"vary p_1 from 1 MPa to 2 MPa in x steps\nshow w": "vary p_1: \"x\" steps; N is a whole number of intervals, from 1 to 99999",
 		"vary p_1 over [1 MPa, 2 MPa]\nshow zz":           "show zz: the calc does not define zz",
 		"vary p_1 over [1 MPa]":                           "a sweep block needs a line: show NAME, ... or plot NAME",
 		"vary p_1 over []\nshow w":                        "vary p_1 over [...] needs at least one value",

@@ -17,6 +17,14 @@ type sweepPlot struct {
 	off   int
 }
 
+// Bounds on a sweep's plots, so that a short line cannot ask for a
+// drawing that takes minutes: names on one plot line, plot lines in one
+// sweep.
+const (
+	MaxPlotNames  = 8
+	MaxSweepPlots = 16
+)
+
 // readPlotLine parses the rest of a plot line: NAME, ... [limit NAME].
 func readPlotLine(rest string, off int) (sweepPlot, string) {
 	pl := sweepPlot{off: off}
@@ -24,6 +32,9 @@ func readPlotLine(rest string, off int) (sweepPlot, string) {
 	pl.names = splitList(list, off)
 	if len(pl.names) == 0 {
 		return pl, "write: plot NAME, ... or plot NAME limit LIMIT_NAME"
+	}
+	if len(pl.names) > MaxPlotNames {
+		return pl, fmt.Sprintf("plot: %d names on one plot line; a plot shows at most %d, so write a second plot line", len(pl.names), MaxPlotNames)
 	}
 	if hasLimit {
 		name := strings.TrimSpace(lim)
@@ -135,6 +146,11 @@ func (d *Doc) plotLimit(p *svgplot.Plot, sw *Sweep, lim field, yu units.Unit) *p
 	o, ok := d.outcomeOf(lim.text)
 	if !ok {
 		return &plotError{lim.off, fmt.Sprintf("plot limit %s: the calc does not define %s", lim.text, lim.text)}
+	}
+	if lim.text == sw.Var || d.planSweep(sw.Var).redo[lim.text] {
+		first := p.Series[0].Name
+		return &plotError{lim.off, fmt.Sprintf("plot %s limit %s: %s depends on %s, so it changes along the sweep and is not one line; show %s and plot it with %s: plot %s, %s",
+			first, lim.text, lim.text, sw.Var, lim.text, first, first, lim.text)}
 	}
 	q, isQ := o.Value.(units.Quantity)
 	first := p.Series[0]

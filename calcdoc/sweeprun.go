@@ -7,8 +7,9 @@ import (
 
 // runSweeps evaluates every sweep after the main pass.
 func (d *Doc) runSweeps(eng *eval.Engine) {
+	var budget sweepBudget
 	for _, sw := range d.Sweeps {
-		d.runSweep(eng, sw)
+		d.runSweep(eng, sw, &budget)
 		switch {
 		case sw.Texts != nil && len(sw.plots) > 0:
 			d.errorf(sw.plots[0].off, "plot %s: a sweep over text values is shown as a table only", sw.plots[0].names[0].text)
@@ -16,25 +17,6 @@ func (d *Doc) runSweeps(eng *eval.Engine) {
 			d.sweepPlots(sw)
 		}
 	}
-}
-
-// sweepPlan is what a sweep re-evaluates: the lines that depend on the
-// varied input, in file order.
-func (d *Doc) sweepPlan(v string) (redo map[string]bool, items []*Item) {
-	redo = map[string]bool{v: true}
-	for _, it := range d.Items {
-		if it.Inline || it.Err || it.Outcome == nil {
-			continue
-		}
-		if !readsAny(it.Stmt.Deps(), redo) {
-			continue
-		}
-		if it.Stmt.Kind == eval.Def {
-			redo[it.Stmt.Name] = true
-		}
-		items = append(items, it)
-	}
-	return redo, items
 }
 
 func readsAny(deps []string, set map[string]bool) bool {
@@ -46,14 +28,21 @@ func readsAny(deps []string, set map[string]bool) bool {
 	return false
 }
 
-func (d *Doc) runSweep(eng *eval.Engine, sw *Sweep) {
+func (d *Doc) runSweep(eng *eval.Engine, sw *Sweep, budget *sweepBudget) {
 	input := d.itemOf(sw.Var)
 	if input == nil {
 		d.errorf(sw.VarOff, "vary %s: the calc does not define %s", sw.Var, sw.Var)
 		return
 	}
+	if !d.checkInput(sw, input) {
+		return
+	}
+	plan := d.planSweep(sw.Var)
+	if !d.admit(budget, sw, plan) {
+		return
+	}
 	if _, isText := input.Outcome.Value.(string); isText {
-		d.runTextSweep(eng, sw)
+		d.runTextSweep(eng, sw, plan)
 		return
 	}
 	xs, ok := d.sweepValues(eng, sw, input)
@@ -68,7 +57,7 @@ func (d *Doc) runSweep(eng *eval.Engine, sw *Sweep) {
 	for i, x := range xs {
 		vals[i] = x
 	}
-	d.sweepPoints(eng, sw, vals)
+	d.sweepPoints(eng, sw, plan, vals)
 }
 
 // showDefined reports whether every shown name is defined.
@@ -82,22 +71,9 @@ func (d *Doc) showDefined(eng *eval.Engine, sw *Sweep) bool {
 	return true
 }
 
-// sweepPoints evaluates every point of a sweep.
-func (d *Doc) sweepPoints(eng *eval.Engine, sw *Sweep, vals []any) {
-	redo, items := d.sweepPlan(sw.Var)
-	for i, x := range vals {
-		if !d.sweepPoint(eng, sw, redo, items, x, i) {
-			return
-		}
-		if d.Progress != nil {
-			d.Progress(sw.Var, i+1, len(vals))
-		}
-	}
-}
-
 // runTextSweep varies a text input, such as the working fluid, over a list:
 // vary wf over ["isopentane", "R-245fa"].
-func (d *Doc) runTextSweep(eng *eval.Engine, sw *Sweep) {
+func (d *Doc) runTextSweep(eng *eval.Engine, sw *Sweep, plan sweepPlan) {
 	if sw.steps != 0 {
 		d.errorf(sw.VarOff, "vary %s: %s is text; list its values: vary %s over [\"A\", \"B\"]", sw.Var, sw.Var, sw.Var)
 		return
@@ -120,7 +96,7 @@ func (d *Doc) runTextSweep(eng *eval.Engine, sw *Sweep) {
 	if !d.showDefined(eng, sw) {
 		return
 	}
-	d.sweepPoints(eng, sw, vals)
+	d.sweepPoints(eng, sw, plan, vals)
 }
 
 // sweepValues evaluates the bounds or the listed values.
@@ -147,20 +123,50 @@ func (d *Doc) sweepValues(eng *eval.Engine, sw *Sweep, input *Item) ([]units.Qua
 	if sw.steps == 0 {
 		return qs, len(qs) > 0
 	}
-	limit := MaxSweepPoints
-	if d.SweepLimit > 0 {
-		limit = d.SweepLimit
-	}
-	if sw.steps+1 > limit {
-		d.errorf(sw.VarOff, "vary %s: %d steps are more than the %d a sweep may have", sw.Var, sw.steps, limit-1)
+	tk, pk, ok := endKinds(qs[0], qs[1])
+	if !ok {
+		b := sw.bounds[1]
+		d.errorf(b.ExprOff, "vary %s: %s is %s but %s is %s; write both ends as readings or both as differences",
+			sw.Var, sw.bounds[0].Expr, kindOfReading(qs[0]), b.Expr, kindOfReading(qs[1]))
 		return nil, false
 	}
 	out := make([]units.Quantity, sw.steps+1)
 	for i := range out {
 		t := float64(i) / float64(sw.steps)
-		out[i] = units.Quantity{V: qs[0].V + float64(t*(qs[1].V-qs[0].V)), D: base.D, T: qs[0].T, P: qs[0].P}
+		out[i] = units.Quantity{V: qs[0].V + float64(t*(qs[1].V-qs[0].V)), D: base.D, T: tk, P: pk}
 	}
 	return out, true
+}
+
+// endKinds is the kind of the values between two ends of a sweep: an
+// absolute temperature or gauge pressure when either end is one, a
+// difference when either end is one, else kelvin-scale or absolute
+// pressure; an absolute end and a difference end do not go together.
+func endKinds(a, b units.Quantity) (units.Temp, units.Press, bool) {
+	t, p := a.T, a.P
+	if t == units.Scale {
+		t = b.T
+	}
+	if p == units.AnyP {
+		p = b.P
+	}
+	ok := (a.T == b.T || a.T == units.Scale || b.T == units.Scale) && (a.P == b.P || a.P == units.AnyP || b.P == units.AnyP)
+	return t, p, ok
+}
+
+// kindOfReading names a temperature's or pressure's kind for messages.
+func kindOfReading(q units.Quantity) string {
+	switch {
+	case q.D == units.DimTemperature && q.T == units.Abs:
+		return "an absolute temperature"
+	case q.D == units.DimTemperature && q.T == units.Rel:
+		return "a temperature difference"
+	case q.D == units.DimPressure && q.P == units.GaugeP:
+		return "a gauge pressure"
+	case q.D == units.DimPressure && q.P == units.DiffP:
+		return "a difference of gauge pressures"
+	}
+	return "a reading"
 }
 
 func kindName(v any) string {
@@ -168,42 +174,6 @@ func kindName(v any) string {
 		return q.D.Name()
 	}
 	return "not a quantity"
-}
-
-// sweepPoint re-evaluates the dependent lines at one value of the input.
-func (d *Doc) sweepPoint(eng *eval.Engine, sw *Sweep, redo map[string]bool, items []*Item, x any, i int) bool {
-	f := eng.Fork(redo)
-	f.Set(sw.Var, x)
-	var failed []int
-	for _, it := range items {
-		out, err := f.Exec(it.Stmt)
-		if err != nil {
-			d.errorf(sw.VarOff, "sweep point %s = %s: line %d: %s", sw.Var, d.SweepX(sw, i), it.Stmt.Line, evalMsg(err))
-			return false
-		}
-		if it.Stmt.Kind == eval.Check && !out.Pass {
-			failed = append(failed, it.Stmt.Line)
-		}
-	}
-	row := make([]units.Quantity, len(sw.Show))
-	for i, c := range sw.Show {
-		v, _ := f.Value(c.Name)
-		q, ok := v.(units.Quantity)
-		if !ok {
-			d.errorf(c.Off, "show %s: %s is not a number or quantity", c.Name, c.Name)
-			return false
-		}
-		if c.HasUnit {
-			if _, err := q.In(c.Unit, d.Front.Ctx); err != nil {
-				d.errorf(c.Off, "show %s [%s]: %v", c.Name, c.Unit, err)
-				return false
-			}
-		}
-		row[i] = q
-	}
-	sw.Rows = append(sw.Rows, row)
-	sw.Failed = append(sw.Failed, failed)
-	return true
 }
 
 // ColumnUnit is the unit a sweep column is shown in: its [UNIT], else the

@@ -50,6 +50,7 @@ type Engine struct {
 	slots []slot
 	args  []any     // the argument stack of function calls (resolve.go)
 	outs  []Outcome // room for the next outcomes (newOutcome)
+	made  int       // outcomes made since the last Refork
 }
 
 // NewEngine returns an engine with nothing defined.

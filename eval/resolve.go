@@ -144,13 +144,14 @@ func oneSource(src string) []string {
 
 // newOutcome returns a fresh outcome for s, cut from a chunk of sixteen: a
 // sweep point's lines then share one allocation. An outcome handed out is
-// never reused; it keeps its chunk alive.
+// never reused, except by Refork; it keeps its chunk alive.
 func (e *Engine) newOutcome(s *Stmt) *Outcome {
 	if len(e.outs) == cap(e.outs) {
 		e.outs = make([]Outcome, 0, 16)
 	}
 	e.outs = e.outs[:len(e.outs)+1]
+	e.made++
 	out := &e.outs[len(e.outs)-1]
-	out.Stmt = s
+	*out = Outcome{Stmt: s} // a chunk Refork reuses holds old outcomes
 	return out
 }

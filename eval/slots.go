@@ -85,23 +85,50 @@ func (e *Engine) Value(name string) (any, bool) {
 // goroutines may fork one engine at once, each running its own fork.
 func (e *Engine) Fork(redo map[string]bool) *Engine {
 	f := &Engine{Ctx: e.Ctx, Data: e.Data, YAML: e.YAML, names: e.names}
-	e.names.shared.Store(true) // whichever engine adds a name next clones the table
-	f.slots = make([]slot, len(e.slots))
 	f.args = make([]any, 0, 8)
-	copy(f.slots, e.slots) // one bulk copy; then keep only what has a value
-	for i := range f.slots {
-		if s := &f.slots[i]; !s.has {
+	f.slots = e.forkSlots(make([]slot, len(e.slots)), redo)
+	return f
+}
+
+// Refork makes f start again from the values of e, as e.Fork(redo) would,
+// reusing f's memory, so that a sweep runs every point of one worker on
+// one engine. f keeps its Data and YAML readers. The outcomes f returned
+// before are overwritten: keep none of them across a Refork. e is only
+// read, so several goroutines may refork their own engines from one e.
+func (f *Engine) Refork(e *Engine, redo map[string]bool) {
+	f.Ctx, f.names = e.Ctx, e.names
+	if cap(f.slots) < len(e.slots) {
+		f.slots = make([]slot, len(e.slots))
+	}
+	f.slots = e.forkSlots(f.slots[:len(e.slots)], redo)
+	clear(f.args)
+	f.args = f.args[:0]
+	if cap(f.outs) < f.made {
+		f.outs = make([]Outcome, 0, f.made) // one chunk holds a point's outcomes from now on
+	}
+	f.outs, f.made = f.outs[:0], 0
+}
+
+// forkSlots copies e's slots into dst as a fork starts with them: the
+// values kept, the names in redo left undefined.
+func (e *Engine) forkSlots(dst []slot, redo map[string]bool) []slot {
+	if !e.names.shared.Load() {
+		e.names.shared.Store(true) // whichever engine adds a name next clones the table
+	}
+	copy(dst, e.slots) // one bulk copy; then keep only what has a value
+	for i := range dst {
+		if s := &dst[i]; !s.has {
 			*s = slot{}
 		} else {
 			s.defined, s.failed = true, false
 		}
 	}
 	for n := range redo {
-		if s := f.lookup(n); s != nil {
-			*s = slot{}
+		if i, ok := e.names.index[n]; ok && i < len(dst) {
+			dst[i] = slot{}
 		}
 	}
-	return f
+	return dst
 }
 
 // Set defines a name directly, as a sweep does for its varied input.

@@ -320,3 +320,25 @@ func (s *Stmt) IsPlainNumber() bool {
 
 // HasDisplayUnit reports whether the line names a display unit.
 func (s *Stmt) HasDisplayUnit() bool { return s.hasUnit }
+
+// IsGivenValue reports whether the expression is a value written out, the
+// kind of line a sweep may vary: a number or a unit literal, either of them
+// possibly negated (-5, -5 degC, -(12 MPa)), or a text in quotes. Anything
+// else — a name, a call, arithmetic — is computed.
+func (s *Stmt) IsGivenValue() bool {
+	n := s.tree
+	if u, ok := n.(*ast.UnaryNode); ok && (u.Operator == "-" || u.Operator == "+") {
+		n = u.Node
+		if _, isText := n.(*ast.StringNode); isText {
+			return false
+		}
+	}
+	switch v := n.(type) {
+	case *ast.IntegerNode, *ast.FloatNode, *ast.StringNode:
+		return true
+	case *ast.IdentifierNode:
+		_, lit := s.Literal(v.Value)
+		return lit
+	}
+	return false
+}
