@@ -2,6 +2,7 @@ package calcdoc
 
 import (
 	"path/filepath"
+	"sort"
 	"strconv"
 	"strings"
 
@@ -75,6 +76,8 @@ func (d *Doc) Manifest(engine string) (*provenance.Manifest, error) {
 		Data:               d.manifestData(),
 		Results:            d.manifestResults(),
 		Signatures:         []provenance.Signature{},
+		Uses:               d.Uses(),
+		Revision:           d.Front.Revision,
 	}
 	digest, err := provenance.ResultsDigest(m.Results)
 	if err != nil {
@@ -111,6 +114,29 @@ func (d *Doc) formulationNames() []string {
 			}
 		}
 	}
+	return out
+}
+
+// Uses lists, sorted, the property functions the calc called (water,
+// water_sat, fluid, fluid_sat, fluid_crit), "fluid:NAME" for each fluid it
+// named, and "sweep" when it has a sweep: what an erratum is matched
+// against.
+func (d *Doc) Uses() []string {
+	var out []string
+	for _, it := range d.Items {
+		if it.Outcome == nil {
+			continue
+		}
+		for _, u := range it.Outcome.Uses {
+			if !contains(out, u) {
+				out = append(out, u)
+			}
+		}
+	}
+	if len(d.Sweeps) > 0 {
+		out = append(out, "sweep")
+	}
+	sort.Strings(out)
 	return out
 }
 

@@ -28,6 +28,7 @@ type Outcome struct {
 	Pass    bool             // a check's result
 	Skipped bool             // not evaluated because a name it reads failed
 	Sources []string         // formulations of the property calls the line makes (shared: read only)
+	Uses    []string         // property functions the line calls, and "fluid:NAME" for each fluid named
 	Solve   *Solution        // how solve found the value, for NAME = solve(...)
 	Interps []*Interpolation // the rows each interp call of the line used, in order
 	// Written is the value as a data file writes it, for a line that is
@@ -85,7 +86,7 @@ func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
 		e.markFailed(s)
 		return nil, err
 	}
-	out.Sources, out.Solve, out.Interps = sc.sources, sc.solution, sc.interps
+	out.Sources, out.Solve, out.Interps, out.Uses = sc.sources, sc.solution, sc.interps, sc.uses
 	out.Written, out.WrittenIn = "", sc.wfrom
 	if !s.hasUnit {
 		out.Written = sc.wtext

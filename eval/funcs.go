@@ -3,6 +3,7 @@ package eval
 import (
 	"math"
 	"sort"
+	"strings"
 
 	"github.com/expr-lang/expr/ast"
 
@@ -201,6 +202,9 @@ func (c *scope) call(v *ast.CallNode) (any, *Error) {
 	} else {
 		out, ferr = f.Call(args)
 	}
+	if ferr == nil && propertyFuncs[f.Name] {
+		c.use(f.Name, args)
+	}
 	c.e.popArgs(base)
 	if ferr != nil {
 		return nil, c.errAt(v, "%s", ferr.Error())
@@ -210,6 +214,29 @@ func (c *scope) call(v *ast.CallNode) (any, *Error) {
 		return nil, c.errAt(v, "%s gives no finite result here", f.Name)
 	}
 	return out, nil
+}
+
+// propertyFuncs are the property functions whose use a manifest records.
+var propertyFuncs = map[string]bool{"water": true, "water_sat": true, "fluid": true, "fluid_sat": true, "fluid_crit": true}
+
+// use records that the statement called a property function, and for the
+// fluid functions which fluid, as "fluid:NAME" (lower case).
+func (c *scope) use(name string, args []any) {
+	c.addUse(name)
+	if strings.HasPrefix(name, "fluid") && len(args) > 0 {
+		if fl, ok := args[0].(string); ok {
+			c.addUse("fluid:" + strings.ToLower(strings.TrimSpace(fl)))
+		}
+	}
+}
+
+func (c *scope) addUse(u string) {
+	for _, x := range c.uses {
+		if x == u {
+			return
+		}
+	}
+	c.uses = append(c.uses, u)
 }
 
 func argCount(f *Func) string {

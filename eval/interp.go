@@ -28,6 +28,7 @@ type scope struct {
 	e        *Engine
 	s        *Stmt
 	sources  []string         // formulations of the property calls, in order
+	uses     []string         // property functions and fluids called, in order
 	solution *Solution        // set by solve
 	interps  []*Interpolation // the interp calls, in order
 	res      *resolution      // the statement's slot numbers; nil: look names up by text

@@ -222,6 +222,11 @@ func manifestDiffs(a, b *provenance.Manifest, la, lb string) []string {
 		{"results_digest", a.ResultsDigest, b.ResultsDigest},
 		{"signers_file", a.SignersFile, b.SignersFile},
 		{"signers_hash", a.SignersHash, b.SignersHash},
+		{"engine_build", buildText(a.Build), buildText(b.Build)},
+		{"qualification_sha256", a.Qualification, b.Qualification},
+		{"uses", strings.Join(a.Uses, ", "), strings.Join(b.Uses, ", ")},
+		{"revision", a.Revision, b.Revision},
+		{"draft", strconv.FormatBool(a.Draft), strconv.FormatBool(b.Draft)},
 	}
 	var out []string
 	for _, f := range fields {
@@ -230,6 +235,14 @@ func manifestDiffs(a, b *provenance.Manifest, la, lb string) []string {
 		}
 	}
 	return out
+}
+
+// buildText describes an engine build, or says that none is recorded.
+func buildText(b *provenance.EngineBuild) string {
+	if b == nil {
+		return "none recorded"
+	}
+	return b.String()
 }
 
 func dataText(files []provenance.DataFile) string {

@@ -35,6 +35,45 @@ type Manifest struct {
 	// them only when set.
 	SignersFile string `json:"signers_file,omitempty"`
 	SignersHash string `json:"signers_hash,omitempty"`
+
+	// The fields below are optional: a manifest written before they
+	// existed has none of them, and Canonical leaves out the ones that are
+	// empty, so such a manifest keeps its digest and its signatures.
+
+	Build         *EngineBuild `json:"engine_build,omitempty"`         // the engine build that evaluated the calc
+	Qualification string       `json:"qualification_sha256,omitempty"` // digest of that build's vouch qualify report
+	Uses          []string     `json:"uses,omitempty"`                 // property functions, fluids and features the calc used
+	Revision      string       `json:"revision,omitempty"`             // the calc's revision letter (front matter)
+	Draft         bool         `json:"draft,omitempty"`                // rendered with --draft: never to be signed
+}
+
+// EngineBuild identifies the engine build that evaluated a calc: its
+// release, the VCS revision it was built from and whether that tree had
+// changes (empty and false when the build carries no VCS information),
+// the Go version and the target OS and architecture.
+type EngineBuild struct {
+	Version   string `json:"version"`
+	Revision  string `json:"vcs_revision"`
+	Modified  bool   `json:"vcs_modified"`
+	GoVersion string `json:"go_version"`
+	OS        string `json:"os"`
+	Arch      string `json:"arch"`
+}
+
+// String describes the build in one line, such as
+// "vouch 0.1.0, revision 0123456789ab (modified), go1.24.1, linux/amd64".
+func (b EngineBuild) String() string {
+	rev := "no VCS revision recorded"
+	if b.Revision != "" {
+		rev = "revision " + b.Revision
+		if len(b.Revision) > 12 {
+			rev = "revision " + b.Revision[:12]
+		}
+		if b.Modified {
+			rev += " (modified)"
+		}
+	}
+	return fmt.Sprintf("vouch %s, %s, %s, %s/%s", b.Version, rev, b.GoVersion, b.OS, b.Arch)
 }
 
 // DataFile is a data file a calculation read.
@@ -253,7 +292,34 @@ func (m *Manifest) object(withSignatures bool) jsonObject {
 	if m.SignersFile != "" || m.SignersHash != "" {
 		o["signers_file"], o["signers_hash"] = m.SignersFile, m.SignersHash
 	}
+	m.addOptional(o)
 	return o
+}
+
+// addOptional adds the optional keys that are set.
+func (m *Manifest) addOptional(o jsonObject) {
+	if b := m.Build; b != nil {
+		o["engine_build"] = jsonObject{
+			"version": b.Version, "vcs_revision": b.Revision, "vcs_modified": b.Modified,
+			"go_version": b.GoVersion, "os": b.OS, "arch": b.Arch,
+		}
+	}
+	if m.Qualification != "" {
+		o["qualification_sha256"] = m.Qualification
+	}
+	if len(m.Uses) > 0 {
+		a := make([]any, len(m.Uses))
+		for i, u := range m.Uses {
+			a[i] = u
+		}
+		o["uses"] = a
+	}
+	if m.Revision != "" {
+		o["revision"] = m.Revision
+	}
+	if m.Draft {
+		o["draft"] = true
+	}
 }
 
 func dataArray(files []DataFile) []any {

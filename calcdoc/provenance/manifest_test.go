@@ -366,3 +366,42 @@ func ExampleManifest_Canonical() {
 	// Output:
 	// {"clean":false,"commit":"","data":[],"engine":"vouch 0.1.0","format":"vouch-manifest/1","formulation":"IAPWS-IF97","formulation_version":"","results":[{"name":"W_net","si":2.5e+08,"unit":"m^2*kg*s^-3"}],"results_digest":"","signatures":[],"source":"calcs/hb-002.calc.md","source_hash":""}
 }
+
+// TestManifestOptionalFields: the engine build, qualification, uses,
+// revision and draft flag are written, read back and covered by the
+// digest, and a manifest without them keeps the digest it had before they
+// existed (its keys are exactly the old ones).
+func TestManifestOptionalFields(t *testing.T) {
+	m := &Manifest{Engine: "vouch 0.1.0", Source: "a.calc.md", Signatures: []Signature{}}
+	old, err := m.Canonical()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, key := range []string{"engine_build", "qualification_sha256", "uses", "revision", "draft"} {
+		if strings.Contains(string(old), key) {
+			t.Errorf("a manifest without %s writes the key", key)
+		}
+	}
+	d0, _ := m.Digest()
+	m.Build = &EngineBuild{Version: "0.1.0", Revision: "abc", Modified: true, GoVersion: "go1.0", OS: "plan9", Arch: "arm64"}
+	m.Qualification, m.Uses, m.Revision, m.Draft = "ff00", []string{"fluid:isopentane", "water"}, "B", true
+	d1, _ := m.Digest()
+	if d0 == d1 {
+		t.Fatal("the optional fields are not covered by the digest")
+	}
+	b, err := m.Canonical()
+	if err != nil {
+		t.Fatal(err)
+	}
+	back, err := ParseManifest(b)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if d2, _ := back.Digest(); d2 != d1 || *back.Build != *m.Build || back.Revision != "B" || !back.Draft || len(back.Uses) != 2 {
+		t.Errorf("read back %+v, want %+v", back, m)
+	}
+	bad := strings.Replace(string(b), `"arch":"arm64"`, `"arch":"arm64","cpu":"x"`, 1)
+	if _, err := ParseManifest([]byte(bad)); err == nil {
+		t.Error("an unknown key in engine_build is accepted")
+	}
+}
