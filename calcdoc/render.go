@@ -28,6 +28,17 @@ type RenderOptions struct {
 	// built by the caller (audit.Provenance for a calc in git). When nil,
 	// the package is unversioned (Doc.Unversioned).
 	Stamp *Stamp
+	// Build is the engine build rendering a new package, and Qualification
+	// the digest of the qualification report that build produces (vouch
+	// qualify); the caller computes both (qualify sits above calcdoc).
+	// When Build is set, the manifest records both. A package rendered
+	// again from its record (verify, sign) leaves Build nil and keeps the
+	// recorded ones.
+	Build         *provenance.EngineBuild
+	Qualification string
+	// Draft marks a package rendered with --draft: the cover says DRAFT
+	// and the manifest records it, so that it can never be signed.
+	Draft bool
 }
 
 // Package is a rendered calculation package: the HTML file and the
@@ -141,6 +152,13 @@ func (d *Doc) Render(opt RenderOptions) (*Package, error) {
 		if st, err = d.Unversioned(opt.Engine); err != nil {
 			return nil, err
 		}
+	}
+	if opt.Build != nil {
+		b := *opt.Build
+		st.Manifest.Build, st.Manifest.Qualification = &b, opt.Qualification
+	}
+	if opt.Draft {
+		st.Manifest.Draft = true
 	}
 	v := d.view(opt)
 	if err := v.setStamp(d, st); err != nil {

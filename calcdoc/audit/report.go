@@ -44,7 +44,13 @@ type Report struct {
 	Date     string               // the commit's date
 	Signers  string               // the allowed-signers file, "" when none was given
 	Status   string               // the stamp reached by signatures that hold
-	Findings []Finding
+	// Different reports a package made by an engine build other than the
+	// verifying one.
+	Different bool
+	// Reproduction says how the results reproduced: ReproducedExact,
+	// ReproducedWithin or NotReproduced ("" when they were not compared).
+	Reproduction string
+	Findings     []Finding
 	// DesignChecks are the calc's own checks (check lines), as the
 	// reproduction evaluated them; nil until the results reproduce. They
 	// are not verification steps: a package whose design check fails may
@@ -124,6 +130,9 @@ func (r *Report) String() string {
 		fmt.Fprintf(&b, "  %-5s %-9s %s\n", f.Verdict, f.Topic, indentRest(f.Text, 18))
 	}
 	b.WriteString("\n")
+	if r.Reproduction != "" {
+		fmt.Fprintf(&b, "results:  %s\n", r.Reproduction)
+	}
 	if r.Status != "" {
 		fmt.Fprintf(&b, "status:   %s (from the signatures that hold)\n", r.Status)
 	}
@@ -162,6 +171,13 @@ func (r *Report) header(b *strings.Builder) {
 
 func (r *Report) result() string {
 	fails := r.Failures()
+	if len(fails) == 0 && r.Different {
+		within := "bit for bit"
+		if r.Reproduction == ReproducedWithin {
+			within = "within " + strconv.Itoa(MaxULPs) + " ulps"
+		}
+		return "VERIFIED by a different engine (results " + within + "): every verification step holds; verify with the recorded build for a byte-for-byte verdict on the package"
+	}
 	if len(fails) == 0 {
 		return "VERIFIED: every verification step holds"
 	}

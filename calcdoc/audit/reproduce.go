@@ -81,6 +81,9 @@ func reproduce(repo *provenance.Repo, m *provenance.Manifest, engine string) (*r
 		return nil, err
 	}
 	rm.Source, rm.SourceHash, rm.Commit, rm.Clean = m.Source, provenance.BlobHash(src), m.Commit, m.Clean
+	// Who made the package is as recorded; verify compares it with this
+	// engine apart (compareEngine, checkQualification).
+	rm.Engine, rm.Build, rm.Qualification, rm.Draft = m.Engine, m.Build, m.Qualification, m.Draft
 	rm.Signatures = append([]provenance.Signature{}, m.Signatures...)
 	tr, err := loadTrust(repo, m.Commit)
 	if err != nil {

@@ -88,6 +88,12 @@ func Sign(pkgPath string, opt SignOptions) (*Signed, *Report, error) {
 		return nil, nil, err
 	}
 	v.run()
+	if v.m != nil && v.m.Draft {
+		return nil, v.rep, fmt.Errorf("%w: the package was rendered with --draft, and a draft is never signed: render it again without --draft; not signed", ErrNotVerified)
+	}
+	if v.rep.Different {
+		return nil, v.rep, fmt.Errorf("%w: the package was made by %s, not by this engine build (%s): sign it with that build, or render it again with this one; not signed", ErrNotVerified, v.madeBy(), v.thisEngine())
+	}
 	if blocked(v.rep, opt.Role) || v.repro == nil {
 		return nil, v.rep, fmt.Errorf("%w; not signed", ErrNotVerified)
 	}

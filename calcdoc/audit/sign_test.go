@@ -271,8 +271,10 @@ func startAgent(t *testing.T) string {
 	return ""
 }
 
-// TestVerifyOtherEngine: a package made by another engine version does not
-// verify, and the report says which engine to verify it with.
+// TestVerifyOtherEngine: a package made by another engine version is
+// verified with the engines named first, its results compared, and the
+// result says that a different engine verified it; it is not signed by
+// that engine.
 func TestVerifyOtherEngine(t *testing.T) {
 	r := calcRepo(t)
 	pkg := renderFile(t, r.Path("calcs/fp.calc.md"))
@@ -280,11 +282,19 @@ func TestVerifyOtherEngine(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if rep.OK() {
-		t.Fatal("a package of another engine verified")
+	if !rep.OK() || !rep.Different || rep.Reproduction != ReproducedExact {
+		t.Fatalf("different %v, reproduction %q:\n%s", rep.Different, rep.Reproduction, rep)
 	}
-	if s := rep.String(); !strings.Contains(s, "the package was made by vouch test and this is vouch test-2") {
-		t.Errorf("the report does not name the engines:\n%s", s)
+	if f := rep.Findings[1]; f.Topic != "engine" || !strings.Contains(f.Text, "the package was made by vouch test (no build recorded), and this is vouch test-2") {
+		t.Errorf("the engines are not named first: %+v", f)
+	}
+	if s := rep.String(); !strings.Contains(s, "result:   VERIFIED by a different engine (results bit for bit)") {
+		t.Errorf("the result does not say a different engine verified it:\n%s", s)
+	}
+	k := newKey(t, "ed25519")
+	_, _, err = Sign(pkg, SignOptions{VerifyOptions: VerifyOptions{Engine: "test-2"}, Role: "preparer", Key: k.path})
+	if err == nil || !strings.Contains(err.Error(), "not by this engine build") {
+		t.Errorf("signed by another engine: %v", err)
 	}
 }
 

@@ -27,6 +27,11 @@ type Options struct {
 	Dir    string // the folder searched for calc files
 	Out    string // the output folder: packages, index.html and the cache
 	Engine string // the engine version; a new one renders everything again
+	// Build and Qualification are this engine's build and the digest of
+	// its qualification report, recorded in each package rendered and
+	// checked against each signed package; nil and "" when not known.
+	Build         *provenance.EngineBuild
+	Qualification string
 	// Shard and Shards split the calcs between CI runners: this run
 	// renders shard Shard (1-based) of Shards and writes no index; a later
 	// run without a shard over the merged output folders writes it. Zero
@@ -203,7 +208,16 @@ func (r *run) finish(i int, o outcome) {
 // calc again.
 func (o Options) cacheEngine() string {
 	if o.Read.SettingsSource == nil {
+		return o.engineKey()
+	}
+	return o.engineKey() + " settings " + provenance.BlobHash(o.Read.SettingsSource)
+}
+
+// engineKey names the engine for the render cache: its version, build and
+// qualification digest, so that another build renders everything again.
+func (o Options) engineKey() string {
+	if o.Build == nil {
 		return o.Engine
 	}
-	return o.Engine + " settings " + provenance.BlobHash(o.Read.SettingsSource)
+	return o.Engine + "\x00" + o.Build.String() + "\x00" + o.Qualification
 }

@@ -149,7 +149,7 @@ func (w *worker) renderDoc(d *calcdoc.Doc) ([]byte, error) {
 	if err != nil {
 		return nil, err
 	}
-	pkg, err := d.Render(calcdoc.RenderOptions{Engine: w.run.opt.Engine, Stamp: st})
+	pkg, err := d.Render(calcdoc.RenderOptions{Engine: w.run.opt.Engine, Stamp: st, Build: w.run.opt.Build, Qualification: w.run.opt.Qualification})
 	if err != nil {
 		return nil, err
 	}

@@ -62,7 +62,7 @@ func (w *worker) signedKey(html []byte, pkg string) string {
 	if w.run.opt.Signers != "" {
 		signers, _ = safefile.Read(w.run.opt.Signers, provenance.MaxKeyFileBytes)
 	}
-	for _, part := range [][]byte{[]byte(cacheFormat), []byte(w.run.opt.Engine), html, manifest, signers} {
+	for _, part := range [][]byte{[]byte(cacheFormat), []byte(w.run.opt.engineKey()), html, manifest, signers} {
 		sum := sha256.Sum256(part)
 		h.Write(sum[:])
 	}
@@ -72,7 +72,7 @@ func (w *worker) signedKey(html []byte, pkg string) string {
 // verify runs vouch verify on the package.
 func (w *worker) verify(pkg, key string) *Signed {
 	s := &Signed{Package: filepath.Base(pkg), Key: key, Status: "DRAFT"}
-	rep, err := audit.Verify(pkg, audit.VerifyOptions{Engine: w.run.opt.Engine, Signers: w.run.opt.Signers})
+	rep, err := audit.Verify(pkg, audit.VerifyOptions{Engine: w.run.opt.Engine, Signers: w.run.opt.Signers, Build: w.run.opt.Build, Qualification: w.run.opt.Qualification})
 	if err != nil {
 		s.Problem = err.Error()
 		return s

@@ -27,7 +27,12 @@ func cmdRegister(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "usage: vouch register DIR [-o DIR] [--shard i/n] [--signers FILE] [-j N]")
 		return exitUsage
 	}
-	opt := register.Options{Dir: dirs[0], Out: *out, Engine: Version, Signers: *signers, Workers: *workers}
+	qual, err := qualification()
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
+	opt := register.Options{Dir: dirs[0], Out: *out, Engine: Version, Signers: *signers, Workers: *workers, Build: thisBuild(), Qualification: qual}
 	if opt.Shard, opt.Shards, err = parseShard(*shardFlag); err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitUsage

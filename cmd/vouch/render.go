@@ -53,7 +53,12 @@ func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "vouch: %s: %v\n", path, err)
 		return exitErrors
 	}
-	pkg, err := d.Render(calcdoc.RenderOptions{Engine: Version, Stamp: st})
+	qual, err := qualification()
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
+	pkg, err := d.Render(calcdoc.RenderOptions{Engine: Version, Stamp: st, Build: thisBuild(), Qualification: qual})
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %s: %v\n", path, err)
 		return exitErrors

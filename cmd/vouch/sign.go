@@ -33,8 +33,12 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "vouch: sign: "+msg)
 		return exitUsage
 	}
-	opt := audit.SignOptions{Role: *role, Key: *key, Signed: *signedAt, Withdraw: *withdraw,
-		VerifyOptions: audit.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers}}
+	vopt, err := verifyOptions(*repo, *signers)
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
+	opt := audit.SignOptions{Role: *role, Key: *key, Signed: *signedAt, Withdraw: *withdraw, VerifyOptions: vopt}
 	if opt.Method, err = method.read(); err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitUsage

@@ -19,7 +19,12 @@ func cmdVerify(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintln(stderr, "usage: vouch verify PACKAGE.html [--signers FILE] [--repo DIR]")
 		return exitUsage
 	}
-	rep, err := audit.Verify(files[0], audit.VerifyOptions{Engine: Version, Repo: *repo, Signers: *signers})
+	opt, err := verifyOptions(*repo, *signers)
+	if err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
+	rep, err := audit.Verify(files[0], opt)
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return errorCode(err)
