@@ -48,12 +48,20 @@ func (v *view) setStamp(d *Doc, rec *Stamp) error {
 	v.Exceptions, v.KeysNote = signerNotes(m, states)
 	v.History, v.HistoryMore = historyRows(rec.History)
 	v.HistoryNote = historyNote(rec)
+	v.Revisions, v.RevisionNote = d.revisionRows(rec), revisionNoteText(rec)
+	v.Draft = m.Draft
+	if m.Draft {
+		v.Status = "DRAFT"
+	}
 	v.Manifest, v.ManifestDigest, v.ManifestJSON = m, digest, string(canon)
 	v.SourcePath, v.SourceHash, v.ResultsDigest = m.Source, m.SourceHash, m.ResultsDigest
 	v.Versioned, v.Committed, v.CommitDate = rec.Versioned, rec.Committed, day(rec.Date)
 	v.VerifyCommand = "vouch verify " + PackageName(m.Source) + " --signers allowed_signers"
 	if m.SignersFile != "" { // verify reads the committed file itself
 		v.VerifyCommand = "vouch verify " + PackageName(m.Source)
+	}
+	if m.Draft {
+		v.VerifyCommand = strings.Replace(v.VerifyCommand, PackageName(m.Source), strings.TrimSuffix(PackageName(m.Source), ".html")+".draft.html", 1)
 	}
 	return nil
 }

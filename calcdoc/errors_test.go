@@ -88,7 +88,7 @@ func TestErrorListIsError(t *testing.T) {
 
 func TestDocumentErrors(t *testing.T) {
 	cases := []struct{ name, src, want string }{
-		{"unknown front-matter key", "---\ntitle: x\ncolour: blue\n---\n", "3:1: unknown front-matter key \"colour\"; known keys are atmosphere, compare, digits, display, number, paper, people, project, references, revision, summary, title, us_power (a firm declares its own keys under front_matter in vouch.yaml)"},
+		{"unknown front-matter key", "---\ntitle: x\ncolour: blue\n---\n", "3:1: unknown front-matter key \"colour\"; known keys are atmosphere, compare, digits, display, number, paper, people, project, references, revision, revisions, summary, title, us_power (a firm declares its own keys under front_matter in vouch.yaml)"},
 		{"malformed front matter", "---\ntitle: [x\n---\n", "2:1: front matter is not valid YAML: line 1: did not find expected ',' or ']'"},
 		{"unclosed front matter", "---\ntitle: x\n", "1:1: front matter is not closed: add a line --- after it"},
 		{"bad digits", "---\ndigits: 40\n---\n", "2:9: digits must be a whole number from 2 to 15, not \"40\""},
@@ -96,6 +96,12 @@ func TestDocumentErrors(t *testing.T) {
 		{"unclosed fence", "# x\n\n```calc\na = 1\n", "3:1: calc block is not closed: add a closing fence line"},
 		{"not UTF-8", "---\ntitle: x\n---\n```calc\na = 1 \xff m\n```\n", "5:7: file is not valid UTF-8 text"},
 		{"summary undefined", "---\nsummary: [W_nett]\n---\n```calc\nW_net = 1 W\n```\n", "2:1: summary names W_nett, which the calc does not define; did you mean W_net?"},
+		{"revisions not a list", "---\nrevisions: A\n---\n", "2:12: revisions must be a list of entries such as - {letter: A, date: 2026-11-02, description: First issue}"},
+		{"revision without date", "---\nrevisions:\n  - {letter: A, description: First issue}\n---\n", "3:5: the revision lacks date"},
+		{"revision bad date", "---\nrevisions:\n  - {letter: A, date: 2026-13-01, description: x}\n---\n", "3:5: revision A: date \"2026-13-01\" must be a date such as 2026-11-02"},
+		{"revision unknown key", "---\nrevisions:\n  - {letter: A, dat: 2026-11-01}\n---\n", "3:17: unknown key \"dat\" in a revision; the keys are letter, date and description"},
+		{"revision listed twice", "---\nrevisions:\n  - {letter: A, date: 2026-11-01, description: x}\n  - {letter: A, date: 2026-11-02, description: y}\n---\n", "4:5: revision A is listed twice; list each revision once"},
+		{"revision description too long", "---\nrevisions:\n  - {letter: A, date: 2026-11-01, description: " + strings.Repeat("x", 121) + "}\n---\n", "3:5: revision A: the description is 121 characters; keep it to 120 (the commits in the appendix hold the detail)"},
 		{"summary of a state", "---\nsummary: [st]\n---\n```calc\nst = water(1 bar, 400 K)\n```\n", "2:1: summary names st, which has fields (a state, a saturation point or a data file); name a value defined from one of them, such as h_1 = st.h"},
 	}
 	for _, c := range cases {

@@ -36,6 +36,8 @@ type Front struct {
 	Paper, Display, USPower string
 	// Extra are the firm's extra keys the calc sets, in file order.
 	Extra []ExtraField
+	// Revisions are the revisions the front matter describes (revisions.go).
+	Revisions []RevisionNote
 
 	Ctx   units.Context
 	house *settings.Settings // the settings the front matter is read with
@@ -62,7 +64,7 @@ type Person struct {
 }
 
 // frontKeys are the front-matter keys; any other key is an error.
-var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary", "compare", "paper", "display", "us_power", "references"}
+var frontKeys = []string{"title", "number", "project", "revision", "digits", "atmosphere", "people", "summary", "compare", "paper", "display", "us_power", "references", "revisions"}
 
 // peopleKeys are the roles under people.
 var peopleKeys = []string{"preparer", "checker", "approver"}
@@ -192,6 +194,8 @@ func (f *Front) set(k, v *yaml.Node) []*frontErr {
 		return f.setReferences(v)
 	case "paper", "display", "us_power":
 		return f.setChoice(k, v)
+	case "revisions":
+		return f.setRevisions(v)
 	default:
 		return f.setExtra(k, v)
 	}

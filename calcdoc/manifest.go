@@ -34,6 +34,9 @@ type Stamp struct {
 	// Signatures holds the verdict on each signature of the manifest, in
 	// manifest order.
 	Signatures []SignatureState
+	// SignedRevisions are the earlier revisions whose signed packages the
+	// repository holds at the commit, for the revision table.
+	SignedRevisions []SignedRevision
 	// Status is the cover stamp the valid signatures reach: DRAFT,
 	// PREPARED, CHECKED or APPROVED ("" shows as DRAFT).
 	Status string

@@ -52,6 +52,9 @@ type view struct {
 	Title, Number, Project, Revision, Status string
 	Roles                                    []roleView
 	History                                  []revView
+	Revisions                                []revisionRow
+	RevisionNote                             string
+	Draft                                    bool
 	HistoryNote                              string
 	Caution                                  string
 	Failed                                   int

@@ -162,5 +162,6 @@ func addHistory(repo *provenance.Repo, st *calcdoc.Stamp) error {
 		return err
 	}
 	st.Versioned, st.History, st.Date = true, hist, date.Format(time.RFC3339)
-	return nil
+	st.SignedRevisions, err = signedRevisions(repo, m)
+	return err
 }

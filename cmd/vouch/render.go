@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"path/filepath"
+	"strings"
 	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc"
@@ -14,6 +15,7 @@ func cmdRender(args []string, stdout, stderr io.Writer) int {
 	fs := newFlags("render", stderr)
 	outDir := fs.String("o", "", "directory for the packages (default: beside each calc)")
 	pdf := fs.Bool("pdf", false, "also print each package to PDF with headless Chromium")
+	draft := fs.Bool("draft", false, "render a draft (NAME.draft.html) that is marked DRAFT and can never be signed")
 	files, err := parseArgs(fs, args)
 	if err != nil {
 		return exitUsage
@@ -29,15 +31,22 @@ func cmdRender(args []string, stdout, stderr io.Writer) int {
 	}
 	code := exitOK
 	for _, path := range files {
-		c := renderOne(path, *outDir, *pdf, stdout, stderr)
+		c := renderOne(path, renderFlags{outDir: *outDir, pdf: *pdf, draft: *draft}, stdout, stderr)
 		code = max(code, c)
 	}
 	return code
 }
 
-// renderOne evaluates and renders one calc; a calc with errors writes
+// renderFlags are the options of vouch render.
+type renderFlags struct {
+	outDir     string
+	pdf, draft bool
+}
+
+// renderOne evaluates and renders one calc; a calc with errors, or with
+// new content under a revision letter that is already signed, writes
 // nothing and leaves an earlier package untouched.
-func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
+func renderOne(path string, fl renderFlags, stdout, stderr io.Writer) int {
 	d, err := loadCalc(path, stderr)
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
@@ -58,18 +67,25 @@ func renderOne(path, outDir string, pdf bool, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors
 	}
-	pkg, err := d.Render(calcdoc.RenderOptions{Engine: Version, Stamp: st, Build: thisBuild(), Qualification: qual})
+	dest := packagePath(path, fl.outDir)
+	if fl.draft {
+		dest = strings.TrimSuffix(dest, ".html") + ".draft.html"
+	}
+	pkg, err := d.Render(calcdoc.RenderOptions{Engine: Version, Stamp: st, Build: thisBuild(), Qualification: qual, Draft: fl.draft})
 	if err != nil {
 		fmt.Fprintf(stderr, "vouch: %s: %v\n", path, err)
 		return exitErrors
 	}
-	dest := packagePath(path, outDir)
+	if err := audit.CheckRevision(st, dest, packagePath(path, "")); err != nil {
+		fmt.Fprintf(stderr, "vouch: %v; no package written\n", err)
+		return exitErrors
+	}
 	if err := writePackage(dest, pkg); err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors
 	}
 	fmt.Fprintf(stdout, "wrote %s\n", dest)
-	if pdf {
+	if fl.pdf {
 		p, err := writePDF(dest)
 		if err == nil {
 			err = archivePDF(p, pdfMetaOf(d, st))
