@@ -41,6 +41,7 @@ type Report struct {
 	Package  string               // the package file
 	Manifest *provenance.Manifest // nil when the package holds none
 	Calc     string               // number, revision and title of the calc
+	Revision string               // the calc's revision letter at the package's commit
 	Date     string               // the commit's date
 	Signers  string               // the allowed-signers file, "" when none was given
 	Status   string               // the stamp reached by signatures that hold

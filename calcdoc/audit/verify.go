@@ -228,6 +228,7 @@ func (v *verifier) reproduce() bool {
 	v.repro = r
 	f := r.doc.Front
 	v.rep.Calc = strings.TrimSpace(fmt.Sprintf("%s revision %s, %s", f.Number, f.Revision, f.Title))
+	v.rep.Revision = f.Revision
 	return true
 }
 

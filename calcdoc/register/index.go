@@ -2,6 +2,7 @@ package register
 
 import (
 	"bytes"
+	"fmt"
 	"html/template"
 	"path/filepath"
 	"sort"
@@ -41,6 +42,9 @@ type rowView struct {
 	Errors                                                  []string
 	MoreErrors                                              int
 	Signed, Stale, Problem                                  string
+	// Superseded describes a signed package of an earlier revision than
+	// the calc's current one; its status is not the current revision's.
+	Superseded string
 }
 
 // writeIndex writes index.html for the whole register.
@@ -92,6 +96,12 @@ func rowOf(e *Entry) rowView {
 	row.Errors = errs
 	if s := e.Signed; s != nil {
 		row.Status, row.Signed, row.Stale, row.Problem = s.Status, s.Package, s.Stale, s.Problem
+		if s.Revision != "" && s.Revision != e.Revision {
+			// The signed package is of another revision: the current
+			// revision has no signed package, so it is a draft.
+			row.Status, row.Stale = "DRAFT", ""
+			row.Superseded = fmt.Sprintf("revision %s, %s, superseded by revision %s", s.Revision, s.Status, or(e.Revision, "(none)"))
+		}
 	}
 	return row
 }
@@ -140,4 +150,11 @@ func leadingDigits(s string) (digits, rest string) {
 		i = len(s)
 	}
 	return s[:i], s[i:]
+}
+
+func or(a, b string) string {
+	if a != "" {
+		return a
+	}
+	return b
 }

@@ -23,6 +23,7 @@ type Signed struct {
 	// Problem is the first thing verify found wrong with the package,
 	// "" when it verifies.
 	Problem    string   `json:"problem,omitempty"`
+	Revision   string   `json:"revision,omitempty"`    // the revision letter it was rendered under
 	Commit     string   `json:"commit,omitempty"`      // the commit it was rendered from
 	SourceHash string   `json:"source_hash,omitempty"` // the source it records
 	DataHashes []string `json:"data_hashes,omitempty"` // the data files it records
@@ -83,7 +84,11 @@ func (w *worker) verify(pkg, key string) *Signed {
 	if fails := rep.Failures(); len(fails) > 0 {
 		s.Problem = fails[0].Topic + ": " + fails[0].Text
 	}
+	s.Revision = rep.Revision
 	if m := rep.Manifest; m != nil {
+		if m.Revision != "" {
+			s.Revision = m.Revision
+		}
 		s.Commit, s.SourceHash = m.Commit, m.SourceHash
 		for _, d := range m.Data {
 			s.DataHashes = append(s.DataHashes, d.Hash)
