@@ -122,13 +122,16 @@ func (d *Doc) formulationNames() []string {
 
 // Uses lists, sorted, the property functions the calc called (water,
 // water_sat, fluid, fluid_sat, fluid_crit), "fluid:NAME" for each fluid it
-// named, and "sweep" when it has a sweep: what an erratum is matched
-// against.
+// named, "gauge units" when a line writes a gauge pressure, and "sweep"
+// when it has a sweep: what an erratum is matched against.
 func (d *Doc) Uses() []string {
 	var out []string
 	for _, it := range d.Items {
 		if it.Outcome == nil {
 			continue
+		}
+		if !contains(out, "gauge units") && writesGauge(it.Stmt) {
+			out = append(out, "gauge units")
 		}
 		for _, u := range it.Outcome.Uses {
 			if !contains(out, u) {
@@ -141,6 +144,16 @@ func (d *Doc) Uses() []string {
 	}
 	sort.Strings(out)
 	return out
+}
+
+// writesGauge reports whether a statement writes a gauge pressure.
+func writesGauge(s *eval.Stmt) bool {
+	for _, l := range s.Literals() {
+		if l.Unit.Kind == units.Gauge {
+			return true
+		}
+	}
+	return false
 }
 
 func contains(list []string, s string) bool {

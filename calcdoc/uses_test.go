@@ -16,6 +16,7 @@ func TestManifestRecordsUses(t *testing.T) {
 		{"none", "a = 2 m\nb = a * 3", nil},
 		{"water and saturation", "s = water(1 MPa, 500 K)\nq = water_sat(1 MPa)\nh = s.h - q.hf", []string{"water", "water_sat"}},
 		{"organic fluid", "f = fluid(\"Isopentane\", 1 bar, 300 K)\nh = f.h", []string{"fluid", "fluid:isopentane"}},
+		{"gauge pressure", "p = 2 barg + 50 kPa", []string{"gauge units"}},
 		{"inside solve", "T = solve(water_sat(T).p == 1 MPa, 400 K, 500 K)", []string{"water_sat"}},
 	}
 	for _, c := range cases {

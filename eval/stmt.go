@@ -82,6 +82,9 @@ func (s *Stmt) Literal(ident string) (*Literal, bool) {
 	return litOf(s.lits, ident)
 }
 
+// Literals returns the line's unit literals, in order (shared: read only).
+func (s *Stmt) Literals() []*Literal { return s.lits }
+
 // DisplayUnit returns the [UNIT] of a definition and whether it has one.
 func (s *Stmt) DisplayUnit() (units.Unit, bool) { return s.display, s.hasUnit }
 

@@ -45,6 +45,8 @@ type rowView struct {
 	// Superseded describes a signed package of an earlier revision than
 	// the calc's current one; its status is not the current revision's.
 	Superseded string
+	// Errata are the known engine errors that touch the signed package.
+	Errata []string
 }
 
 // writeIndex writes index.html for the whole register.
@@ -96,6 +98,7 @@ func rowOf(e *Entry) rowView {
 	row.Errors = errs
 	if s := e.Signed; s != nil {
 		row.Status, row.Signed, row.Stale, row.Problem = s.Status, s.Package, s.Stale, s.Problem
+		row.Errata = s.Errata
 		if s.Revision != "" && s.Revision != e.Revision {
 			// The signed package is of another revision: the current
 			// revision has no signed package, so it is a draft.

@@ -32,6 +32,12 @@ type Options struct {
 	// checked against each signed package; nil and "" when not known.
 	Build         *provenance.EngineBuild
 	Qualification string
+	// Errata, when set, returns the known engine errors that touch a
+	// signed package, each with the reason, from what its manifest records
+	// of its engine (name and build, nil when not recorded) and of the
+	// functions its calc used (nil when not recorded). The caller holds
+	// the errata list (qualify sits above this package).
+	Errata func(engine string, build *provenance.EngineBuild, uses []string) []string
 	// Shard and Shards split the calcs between CI runners: this run
 	// renders shard Shard (1-based) of Shards and writes no index; a later
 	// run without a shard over the merged output folders writes it. Zero

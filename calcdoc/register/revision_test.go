@@ -30,11 +30,11 @@ func TestRegisterSupersededRevision(t *testing.T) {
 			b = row
 		}
 	}
-	if !strings.Contains(a, ">PREPARED<") || strings.Contains(a, "SUPERSEDED") {
+	if !strings.Contains(a, `<span class="stamp PREPARED`) || strings.Contains(a, "SUPERSEDED") {
 		t.Errorf("FP-000, still at its signed revision, lost its status:\n%s", a)
 	}
-	if strings.Contains(b, ">PREPARED<") || !strings.Contains(b, ">DRAFT<") || !strings.Contains(b, "<td>B</td>") ||
-		!strings.Contains(b, "SUPERSEDED</span> <span class=\"note\">revision A, PREPARED, superseded by revision B") {
+	if strings.Contains(b, `<span class="stamp PREPARED`) || !strings.Contains(b, `<span class="stamp DRAFT">DRAFT</span>`) || !strings.Contains(b, "<td>B</td>") ||
+		!strings.Contains(b, "SUPERSEDED</span> <span class=\"note\">revision A, PREPARED") || !strings.Contains(b, "superseded by revision B") {
 		t.Errorf("FP-001 at revision B shows its revision-A package's status:\n%s", b)
 	}
 	if !bytes.Contains([]byte(index), []byte("never as the status of the newer one")) {

@@ -22,8 +22,16 @@ type Signed struct {
 	Status string `json:"status"`
 	// Problem is the first thing verify found wrong with the package,
 	// "" when it verifies.
-	Problem    string   `json:"problem,omitempty"`
-	Revision   string   `json:"revision,omitempty"`    // the revision letter it was rendered under
+	Problem  string `json:"problem,omitempty"`
+	Revision string `json:"revision,omitempty"` // the revision letter it was rendered under
+	// Engine, Build and Uses are what its manifest records of the engine
+	// that made it and of the functions its calc used.
+	Engine string                  `json:"engine,omitempty"`
+	Build  *provenance.EngineBuild `json:"engine_build,omitempty"`
+	Uses   []string                `json:"uses,omitempty"`
+	// Errata are the known engine errors that touch the package, each
+	// with the reason (Options.Errata); matched again on every run.
+	Errata     []string `json:"errata,omitempty"`
 	Commit     string   `json:"commit,omitempty"`      // the commit it was rendered from
 	SourceHash string   `json:"source_hash,omitempty"` // the source it records
 	DataHashes []string `json:"data_hashes,omitempty"` // the data files it records
@@ -51,6 +59,10 @@ func (w *worker) signedStatus(e *Entry, path string, src []byte, old *Entry) {
 		e.Signed = w.verify(pkg, key)
 	}
 	e.Signed.Stale = staleness(e.Signed, src, e.Data)
+	e.Signed.Errata = nil
+	if w.run.opt.Errata != nil {
+		e.Signed.Errata = w.run.opt.Errata(e.Signed.Engine, e.Signed.Build, e.Signed.Uses)
+	}
 }
 
 // signedKey hashes what the verification of a package depends on outside
@@ -90,6 +102,7 @@ func (w *worker) verify(pkg, key string) *Signed {
 			s.Revision = m.Revision
 		}
 		s.Commit, s.SourceHash = m.Commit, m.SourceHash
+		s.Engine, s.Build, s.Uses = m.Engine, m.Build, m.Uses
 		for _, d := range m.Data {
 			s.DataHashes = append(s.DataHashes, d.Hash)
 		}

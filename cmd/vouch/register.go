@@ -3,11 +3,14 @@ package main
 import (
 	"fmt"
 	"io"
+	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
 
+	"github.com/vouchcalc/vouch/calcdoc/provenance"
 	"github.com/vouchcalc/vouch/calcdoc/register"
+	"github.com/vouchcalc/vouch/qualify"
 )
 
 // cmdRegister renders every changed calc under a folder and writes the
@@ -19,12 +22,13 @@ func cmdRegister(args []string, stdout, stderr io.Writer) int {
 	shardFlag := fs.String("shard", "", "render only shard i of n (i/n, 1-based), for CI runners; writes no index")
 	signers := fs.String("signers", "", "allowed-signers file for checking the keys of signed packages")
 	workers := fs.Int("j", 0, "calcs rendered at once (default: one per core)")
+	errataFile := fs.String("errata", "", "errata file marking signed packages a known engine error touches (default: the built-in docs/errata.yaml)")
 	dirs, err := parseArgs(fs, args)
 	if err != nil {
 		return exitUsage
 	}
 	if len(dirs) != 1 {
-		fmt.Fprintln(stderr, "usage: vouch register DIR [-o DIR] [--shard i/n] [--signers FILE] [-j N]")
+		fmt.Fprintln(stderr, "usage: vouch register DIR [-o DIR] [--shard i/n] [--signers FILE] [--errata FILE] [-j N]")
 		return exitUsage
 	}
 	qual, err := qualification()
@@ -33,6 +37,10 @@ func cmdRegister(args []string, stdout, stderr io.Writer) int {
 		return exitErrors
 	}
 	opt := register.Options{Dir: dirs[0], Out: *out, Engine: Version, Signers: *signers, Workers: *workers, Build: thisBuild(), Qualification: qual}
+	if opt.Errata, err = errataMatcher(*errataFile); err != nil {
+		fmt.Fprintf(stderr, "vouch: %v\n", err)
+		return exitErrors
+	}
 	if opt.Shard, opt.Shards, err = parseShard(*shardFlag); err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitUsage
@@ -124,5 +132,42 @@ func listProblems(dir string, entries []*register.Entry, stdout, stderr io.Write
 		if e.Signed != nil && e.Signed.Stale != "" {
 			fmt.Fprintf(stdout, "  %s: signed package %s is stale: %s\n", name, e.Signed.Package, e.Signed.Stale)
 		}
+		if e.Signed != nil {
+			for _, why := range e.Signed.Errata {
+				fmt.Fprintf(stdout, "  %s: signed package %s: erratum %s\n", name, e.Signed.Package, why)
+			}
+		}
 	}
+}
+
+// errataMatcher reads the errata list (the built-in one when file is "")
+// and returns the register's test of a signed package against it.
+func errataMatcher(file string) (func(string, *provenance.EngineBuild, []string) []string, error) {
+	list, err := qualify.BuiltinErrata()
+	if file != "" {
+		src, rerr := os.ReadFile(file)
+		if rerr != nil {
+			return nil, rerr
+		}
+		list, err = qualify.ParseErrata(file, src)
+	}
+	if err != nil {
+		return nil, err
+	}
+	return func(eng string, b *provenance.EngineBuild, uses []string) []string {
+		p := qualify.PackageEngine{Engine: eng, Uses: uses}
+		if b != nil {
+			p.Version, p.Revision = b.Version, b.Revision
+			if uses == nil {
+				p.Uses = []string{} // recorded, and empty: the calc used none
+			}
+		}
+		var out []string
+		for _, x := range list {
+			if why, ok := x.Affects(p); ok {
+				out = append(out, why)
+			}
+		}
+		return out
+	}, nil
 }
