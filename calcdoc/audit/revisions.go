@@ -134,3 +134,21 @@ func sameRevisionChanged(old, m *provenance.Manifest, where string) error {
 	return &calcdoc.UsageError{Err: fmt.Errorf("%w: revision %s of %s has a signed package (%s, signed by %s), and %s changed since: set a new revision letter in the front matter (revision:, and an entry under revisions:) and render again, or render with --draft for a package that can never be signed",
 		ErrRevisionSigned, m.Revision, m.Source, where, strings.Join(signed, ", "), strings.Join(what, " and "))}
 }
+
+// SignedUnchanged reports whether the package at pkg is a signed package
+// of the same calc and revision as the new stamp, with the same source,
+// data files and results: writing the new, unsigned package over it would
+// lose its signatures and gain nothing.
+func SignedUnchanged(st *calcdoc.Stamp, pkg string) bool {
+	m := st.Manifest
+	data, err := os.ReadFile(ManifestPath(pkg))
+	if err != nil || m.Draft {
+		return false
+	}
+	old, err := provenance.ParseManifest(data)
+	if err != nil || len(old.Signatures) == 0 {
+		return false
+	}
+	return old.Source == m.Source && old.Revision == m.Revision && old.SourceHash == m.SourceHash &&
+		dataText(old.Data) == dataText(m.Data) && old.ResultsDigest == m.ResultsDigest
+}

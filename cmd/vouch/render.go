@@ -80,6 +80,10 @@ func renderOne(path string, fl renderFlags, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "vouch: %v; no package written\n", err)
 		return exitErrors
 	}
+	if audit.SignedUnchanged(st, dest) {
+		fmt.Fprintf(stdout, "kept %s: it is the signed package of revision %s and the calc has not changed (render --draft for an unsigned copy)\n", dest, st.Manifest.Revision)
+		return failedCode(d)
+	}
 	if err := writePackage(dest, pkg); err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
 		return exitErrors
@@ -96,6 +100,12 @@ func renderOne(path string, fl renderFlags, stdout, stderr io.Writer) int {
 		}
 		fmt.Fprintf(stdout, "wrote %s\n", p)
 	}
+	return failedCode(d)
+}
+
+// failedCode is the exit code of a calc rendered without errors: 3 when a
+// check fails.
+func failedCode(d *calcdoc.Doc) int {
 	if d.Failed() {
 		reportFailedChecks(d, stderr)
 		return exitFailed

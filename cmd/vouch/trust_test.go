@@ -31,6 +31,12 @@ func TestRenderRefusesChangeUnderSignedRevision(t *testing.T) {
 	vouchIn(t, exitOK, "render", calc)
 	vouchIn(t, exitOK, "sign", pkg, "--role", "preparer", "--key", key)
 	signed, _ := os.ReadFile(pkg)
+	if out := vouchIn(t, exitOK, "render", calc); !strings.Contains(out, "kept "+pkg+": it is the signed package of revision A") {
+		t.Errorf("render of the unchanged signed revision:\n%s", out)
+	}
+	if now, _ := os.ReadFile(pkg); !bytes.Equal(now, signed) {
+		t.Error("rendering the unchanged calc replaced its signed package")
+	}
 	src, _ := os.ReadFile(calc)
 	os.WriteFile(calc, bytes.Replace(src, []byte("P_el = 250 MW"), []byte("P_el = 260 MW"), 1), 0o644)
 	r := &testkit.Repo{T: t, Dir: dir}
