@@ -177,6 +177,12 @@ func sortRevisions(rows []revisionRow) {
 
 // revisionNoteText explains the revision table.
 func revisionNoteText(rec *Stamp) string {
-	return fmt.Sprintf("Revisions come from the front matter's revisions list and from the signed packages the repository holds; a name is shown only for a signature that verifies over its package's manifest (%d earlier signed %s found). The commits are listed in the appendix.",
-		len(rec.SignedRevisions), map[bool]string{true: "package", false: "packages"}[len(rec.SignedRevisions) == 1])
+	found := "no earlier signed package is committed"
+	switch n := len(rec.SignedRevisions); {
+	case n == 1:
+		found = "1 earlier signed package is committed"
+	case n > 1:
+		found = fmt.Sprintf("%d earlier signed packages are committed", n)
+	}
+	return "Revisions come from the front matter's revisions list and from the signed packages committed in the repository (" + found + "); a name is shown only where that revision's signature verifies over its manifest. The commits are listed in the appendix."
 }

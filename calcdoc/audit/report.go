@@ -160,6 +160,9 @@ func (r *Report) header(b *strings.Builder) {
 		fmt.Fprintf(b, "source:   %s, not under version control\n", m.Source)
 	}
 	fmt.Fprintf(b, "engine:   %s; %s\n", m.Engine, m.Formulation)
+	if m.Build != nil {
+		fmt.Fprintf(b, "build:    %s\n", m.Build)
+	}
 	if d, err := m.Digest(); err == nil {
 		fmt.Fprintf(b, "manifest: sha256 %s\n", d)
 	}

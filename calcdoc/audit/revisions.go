@@ -80,12 +80,8 @@ func CheckRevision(st *calcdoc.Stamp, packages ...string) error {
 		return nil
 	}
 	for _, pkg := range packages {
-		data, err := os.ReadFile(ManifestPath(pkg))
-		if err != nil {
-			continue
-		}
-		old, err := provenance.ParseManifest(data)
-		if err != nil {
+		old := packageManifest(pkg)
+		if old == nil {
 			continue
 		}
 		if err := sameRevisionChanged(old, m, filepath.Base(pkg)); err != nil {
@@ -141,14 +137,30 @@ func sameRevisionChanged(old, m *provenance.Manifest, where string) error {
 // lose its signatures and gain nothing.
 func SignedUnchanged(st *calcdoc.Stamp, pkg string) bool {
 	m := st.Manifest
-	data, err := os.ReadFile(ManifestPath(pkg))
-	if err != nil || m.Draft {
-		return false
-	}
-	old, err := provenance.ParseManifest(data)
-	if err != nil || len(old.Signatures) == 0 {
+	old := packageManifest(pkg)
+	if old == nil || m.Draft || len(old.Signatures) == 0 {
 		return false
 	}
 	return old.Source == m.Source && old.Revision == m.Revision && old.SourceHash == m.SourceHash &&
 		dataText(old.Data) == dataText(m.Data) && old.ResultsDigest == m.ResultsDigest
+}
+
+// packageManifest reads the manifest of an existing package: the manifest
+// file beside it, or the one embedded in it when there is no such file;
+// nil when there is no package or it holds no readable manifest.
+func packageManifest(pkg string) *provenance.Manifest {
+	if data, err := os.ReadFile(ManifestPath(pkg)); err == nil {
+		if m, err := provenance.ParseManifest(data); err == nil {
+			return m
+		}
+	}
+	html, err := os.ReadFile(pkg)
+	if err != nil {
+		return nil
+	}
+	m, err := ManifestOf(html)
+	if err != nil {
+		return nil
+	}
+	return m
 }

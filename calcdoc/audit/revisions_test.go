@@ -2,6 +2,7 @@ package audit
 
 import (
 	"errors"
+	"os"
 	"strings"
 	"testing"
 
@@ -65,6 +66,11 @@ func TestRevisionChangedUnderSignedLetterRefused(t *testing.T) {
 	_, st, _ = stampOf(t, r.Path("calcs/fp.calc.md"), true)
 	if err := CheckRevision(st, pkg); err != nil {
 		t.Errorf("a draft is refused: %v", err)
+	}
+	os.Remove(ManifestPath(pkg))
+	_, st, _ = stampOf(t, r.Path("calcs/fp.calc.md"), false)
+	if err := CheckRevision(st, pkg); !errors.Is(err, ErrRevisionSigned) {
+		t.Errorf("not refused from the manifest inside the package: %v", err)
 	}
 	r.Write("calcs/fp.calc.md", strings.Replace(changed, "revision: A", "revision: B", 1))
 	r.Commit("Revision B: more flow")
