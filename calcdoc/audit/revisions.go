@@ -84,6 +84,9 @@ func CheckRevision(st *calcdoc.Stamp, packages ...string) error {
 		if old == nil {
 			continue
 		}
+		if old.Revision == "" {
+			old.Revision = revisionAt(filepath.Dir(pkg), old)
+		}
 		if err := sameRevisionChanged(old, m, filepath.Base(pkg)); err != nil {
 			return err
 		}
@@ -163,4 +166,23 @@ func packageManifest(pkg string) *provenance.Manifest {
 		return nil
 	}
 	return m
+}
+
+// revisionAt is the revision letter a manifest made before manifests
+// recorded it was rendered under: the front matter of its source at its
+// commit, read from the repository that holds dir; "" when it cannot be
+// read.
+func revisionAt(dir string, m *provenance.Manifest) string {
+	if m.Commit == "" {
+		return ""
+	}
+	repo, err := provenance.Open(dir)
+	if err != nil {
+		return ""
+	}
+	src, err := repo.ReadAt(m.Commit, m.Source)
+	if err != nil {
+		return ""
+	}
+	return calcdoc.Read(m.Source, src).Front.Revision
 }

@@ -149,3 +149,24 @@ func TestSignRefusesDraft(t *testing.T) {
 		t.Errorf("a draft was signed or refused for another reason: %v", err)
 	}
 }
+
+// TestRevisionOfOldManifestFromGit: a signed package whose manifest was
+// made before manifests recorded the revision letter still refuses a
+// change under its letter: the letter is read from the source at its
+// commit.
+func TestRevisionOfOldManifestFromGit(t *testing.T) {
+	r, pkg := preparedRepo(t)
+	m := packageManifest(pkg)
+	m.Revision = "" // as an older engine wrote it
+	file, err := ManifestFile(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	os.WriteFile(ManifestPath(pkg), file, 0o644)
+	r.Write("calcs/fp.calc.md", strings.Replace(signCalc, "12.5 MPa", "13 MPa", 1))
+	r.Commit("Higher discharge pressure under revision A")
+	_, st, _ := stampOf(t, r.Path("calcs/fp.calc.md"), false)
+	if err := CheckRevision(st, pkg); !errors.Is(err, ErrRevisionSigned) {
+		t.Errorf("not refused: %v", err)
+	}
+}
