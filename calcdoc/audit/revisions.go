@@ -3,7 +3,6 @@ package audit
 import (
 	"errors"
 	"fmt"
-	"os"
 	"path"
 	"path/filepath"
 	"sort"
@@ -11,6 +10,7 @@ import (
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
+	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
 // manifestRel is the repository path of the manifest file of the package
@@ -152,12 +152,12 @@ func SignedUnchanged(st *calcdoc.Stamp, pkg string) bool {
 // file beside it, or the one embedded in it when there is no such file;
 // nil when there is no package or it holds no readable manifest.
 func packageManifest(pkg string) *provenance.Manifest {
-	if data, err := os.ReadFile(ManifestPath(pkg)); err == nil {
+	if data, err := safefile.Read(ManifestPath(pkg), MaxPackageBytes); err == nil {
 		if m, err := provenance.ParseManifest(data); err == nil {
 			return m
 		}
 	}
-	html, err := os.ReadFile(pkg)
+	html, err := safefile.Read(pkg, MaxPackageBytes)
 	if err != nil {
 		return nil
 	}

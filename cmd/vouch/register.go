@@ -3,13 +3,13 @@ package main
 import (
 	"fmt"
 	"io"
-	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 	"github.com/vouchcalc/vouch/calcdoc/register"
+	"github.com/vouchcalc/vouch/internal/safefile"
 	"github.com/vouchcalc/vouch/qualify"
 )
 
@@ -140,12 +140,15 @@ func listProblems(dir string, entries []*register.Entry, stdout, stderr io.Write
 	}
 }
 
+// maxErrataBytes bounds an errata file given with --errata.
+const maxErrataBytes = 4 << 20
+
 // errataMatcher reads the errata list (the built-in one when file is "")
 // and returns the register's test of a signed package against it.
 func errataMatcher(file string) (func(string, *provenance.EngineBuild, []string) []string, error) {
 	list, err := qualify.BuiltinErrata()
 	if file != "" {
-		src, rerr := os.ReadFile(file)
+		src, rerr := safefile.Read(file, maxErrataBytes)
 		if rerr != nil {
 			return nil, rerr
 		}
