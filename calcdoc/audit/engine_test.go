@@ -117,3 +117,20 @@ func TestULPs(t *testing.T) {
 		}
 	}
 }
+
+// TestSignByOtherBuild: a package made by another build may be signed by
+// this one only when this build reproduces it byte for byte; results that
+// agree only within the tolerance are not signed.
+func TestSignByOtherBuild(t *testing.T) {
+	r := calcRepo(t)
+	k := newKey(t, "ed25519")
+	pkg := renderAs(t, r, buildA, 0)
+	if _, rep, err := Sign(pkg, SignOptions{VerifyOptions: VerifyOptions{Engine: "test", Build: &buildB}, Role: "preparer", Key: k.path}); err != nil {
+		t.Errorf("a package this build reproduces byte for byte is not signed: %v\n%s", err, rep)
+	}
+	pkg = renderAs(t, r, buildA, 3)
+	_, _, err := Sign(pkg, SignOptions{VerifyOptions: VerifyOptions{Engine: "test", Build: &buildB}, Role: "preparer", Key: k.path})
+	if err == nil || !strings.Contains(err.Error(), "does not reproduce it byte for byte") {
+		t.Errorf("a package reproduced only within the tolerance is signed: %v", err)
+	}
+}

@@ -91,8 +91,8 @@ func Sign(pkgPath string, opt SignOptions) (*Signed, *Report, error) {
 	if v.m != nil && v.m.Draft {
 		return nil, v.rep, fmt.Errorf("%w: the package was rendered with --draft, and a draft is never signed: render it again without --draft; not signed", ErrNotVerified)
 	}
-	if v.rep.Different {
-		return nil, v.rep, fmt.Errorf("%w: the package was made by %s, not by this engine build (%s): sign it with that build, or render it again with this one; not signed", ErrNotVerified, v.madeBy(), v.thisEngine())
+	if v.rep.Different && !v.sameBytes {
+		return nil, v.rep, fmt.Errorf("%w: the package was made by %s, and this engine build (%s) does not reproduce it byte for byte: sign it with that build, or render a new revision with this one; not signed", ErrNotVerified, v.madeBy(), v.thisEngine())
 	}
 	if blocked(v.rep, opt.Role) || v.repro == nil {
 		return nil, v.rep, fmt.Errorf("%w; not signed", ErrNotVerified)

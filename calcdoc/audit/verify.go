@@ -62,6 +62,10 @@ type verifier struct {
 	repo    *provenance.Repo
 	allowed provenance.AllowedSigners
 	repro   *reproduction
+	// sameBytes reports that the results reproduced bit for bit and the
+	// package re-rendered byte for byte: a package another build made may
+	// then be signed by this one, as it is exactly what that build made.
+	sameBytes bool
 }
 
 // MaxPackageBytes is the largest package or manifest file verify reads.
@@ -264,6 +268,7 @@ func (v *verifier) comparePackage() bool {
 		return true
 	}
 	v.rep.add(Holds, "package", "the package re-rendered from the commit is byte-identical (%d bytes)", len(html))
+	v.sameBytes = v.rep.Reproduction == ReproducedExact
 	return true
 }
 
