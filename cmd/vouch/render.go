@@ -82,7 +82,7 @@ func renderOne(path string, fl renderFlags, stdout, stderr io.Writer) int {
 	}
 	if audit.SignedUnchanged(st, dest) {
 		fmt.Fprintf(stdout, "kept %s: it is the signed package of revision %s and the calc has not changed (render --draft for an unsigned copy)\n", dest, st.Manifest.Revision)
-		return failedCode(d)
+		return failedCode(d, stderr)
 	}
 	if err := writePackage(dest, pkg); err != nil {
 		fmt.Fprintf(stderr, "vouch: %v\n", err)
@@ -100,12 +100,12 @@ func renderOne(path string, fl renderFlags, stdout, stderr io.Writer) int {
 		}
 		fmt.Fprintf(stdout, "wrote %s\n", p)
 	}
-	return failedCode(d)
+	return failedCode(d, stderr)
 }
 
 // failedCode is the exit code of a calc rendered without errors: 3 when a
-// check fails.
-func failedCode(d *calcdoc.Doc) int {
+// check fails, after naming the failing checks on stderr.
+func failedCode(d *calcdoc.Doc, stderr io.Writer) int {
 	if d.Failed() {
 		reportFailedChecks(d, stderr)
 		return exitFailed
