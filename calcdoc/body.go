@@ -69,6 +69,11 @@ func (d *Doc) replaceCalcNodes() {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.sweepHTML(d.Sweeps[i])})
 		}
 	}
+	for i, f := range fs.budgets {
+		if i < len(d.Budgets) {
+			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.budgetHTML(d.Budgets[i])})
+		}
+	}
 	for i, f := range fs.diagrams {
 		if i < len(d.diagramBlocks) {
 			f.Parent().ReplaceChild(f.Parent(), f, &figureBlock{html: d.diagramHTML(d.diagramBlocks[i])})

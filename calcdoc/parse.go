@@ -46,6 +46,11 @@ type Doc struct {
 	Sweeps []*Sweep
 	// Assumptions are the lines of the assumptions blocks, in file order.
 	Assumptions []Assumption
+	// Unc is the propagation of the inputs' uncertainties (uncert.go); nil
+	// when no input has one.
+	Unc *Propagation
+	// Budgets are the budget blocks (budget.go).
+	Budgets []*Budget
 	// DataFiles are the data files the calc read, in order of first use.
 	DataFiles []DataFile
 	// Files is the tree data files and images are read from: the work tree
@@ -198,6 +203,9 @@ func (d *Doc) collect() {
 	}
 	for _, s := range f.sweeps {
 		d.readSweep(s)
+	}
+	for _, b := range f.budgets {
+		d.readBudget(b)
 	}
 	for _, s := range f.diagrams {
 		d.readDiagram(s)

@@ -101,6 +101,10 @@ func (d *Doc) Evaluate() {
 		d.runSweeps(eng)
 		d.drawDiagrams()
 	}
+	if len(d.Errors) == 0 {
+		d.propagate(eng)
+		d.runBudgets(eng)
+	}
 	d.engine = eng
 	d.checkSummary(eng)
 	d.Errors.Sort()

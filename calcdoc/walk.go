@@ -12,6 +12,7 @@ import (
 // prose of the diff (calcFenceLines). Nothing matches two walks by index.
 type fences struct {
 	calcs, sweeps, diagrams, assumptions, states []*gast.FencedCodeBlock
+	budgets                                      []*gast.FencedCodeBlock
 	others                                       []*gast.FencedCodeBlock // every other fenced block
 	comments                                     []*gast.HTMLBlock       // HTML comments (<!-- -->)
 	spans                                        []*gast.CodeSpan
@@ -38,6 +39,8 @@ func (t fenceFinder) Transform(doc *gast.Document, reader text.Reader, _ parser.
 				t.f.sweeps = append(t.f.sweeps, v)
 			case "diagram":
 				t.f.diagrams = append(t.f.diagrams, v)
+			case "budget":
+				t.f.budgets = append(t.f.budgets, v)
 			case "assumptions":
 				t.f.assumptions = append(t.f.assumptions, v)
 			case "states":

@@ -63,6 +63,9 @@ func NewEngine(ctx units.Context) *Engine {
 // marked failed, so lines that read it are skipped without a second error.
 // An error is an *Error, with the offset of the node that caused it.
 func (e *Engine) Exec(s *Stmt) (*Outcome, error) {
+	if s.Kind == Corr {
+		return e.execCorr(s)
+	}
 	r := e.resolve(s)
 	if s.Kind == Def {
 		sl := e.defSlot(s)

@@ -35,6 +35,8 @@ const (
 	Check
 	// Inline is an inline value in prose: `=EXPR` or `=EXPR [UNIT]`.
 	Inline
+	// Corr is corr(a, b) = r: the correlation of two uncertain inputs.
+	Corr
 )
 
 // Stmt is one parsed calc line. Offsets are byte offsets into the calc file.
@@ -63,6 +65,11 @@ type Stmt struct {
 	lits    []*Literal // the unit literals; placeholder n stands for lits[n]
 	deps    []string
 	res     atomic.Pointer[resolution] // deps and Name as slot numbers (resolve.go)
+	unc     *Uncertainty                // the ± part of an input line (uncert.go)
+
+	corrA, corrB       string // the names of a corr line
+	corrAOff, corrBOff int
+	corrR              float64
 }
 
 // Literal is a number with a unit written in an expression, such as 12.5 MPa.
@@ -115,7 +122,16 @@ func ParseLine(text string, off, line int, ctx units.Context) (*Stmt, []*Error) 
 		s.Kind = Check
 		s.ExprOff = off + lead + len(kw) + (len(after) - len(strings.TrimLeft(after, " \t")))
 		s.Expr = strings.TrimSpace(after)
+	} else if isCorr(rest) {
+		if err = s.parseCorr(rest, off+lead, ctx); err != nil {
+			return s, []*Error{err}
+		}
+		return s, nil
 	} else if err = s.parseHead(rest, off+lead, ctx); err != nil {
+		return s, []*Error{err}
+	}
+	uText, uOff, err := s.splitUncertainty()
+	if err != nil {
 		return s, []*Error{err}
 	}
 	if s.Expr == "" {
@@ -124,7 +140,18 @@ func ParseLine(text string, off, line int, ctx units.Context) (*Stmt, []*Error) 
 	if err := s.compile(ctx); err != nil {
 		return s, []*Error{err}
 	}
+	if uText != "" {
+		if err := s.parseUncertainty(uText, uOff, ctx); err != nil {
+			return s, []*Error{err}
+		}
+	}
 	return s, nil
+}
+
+// isCorr reports whether a line starts corr(, a correlation line.
+func isCorr(rest string) bool {
+	_, after, ok := cutKeyword(rest, "corr")
+	return ok && strings.HasPrefix(strings.TrimLeft(after, " \t"), "(")
 }
 
 // cutKeyword reports whether s starts with the word kw followed by a space.
