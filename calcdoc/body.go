@@ -238,6 +238,7 @@ func (d *Doc) lineHTML(it *Item) string {
 	if s.Source != "" {
 		b.WriteString("<div class=\"src\">Source: " + d.sourceHTML(s.Source) + "</div>")
 	}
+	b.WriteString(d.uncLineHTML(it))
 	if sv := o.Solve; sv != nil {
 		b.WriteString(sprintf("<div class=\"desc\">Solved by bracketing (Brent's method) in %d evaluations; remaining residual %s.</div>",
 			sv.Iterations, quantityText(sv.Residual, units.DefaultUnit(sv.Residual), 3, d.Front.Ctx)))
@@ -265,6 +266,9 @@ const stackAfter = 36
 // and starting a second line when the first would be long.
 func (d *Doc) equation(it *Item) []string {
 	s, o := it.Stmt, it.Outcome
+	if s.Kind == eval.Corr {
+		return []string{corrMathML(s)}
+	}
 	if o.Solve != nil {
 		return []string{d.formula(s, false), nameMathML(s.Name) + "<mo>=</mo>" + d.resultMathML(o)}
 	}
@@ -281,7 +285,7 @@ func (d *Doc) equation(it *Item) []string {
 		head = nameMathML(s.Name) + "<mo>=</mo>" + formula
 	}
 	if s.IsLiteralInput() || (s.IsPlainNumber() && !s.HasDisplayUnit()) {
-		return []string{head} // an input: the value as written is the result
+		return []string{head + uncMathML(s)} // an input: the value as written is the result
 	}
 	var rest []string
 	if len(s.Deps()) > 0 && !s.IsLoneName() {

@@ -41,11 +41,11 @@ type BudgetEntry struct {
 
 // BudgetRow is one input of a budget or sensitivity table.
 type BudgetRow struct {
-	In    *UncInput
-	Coef  Coef
-	CU    float64 // c_i·u(x_i), SI units of the result
-	Share float64 // c_i²u²(x_i)/u_c², as a fraction
-	Rel   float64 // (∂y/y)/(∂x/x)
+	In     *UncInput
+	Coef   Coef
+	CU     float64 // c_i·u(x_i), SI units of the result
+	Share  float64 // c_i²u²(x_i)/u_c², as a fraction
+	Rel    float64 // (∂y/y)/(∂x/x)
 	HasRel bool
 }
 

@@ -65,7 +65,7 @@ type Stmt struct {
 	lits    []*Literal // the unit literals; placeholder n stands for lits[n]
 	deps    []string
 	res     atomic.Pointer[resolution] // deps and Name as slot numbers (resolve.go)
-	unc     *Uncertainty                // the ± part of an input line (uncert.go)
+	unc     *Uncertainty               // the ± part of an input line (uncert.go)
 
 	corrA, corrB       string // the names of a corr line
 	corrAOff, corrBOff int

@@ -80,6 +80,10 @@ type jsonResult struct {
 	SIUnit string  `json:"si_unit"`
 	Text   string  `json:"text"`
 	Source string  `json:"source,omitempty"` // where an input comes from (inputSource)
+	// U and USI are the standard uncertainty (stated or propagated), in the
+	// difference unit of the display unit and in SI units; absent when none.
+	U   *float64 `json:"u,omitempty"`
+	USI *float64 `json:"u_si,omitempty"`
 }
 
 type jsonCheck struct {
@@ -137,10 +141,14 @@ func writeJSON(w io.Writer, d *calcdoc.Doc) error {
 	for _, it := range d.Results() {
 		q := it.Outcome.Value.(units.Quantity)
 		v, _ := q.In(it.Outcome.Display, d.Front.Ctx)
-		out.Results = append(out.Results, jsonResult{
+		r := jsonResult{
 			Name: it.Stmt.Name, Line: it.Stmt.Line, Value: v, Unit: unitText(it.Outcome.Display),
 			SI: q.V, SIUnit: units.SIUnitText(q.D), Text: d.ValueText(it.Outcome), Source: inputSource(it),
-		})
+		}
+		if si, shown, _, ok := d.StdUnc(it); ok {
+			r.U, r.USI = &shown, &si
+		}
+		out.Results = append(out.Results, r)
 	}
 	for _, it := range d.Checks() {
 		out.Checks = append(out.Checks, checkJSON(d, it))
