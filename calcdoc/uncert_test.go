@@ -172,19 +172,19 @@ func TestSensitivityTable(t *testing.T) {
 func TestUncertaintyErrors(t *testing.T) {
 	base := "```calc\na = 3 m ± 0.1 m\nb = 4 m ± 0.1 m\nc = 5 m\ny = a + b\n"
 	cases := map[string]string{
-		"```calc\np = 12.5 MPa ± 0 MPa\n```\n":                            "an uncertainty must be above zero",
-		"```calc\np = 12.5 MPa ± -0.1 MPa\n```\n":                         "expected a positive number after ±",
-		"```calc\np = 12.5 MPa ± 0.1 K\n```\n":                            "the uncertainty is temperature, but p is pressure",
-		"```calc\nT = 500 degC ± 1 degC\n```\n":                           "the uncertainty of a temperature is a difference",
-		"```calc\np = 12.5 MPa ± 0.1 MPa (k=0)\n```\n":                    "the coverage factor k must be above zero",
-		"```calc\np = 12.5 MPa ± 0.1 MPa (q=2)\n```\n":                    "expected a coverage factor (k=2)",
-		"```calc\np = 12.5 MPa\nq = 2 * p ± 0.1 MPa\n```\n":              "only an input takes an uncertainty",
-		base + "corr(a, b) = 1.2\n```\n":                                   "a correlation coefficient lies from -1 to 1",
-		base + "corr(a, c) = 0.5\n```\n":                                   "c has no uncertainty",
-		base + "corr(a, zz) = 0.5\n```\n":                                  "the calc does not define zz",
-		base + "```\n```budget\nc\n```\n":                                 "c depends on no input with an uncertainty",
-		base + "```\n```budget\ny mc 2000000\n```\n":                      "at most 1000000 draws are allowed",
-		base + "```\n```budget\ny k=-1\n```\n":                            "the coverage factor k must be a number above zero",
+		"```calc\np = 12.5 MPa ± 0 MPa\n```\n":              "an uncertainty must be above zero",
+		"```calc\np = 12.5 MPa ± -0.1 MPa\n```\n":           "expected a positive number after ±",
+		"```calc\np = 12.5 MPa ± 0.1 K\n```\n":              "the uncertainty is temperature, but p is pressure",
+		"```calc\nT = 500 degC ± 1 degC\n```\n":             "the uncertainty of a temperature is a difference",
+		"```calc\np = 12.5 MPa ± 0.1 MPa (k=0)\n```\n":      "the coverage factor k must be above zero",
+		"```calc\np = 12.5 MPa ± 0.1 MPa (q=2)\n```\n":      "expected a coverage factor (k=2)",
+		"```calc\np = 12.5 MPa\nq = 2 * p ± 0.1 MPa\n```\n": "only an input takes an uncertainty",
+		base + "corr(a, b) = 1.2\n```\n":                    "a correlation coefficient lies from -1 to 1",
+		base + "corr(a, c) = 0.5\n```\n":                    "c has no uncertainty",
+		base + "corr(a, zz) = 0.5\n```\n":                   "the calc does not define zz",
+		base + "```\n```budget\nc\n```\n":                   "c depends on no input with an uncertainty",
+		base + "```\n```budget\ny mc 2000000\n```\n":        "at most 1000000 draws are allowed",
+		base + "```\n```budget\ny k=-1\n```\n":              "the coverage factor k must be a number above zero",
 		"```calc\na = 1 ± 0.1\nb = 1 ± 0.1\nc = 1 ± 0.1\ncorr(a, b) = 0.9\ncorr(b, c) = 0.9\ncorr(a, c) = -0.9\n```\n": "not positive semi-definite",
 	}
 	for src, want := range cases {
