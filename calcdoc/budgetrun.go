@@ -91,6 +91,10 @@ func (d *Doc) sensitivityTable(eng *eval.Engine, e *BudgetEntry) {
 		}
 		e.Rows = append(e.Rows, r)
 	}
+	if len(e.Rows) == 0 {
+		d.errorf(e.Off, "sensitivity %s: %s depends on no input of the calc", e.Name, e.Name)
+		return
+	}
 	sort.SliceStable(e.Rows, func(i, j int) bool {
 		return math.Abs(e.Rows[i].Rel) > math.Abs(e.Rows[j].Rel)
 	})
