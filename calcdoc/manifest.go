@@ -168,7 +168,9 @@ func contains(list []string, s string) bool {
 // manifestResults lists every result of the evaluated calc for the
 // manifest, in file order: each definition that holds a quantity, with its
 // SI value and SI unit, and each check as "check:LINE" with 1 for PASS and
-// 0 for FAIL. The manifest's results digest covers all of them.
+// 0 for FAIL, and after each quantity with an uncertainty (stated or
+// propagated) its standard uncertainty as "u:NAME". The manifest's results
+// digest covers all of them.
 func (d *Doc) manifestResults() []provenance.Result {
 	out := []provenance.Result{}
 	for _, it := range d.Items {
@@ -178,6 +180,9 @@ func (d *Doc) manifestResults() []provenance.Result {
 		}
 		if r, ok := resultOf(it); ok {
 			out = append(out, r)
+			if u, _, _, has := d.StdUnc(it); has && !it.Inline {
+				out = append(out, provenance.Result{Name: "u:" + r.Name, SI: u, Unit: r.Unit})
+			}
 		}
 	}
 	return out
