@@ -15,12 +15,15 @@
 //     title block, paper and display system).
 //   - evaluating: run.go (Evaluate, ReadFile, ReadIn), sweep.go and
 //     sweeprun.go (sweep blocks), diagram.go (T-s and h-s diagrams),
-//     states.go (states blocks: tables of state points).
+//     states.go (states blocks: tables of state points), uncert.go and
+//     uncertrun.go (propagation of uncertainties), budget.go, budgetrun.go
+//     and budgetmc.go (budget blocks, Monte Carlo check).
 //   - rendering: render.go (Render, Package), body.go (the Markdown body),
 //     mathml.go and typeset.go (formulas and values), display.go (the SI
 //     and US display systems), cover.go (cover,
 //     signature block, history), datainputs.go (YAML values as inputs),
-//     datatables.go (the CSV appendix, interp rows), manifest.go (Stamp, the evaluation's part
+//     datatables.go (the CSV appendix, interp rows), budgethtml.go and
+//     uncerthtml.go (budget tables, ± in calc lines), manifest.go (Stamp, the evaluation's part
 //     of the manifest), writefile.go (atomic writes for the commands).
 //
 // Its neighbours: calcdoc/audit builds stamps from git and signs and
