@@ -257,7 +257,7 @@ func (d *Doc) inputRows() []rowView {
 		if !isInputItem(it) {
 			continue
 		}
-		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome), Desc: it.Stmt.Desc, Source: d.inputSource(it), Line: it.Stmt.Line})
+		rows = append(rows, rowView{Name: nameText(it.Stmt.Name), Value: d.valueHTML(it.Outcome) + uncHTML(it.Stmt), Desc: it.Stmt.Desc, Source: d.inputSource(it), Line: it.Stmt.Line})
 	}
 	return rows
 }

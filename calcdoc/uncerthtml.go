@@ -23,6 +23,26 @@ func uncMathML(s *eval.Stmt) string {
 	return m
 }
 
+// uncHTML writes the ± part of an input as stated, for the inputs table;
+// "" when it has none.
+func uncHTML(s *eval.Stmt) string {
+	u := s.Uncertainty()
+	if u == nil {
+		return ""
+	}
+	t := " ± " + groupDigits(u.Num)
+	if ut := unitText(u.Unit); ut != "" && u.Unit.Factor != 0 {
+		t += "\u2009" + html.EscapeString(ut)
+	}
+	switch u.Kind {
+	case eval.UncExpanded:
+		t += " (<i>k</i> = " + html.EscapeString(u.KText) + ")"
+	case eval.UncRect:
+		t += " rectangular"
+	}
+	return t
+}
+
 // numberMathMLText writes a number as written.
 func numberMathMLText(num string) string {
 	return "<mn>" + groupDigits(num) + "</mn>"

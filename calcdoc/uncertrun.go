@@ -51,7 +51,11 @@ func (d *Doc) readCorr(p *Propagation, index map[string]int) bool {
 			continue
 		}
 		a, b, _, _, r := it.Stmt.Corr()
-		i, j := index[a], index[b]
+		i, okA := index[a]
+		j, okB := index[b]
+		if !okA || !okB {
+			continue // execCorr has reported it
+		}
 		p.Corr[i][j], p.Corr[j][i] = r, r
 		p.CorrAt[i*n+j], p.CorrAt[j*n+i] = it.Stmt.ExprOff, it.Stmt.ExprOff
 		last = it.Stmt.ExprOff
