@@ -2,6 +2,9 @@ package calcdoc
 
 import (
 	"math"
+	"runtime"
+	"sync"
+	"sync/atomic"
 
 	"github.com/vouchcalc/vouch/eval"
 	"github.com/vouchcalc/vouch/units"
@@ -24,15 +27,38 @@ func (d *Doc) propagate(eng *eval.Engine) {
 	if !d.readCorr(p, index) {
 		return
 	}
-	for _, in := range p.Inputs {
-		run := d.sensitivities(eng, in)
+	p.runs = d.allSensitivities(eng, p.Inputs)
+	for _, run := range p.runs {
 		if run.err != "" {
-			d.errorf(in.Unc.Off, "%s", run.err)
+			d.errorf(run.in.Unc.Off, "%s", run.err)
 			return
 		}
-		p.runs = append(p.runs, run)
 	}
 	d.Unc = p
+}
+
+// allSensitivities finds the coefficients of every input on all cores;
+// each input's run is its own, stored at its index, so the result does not
+// depend on the number of cores.
+func (d *Doc) allSensitivities(eng *eval.Engine, ins []*UncInput) []*sensRun {
+	runs := make([]*sensRun, len(ins))
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for w := 0; w < min(runtime.GOMAXPROCS(0), len(ins)); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for {
+				i := int(next.Add(1)) - 1
+				if i >= len(ins) {
+					return
+				}
+				runs[i] = d.sensitivities(eng, ins[i])
+			}
+		}()
+	}
+	wg.Wait()
+	return runs
 }
 
 // readCorr fills the correlation matrix from the corr lines and checks
