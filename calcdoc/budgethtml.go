@@ -35,7 +35,7 @@ func (d *Doc) gumHTML(e *BudgetEntry) string {
 		xu := diffUnit(r.In.Item.Outcome.Display)
 		b.WriteString("<tr><td>" + nameText(r.In.Name) + "</td><td class=\"num\">" + d.valueHTML(r.In.Item.Outcome) + "</td>")
 		b.WriteString("<td class=\"num\">" + inUnit(r.In.U, xu, 3) + "</td><td>" + html.EscapeString(r.In.Unc.How()) + "</td>")
-		b.WriteString("<td>" + html.EscapeString(sourceOf(r.In.Item.Stmt.Desc)) + "</td>")
+		b.WriteString("<td>" + d.inputSource(r.In.Item) + "</td>")
 		b.WriteString("<td class=\"num\">" + coefHTML(r.Coef.C, xu, yu) + "</td><td class=\"num\">" + inUnit(r.CU, yu, 3) + "</td>")
 		b.WriteString("<td class=\"num\">" + pct(r.Share) + "</td></tr>\n")
 		notes = append(notes, stepNote(r)...)
@@ -112,14 +112,6 @@ func stepNote(r BudgetRow) []string {
 	}
 	return []string{sprintf("The coefficient of %s changed by %s relative when its step was last halved (to %s in SI units), more than %s: the result is not smooth near this value (a table, a phase boundary or a solver's tolerance); the finest estimate is shown.",
 		nameText(r.In.Name), numberText(r.Coef.Change, 2), numberText(r.Coef.Step, 3), numberText(StabilityTol, 1))}
-}
-
-// sourceOf is the source named after | in a description.
-func sourceOf(desc string) string {
-	if _, src, ok := strings.Cut(desc, "|"); ok {
-		return strings.TrimSpace(src)
-	}
-	return ""
 }
 
 // diffUnit is the unit a difference or an uncertainty of a value shown in u
