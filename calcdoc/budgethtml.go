@@ -175,7 +175,7 @@ func coefHTML(c float64, xu, yu units.Unit) string {
 
 // pct writes a fraction as a percentage with one decimal.
 func pct(f float64) string {
-	return strconv.FormatFloat(float64(100*f), 'f', 1, 64) + " %"
+	return strings.Replace(strconv.FormatFloat(float64(100*f), 'f', 1, 64), "-", "−", 1) + " %"
 }
 
 // resultWithU writes y ± U with U to two significant digits and y to the
