@@ -23,6 +23,7 @@ func FuzzRead(f *testing.F) {
 	f.Add([]byte("> ```calc\n> a = 1\n> ```\n- ~~~calc\n  b = a\n  ~~~\n"))
 	f.Add([]byte("```calc\nx = 2 m\ny = x^2\nz = solve(z * 2 m == y, 0 m, 10 m)\n```\n```sweep\nvary x over [1 m, 2 m]\nshow y\nplot y\n```\n"))
 	f.Add([]byte("```calc\ns = water(1 bar, 400 K)\nt = water(1 bar, 0)\n```\n```diagram\nT-s: s, t\n```\n"))
+	f.Add([]byte("```calc\na = 1 m ± 0.1 m\nb = 2 +/- 0.1 rect\ncorr(a, b) = 0.3\ny = a * b\n```\n```budget\ny k=2 mc 1000\nsensitivity y\n```\n"))
 	dir := f.TempDir()
 	f.Fuzz(func(t *testing.T, src []byte) {
 		d := Read(filepath.Join(dir, "f.calc.md"), src)
