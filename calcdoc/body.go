@@ -431,7 +431,7 @@ func (d *Doc) sweepHTML(sw *Sweep) string {
 	cols := make([]units.Unit, len(sw.Show))
 	for j, c := range sw.Show {
 		cols[j] = d.ColumnUnit(c, sw.Rows[0][j])
-		b.WriteString("<th>" + nameText(c.Name) + unitHeading(cols[j]) + "</th>")
+		b.WriteString("<th>" + columnName(c) + unitHeading(cols[j]) + "</th>")
 	}
 	b.WriteString("<th>Checks</th></tr>\n")
 	for i := 0; i < sw.Len(); i++ {

@@ -43,6 +43,7 @@ type Sweep struct {
 // SweepColumn is one shown result.
 type SweepColumn struct {
 	Name    string
+	U       bool // u(NAME): the combined standard uncertainty of NAME (uncertsweep.go)
 	Unit    units.Unit
 	HasUnit bool
 	Off     int
@@ -203,6 +204,9 @@ func (d *Doc) sweepShow(sw *Sweep, s string, off int) {
 	for _, f := range splitList(s, off) {
 		name, unit, hasUnit := strings.Cut(f.text, "[")
 		col := SweepColumn{Name: strings.TrimSpace(name), Off: f.off}
+		if inner, ok := uColumn(col.Name); ok {
+			col.Name, col.U = inner, true
+		}
 		if hasUnit {
 			ut := strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(unit), "]"))
 			u, err := units.Parse(ut)

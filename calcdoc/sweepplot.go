@@ -71,7 +71,7 @@ func (d *Doc) plotColumns(sw *Sweep, pl sweepPlot) ([]int, *plotError) {
 	for _, n := range pl.names {
 		col := -1
 		for j, c := range sw.Show {
-			if c.Name == n.text {
+			if c.Name == n.text && !c.U {
 				col = j
 			}
 		}

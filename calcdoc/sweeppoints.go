@@ -187,6 +187,11 @@ func (r *sweepRun) point(w *worker, i int) *pointError {
 		if !ok {
 			return &pointError{c.Off, sprintf("show %s: %s is not a number or quantity", c.Name, c.Name)}
 		}
+		if c.U {
+			if msg := d.uncColumn(f, sw, c, i, &q); msg != "" {
+				return &pointError{c.Off, msg}
+			}
+		}
 		if c.HasUnit {
 			if _, err := q.In(c.Unit, d.Front.Ctx); err != nil {
 				return &pointError{c.Off, sprintf("show %s [%s]: %v", c.Name, c.Unit, err)}

@@ -179,6 +179,10 @@ func kindName(v any) string {
 // ColumnUnit is the unit a sweep column is shown in: its [UNIT], else the
 // unit the name's own line is shown in, else the display system's.
 func (d *Doc) ColumnUnit(c SweepColumn, q units.Quantity) units.Unit {
+	if c.U {
+		c.U = false
+		return diffUnit(d.ColumnUnit(c, q))
+	}
 	if c.HasUnit {
 		return c.Unit
 	}

@@ -201,3 +201,26 @@ func TestUncertaintyErrors(t *testing.T) {
 func qv(v any) float64 {
 	return v.(units.Quantity).V
 }
+
+// A sweep's u(NAME) column at the calc's own point is the propagated
+// uncertainty, to the bit; elsewhere it differs as the coefficients do.
+func TestSweepUncertaintyColumn(t *testing.T) {
+	d := evalSrc(t, "```calc\np_1 = 12 MPa ± 0.05 MPa\nT_1 = 540 degC ± 1 K (k=2)\nT_2 [degC] = water(p_1, water(p_1, T_1).h - 400 kJ/kg).T\n```\n"+
+		"```sweep\nvary p_1 over [8 MPa, 12 MPa]\nshow T_2, u(T_2)\n```\n")
+	sw := d.Sweeps[0]
+	want, _ := d.Unc.U("T_2")
+	if got := sw.Rows[1][1].V; got != want {
+		t.Errorf("u(T_2) at p_1 = 12 MPa: %.17g in the sweep, %.17g propagated", got, want)
+	}
+	if sw.Rows[0][1].V == want || !(sw.Rows[0][1].V > 0) {
+		t.Errorf("u(T_2) at p_1 = 8 MPa: %g; want a different positive value", sw.Rows[0][1].V)
+	}
+	if u := d.ColumnUnit(sw.Show[1], sw.Rows[0][1]); u.String() != "K" {
+		t.Errorf("u(T_2) is shown in %s, want K (a difference)", u)
+	}
+	bad := Read("/tmp/s.calc.md", []byte("```calc\na = 1 m\nb = 2 * a\n```\n```sweep\nvary a over [1 m, 2 m]\nshow u(b)\n```\n"))
+	bad.Evaluate()
+	if msg := bad.Errors.Format("s.calc.md", bad.Src); !strings.Contains(msg, "show u(b): b depends on no input with an uncertainty") {
+		t.Errorf("got %s", msg)
+	}
+}

@@ -64,6 +64,17 @@ func (d *Doc) allSensitivities(eng *eval.Engine, ins []*UncInput) []*sensRun {
 // readCorr fills the correlation matrix from the corr lines and checks
 // that it is positive semi-definite.
 func (d *Doc) readCorr(p *Propagation, index map[string]int) bool {
+	last := d.fillCorr(p, index)
+	if _, ok := cholesky(p.Corr); !ok {
+		d.errorf(last, "the correlations are not consistent: their matrix is not positive semi-definite (for example corr(a, b) = 0.9, corr(b, c) = 0.9 and corr(a, c) = -0.9 cannot all hold); check the corr lines")
+		return false
+	}
+	return true
+}
+
+// fillCorr fills the correlation matrix from the corr lines and returns
+// the offset of the last one.
+func (d *Doc) fillCorr(p *Propagation, index map[string]int) int {
 	n := len(p.Inputs)
 	p.Corr = make([][]float64, n)
 	p.CorrAt = make([]int, n*n)
@@ -86,11 +97,7 @@ func (d *Doc) readCorr(p *Propagation, index map[string]int) bool {
 		p.CorrAt[i*n+j], p.CorrAt[j*n+i] = it.Stmt.ExprOff, it.Stmt.ExprOff
 		last = it.Stmt.ExprOff
 	}
-	if _, ok := cholesky(p.Corr); !ok {
-		d.errorf(last, "the correlations are not consistent: their matrix is not positive semi-definite (for example corr(a, b) = 0.9, corr(b, c) = 0.9 and corr(a, c) = -0.9 cannot all hold); check the corr lines")
-		return false
-	}
-	return true
+	return last
 }
 
 // cholesky returns the lower factor L of a positive semi-definite matrix
