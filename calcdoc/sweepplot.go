@@ -118,6 +118,7 @@ func (d *Doc) drawSweepPlot(sw *Sweep, pl sweepPlot) ([]byte, *plotError) {
 			s.X, s.Y = append(s.X, xv), append(s.Y, yv)
 		}
 		p.Series = append(p.Series, s)
+		p.Series = append(p.Series, d.bandSeries(sw, name, s, yu)...)
 		names = append(names, nameRuns(name))
 	}
 	if pl.limit.text != "" {

@@ -206,7 +206,7 @@ func qv(v any) float64 {
 // uncertainty, to the bit; elsewhere it differs as the coefficients do.
 func TestSweepUncertaintyColumn(t *testing.T) {
 	d := evalSrc(t, "```calc\np_1 = 12 MPa ± 0.05 MPa\nT_1 = 540 degC ± 1 K (k=2)\nT_2 [degC] = water(p_1, water(p_1, T_1).h - 400 kJ/kg).T\n```\n"+
-		"```sweep\nvary p_1 over [8 MPa, 12 MPa]\nshow T_2, u(T_2)\n```\n")
+		"```sweep\nvary p_1 over [8 MPa, 12 MPa]\nshow T_2, u(T_2)\nplot T_2\n```\n")
 	sw := d.Sweeps[0]
 	want, _ := d.Unc.U("T_2")
 	if got := sw.Rows[1][1].V; got != want {
@@ -214,6 +214,9 @@ func TestSweepUncertaintyColumn(t *testing.T) {
 	}
 	if sw.Rows[0][1].V == want || !(sw.Rows[0][1].V > 0) {
 		t.Errorf("u(T_2) at p_1 = 8 MPa: %g; want a different positive value", sw.Rows[0][1].V)
+	}
+	if len(sw.SVGs) != 1 || !strings.Contains(string(sw.SVGs[0]), "± U (k = 2)") {
+		t.Error("the plot of T_2 has no band T_2 ± U")
 	}
 	if u := d.ColumnUnit(sw.Show[1], sw.Rows[0][1]); u.String() != "K" {
 		t.Errorf("u(T_2) is shown in %s, want K (a difference)", u)

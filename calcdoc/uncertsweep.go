@@ -4,6 +4,7 @@ import (
 	"strings"
 
 	"github.com/vouchcalc/vouch/eval"
+	"github.com/vouchcalc/vouch/svgplot"
 	"github.com/vouchcalc/vouch/units"
 )
 
@@ -60,4 +61,31 @@ func (d *Doc) uncColumn(f *eval.Engine, sw *Sweep, c SweepColumn, i int, q *unit
 	}
 	*q = units.Quantity{V: u, D: q.D}
 	return ""
+}
+
+// bandK is the coverage factor of the band drawn around a plotted result.
+const bandK = 2
+
+// bandSeries draws y ± U (k = 2) around a plotted result when the sweep
+// also shows u(NAME): two dashed lines sharing one legend row.
+func (d *Doc) bandSeries(sw *Sweep, name string, s svgplot.Series, yu units.Unit) []svgplot.Series {
+	col := -1
+	for j, c := range sw.Show {
+		if c.U && c.Name == name {
+			col = j
+		}
+	}
+	if col < 0 || len(s.Y) != len(sw.Rows) {
+		return nil
+	}
+	label := joinText("", nameRuns(name), svgplot.Plain(" ± U (k = 2)"))
+	up := svgplot.Series{Name: name + " ± U (k = 2)", Label: label, Style: svgplot.Dashed}
+	lo := up
+	du := diffUnit(yu)
+	for i, y := range s.Y {
+		U := bandK * sw.Rows[i][col].V / du.Factor
+		up.X, up.Y = append(up.X, s.X[i]), append(up.Y, y+U)
+		lo.X, lo.Y = append(lo.X, s.X[i]), append(lo.Y, y-U)
+	}
+	return []svgplot.Series{up, lo}
 }
