@@ -282,10 +282,10 @@ func (d *Doc) equation(it *Item) []string {
 	}
 	head := formula
 	if s.Kind == eval.Def {
-		head = nameMathML(s.Name) + "<mo>=</mo>" + formula
+		head = nameMathML(s.Name) + "<mo>=</mo>" + formula + uncMathML(s)
 	}
 	if s.IsLiteralInput() || (s.IsPlainNumber() && !s.HasDisplayUnit()) {
-		return []string{head + uncMathML(s)} // an input: the value as written is the result
+		return []string{head} // an input: the value as written is the result
 	}
 	var rest []string
 	if len(s.Deps()) > 0 && !s.IsLoneName() {

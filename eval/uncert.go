@@ -103,7 +103,7 @@ func (s *Stmt) splitUncertainty() (text string, off int, e *Error) {
 func (s *Stmt) parseUncertainty(text string, off int, ctx units.Context) *Error {
 	var in units.Quantity
 	switch l := s.LoneLiteral(); {
-	case l != nil && s.IsLiteralInput():
+	case l != nil:
 		in = l.Q
 	case s.IsPlainNumber():
 		in = units.Num(0)

@@ -24,6 +24,7 @@ func TestParseUncertainty(t *testing.T) {
 		{"T_1 = 540 degC ± 0.9 Fdeg", UncStandard, 0.5, "standard"},
 		{"eta = 0.85 ± 0.01", UncStandard, 0.01, "standard"},
 		{"eta = 0.85 ± 0.01 rect", UncRect, 0.01 / math.Sqrt(3), "rectangular, half-width"},
+		{"p_1 [bar] = 12.5 MPa ± 0.05 MPa", UncStandard, 0.05e6, "standard"},
 	}
 	for _, c := range cases {
 		s, errs := ParseLine(c.line, 0, 1, ctx)
@@ -38,7 +39,7 @@ func TestParseUncertainty(t *testing.T) {
 		if strings.Contains(s.Expr, "±") || strings.Contains(s.Expr, "+/-") || strings.HasSuffix(s.Expr, " ") {
 			t.Errorf("%q: expression %q keeps the uncertainty", c.line, s.Expr)
 		}
-		if !s.IsLiteralInput() && !s.IsPlainNumber() {
+		if s.LoneLiteral() == nil && !s.IsPlainNumber() {
 			t.Errorf("%q: no longer an input", c.line)
 		}
 	}
