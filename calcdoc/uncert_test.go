@@ -227,3 +227,30 @@ func TestSweepUncertaintyColumn(t *testing.T) {
 		t.Errorf("got %s", msg)
 	}
 }
+
+// A coefficient that changes when its step is halved is refined, and
+// noted in the budget when it does not settle: y jumps at a point just
+// above x.
+func TestSensitivityStepCheck(t *testing.T) {
+	src := "```calc\nx = 1 ± 0.01\ny = x < %s ? 2 * x : 3 * x + 1\n```\n```budget\ny\n```\n"
+	// the jump at 1.0003 is inside ±h and ±h/2 (h = 0.001) but not ±h/4:
+	// settled after two more halvings, at the slope 2
+	d := evalSrc(t, sprintf(src, "1.0003"))
+	row := d.Budgets[0].Entries[0].Rows[0]
+	if !row.Coef.Stable || math.Abs(row.Coef.C-2) > 1e-9 || row.Coef.Step != 0.001/8 {
+		t.Errorf("jump at 1.0003: %+v, want c = 2, stable, at the step 0.001/8", row.Coef)
+	}
+	// the jump at 1.000001 stays inside the finest step: noted
+	d = evalSrc(t, sprintf(src, "1.000001"))
+	row = d.Budgets[0].Entries[0].Rows[0]
+	if row.Coef.Stable {
+		t.Errorf("jump at 1.000001: %+v, want a coefficient noted as not settled", row.Coef)
+	}
+	pkg, err := d.Render(RenderOptions{Engine: "test"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(pkg.HTML), "changed by") {
+		t.Error("the budget does not note the step-sensitive coefficient")
+	}
+}
