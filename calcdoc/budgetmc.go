@@ -121,6 +121,7 @@ func (d *Doc) mcBlock(eng *eval.Engine, redo map[string]bool, items []*Item, nam
 	rng := rand.New(rand.NewPCG(mcSeed, uint64(b)))
 	n := len(ins)
 	z, x := make([]float64, n), make([]units.Quantity, n)
+	var f *eval.Engine
 	for k := b * mcBlock; k < min((b+1)*mcBlock, len(ys)); k++ {
 		for i := 0; i < n; i += 2 {
 			z0, z1 := normalPair(rng)
@@ -141,9 +142,18 @@ func (d *Doc) mcBlock(eng *eval.Engine, redo map[string]bool, items []*Item, nam
 			}
 			x[i].V += float64(m.in.U * s)
 		}
-		f, bad, err := d.perturbed(eng, redo, items, names, x)
-		if err != nil {
-			return sprintf("draw %d fails: line %d: %s", k+1, bad.Stmt.Line, evalMsg(err))
+		if f == nil {
+			f = eng.Fork(redo)
+		} else {
+			f.Refork(eng, redo) // one engine per block: no fresh memory per draw
+		}
+		for i, n := range names {
+			f.Set(n, x[i])
+		}
+		for _, it := range items {
+			if _, err := f.Exec(it.Stmt); err != nil {
+				return sprintf("draw %d fails: line %d: %s", k+1, it.Stmt.Line, evalMsg(err))
+			}
 		}
 		v, _ := f.Value(name)
 		q, _ := v.(units.Quantity)
