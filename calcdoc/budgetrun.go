@@ -27,6 +27,10 @@ func (d *Doc) runBudgets(eng *eval.Engine) {
 				d.sensitivityTable(eng, e)
 				continue
 			}
+			if it.Stmt.Uncertainty() != nil {
+				d.errorf(e.Off, "budget %s: %s is an input, whose uncertainty is stated on line %d; a budget is made for a result computed from inputs", e.Name, e.Name, it.Stmt.Line)
+				continue
+			}
 			if !d.gumBudget(e) {
 				continue
 			}

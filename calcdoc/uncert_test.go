@@ -185,6 +185,9 @@ func TestUncertaintyErrors(t *testing.T) {
 		base + "```\n```budget\nc\n```\n":                   "c depends on no input with an uncertainty",
 		base + "```\n```budget\ny mc 2000000\n```\n":        "at most 1000000 draws are allowed",
 		base + "```\n```budget\ny k=-1\n```\n":              "the coverage factor k must be a number above zero",
+		base + "```\n```budget\na\n```\n":                   "budget a: a is an input, whose uncertainty is stated on line 2",
+		base + "```\n```budget\nzz\n```\n":                  "budget zz: the calc does not define zz",
+		base + "```\n```budget\nsensitivity a\n```\n":       "sensitivity a: a depends on no input of the calc",
 		"```calc\na = 1 ± 0.1\nb = 1 ± 0.1\nc = 1 ± 0.1\ncorr(a, b) = 0.9\ncorr(b, c) = 0.9\ncorr(a, c) = -0.9\n```\n": "not positive semi-definite",
 	}
 	for src, want := range cases {
