@@ -257,3 +257,25 @@ func TestSensitivityStepCheck(t *testing.T) {
 		t.Error("the budget does not note the step-sensitive coefficient")
 	}
 }
+
+// Through solve(): y^3 + y = a gives dy/da = 1/(3y² + 1) (implicit
+// differentiation); held to the solver's tolerance, 1e-6 relative. And
+// through a property call: T_sat of an uncertain pressure, against the
+// slope of the saturation line from the same formulation at ±1 kPa
+// (Clausius–Clapeyron would be a second, looser check).
+func TestPropagationThroughSolveAndProperties(t *testing.T) {
+	d := evalSrc(t, "```calc\na = 10 ± 0.1\ny = solve(y^3 + y == a, 0, 5)\n```\n")
+	v, _ := d.engine.Value("y")
+	y := qv(v)
+	u, _ := d.Unc.U("y")
+	near(t, "u(y) through solve", u, 0.1/(3*y*y+1), 1e-6)
+
+	d = evalSrc(t, "```calc\np = 1 MPa ± 0.01 MPa\nT_s = water_sat(p).T\n```\n")
+	u, _ = d.Unc.U("T_s")
+	hi := evalSrc(t, "```calc\nT_s = water_sat(1.001 MPa).T\n```\n")
+	lo := evalSrc(t, "```calc\nT_s = water_sat(0.999 MPa).T\n```\n")
+	vh, _ := hi.engine.Value("T_s")
+	vl, _ := lo.engine.Value("T_s")
+	slope := (qv(vh) - qv(vl)) / 2e3
+	near(t, "u(T_s) through water_sat", u, slope*1e4, 1e-6)
+}
