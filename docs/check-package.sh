@@ -8,7 +8,8 @@
 # the manifest file beside it), recomputes the canonical JSON and its
 # SHA-256 digest (the manifest without "signatures"), checks the results
 # digest, rebuilds each standing signature's payload (six lines, each ended
-# by a newline) and runs
+# by a newline, and a checker's method of checking on up to four more lines
+# before the last) and runs
 #
 #   ssh-keygen -Y verify -f ALLOWED_SIGNERS -I PRINCIPAL -n calc-package@vouch
 #              -s SIG -Overify-time=SIGNING-TIME [-r REVOKED_KEYS] < PAYLOAD
@@ -109,8 +110,13 @@ for i, s in enumerate(manifest.get("signatures", [])):
     payload = ("vouch-signature/1\n" + "role: " + s["role"] + "\n" +
                "signer: " + s["name"] + " <" + s["principal"] + ">\n" +
                "signed: " + s.get("signed", "") + "\n" +
-               "attestation: " + s.get("attestation", "") + "\n" +
-               "manifest-sha256: " + digest + "\n")
+               "attestation: " + s.get("attestation", "") + "\n")
+    # A checker's method of checking: a line for each field that is set.
+    for key, field in (("method", "method"), ("method-ref", "method_ref"),
+                       ("report", "report"), ("report-sha256", "report_sha256")):
+        if s.get(field):
+            payload += key + ": " + s[field] + "\n"
+    payload += "manifest-sha256: " + digest + "\n"
     d = os.path.join(work, "sig%d" % i)
     os.mkdir(d)
     for name, value in (("role", s["role"]), ("principal", s["principal"]),

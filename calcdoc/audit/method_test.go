@@ -103,7 +103,7 @@ func TestCheckerMethod(t *testing.T) {
 		t.Errorf("verify passes with a changed report:\n%s", rep)
 	}
 	cover := stdhtml.UnescapeString(string(r.Read("calcs/fp.html")))
-	if !strings.Contains(cover, "method of checking (recorded with the signature, not signed): alternate calculation calcs/fp-alt.calc.md at commit "+head[:12]+"; comparison report calcs/fp-compare.html (SHA-256 "+c.ReportSHA256[:12]+"…)") {
+	if !strings.Contains(cover, "method of checking (signed): alternate calculation calcs/fp-alt.calc.md at commit "+head[:12]+"; comparison report calcs/fp-compare.html (SHA-256 "+c.ReportSHA256[:12]+"…)") {
 		t.Error("the cover does not show the method of checking")
 	}
 	w, _, err := Sign(pkg, SignOptions{Role: "checker", Withdraw: true, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})

@@ -144,13 +144,22 @@ func TestSignatureInteroperability(t *testing.T) {
 
 			signed := provenance.FormatSigningTime(time.Now().Add(-time.Minute))
 			payload, _ = m.Payload(provenance.Signature{Role: "checker", Name: "C. Reader", Principal: checkerEmail,
-				Signed: signed, Attestation: "I checked the inputs and their sources, the method, the arithmetic and the units, and every review comment on this calculation is resolved."})
+				Signed: signed, Attestation: "I checked the inputs and their sources, the method, the arithmetic and the units, and every review comment on this calculation is resolved.",
+				Method: provenance.MethodTest, MethodRef: "TR-7 rev B (fictional pump test)"})
+			if !strings.Contains(string(payload), "\nmethod: test\nmethod-ref: TR-7 rev B (fictional pump test)\nmanifest-sha256: ") {
+				t.Fatalf("payload lacks the method of checking:\n%s", payload)
+			}
 			sig := keygenSign(t, chk.path, payload)
+			if _, _, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, Signed: signed, Method: CheckMethod{Method: "review"},
+				VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}}); err == nil {
+				t.Fatal("a signature attached with another method of checking than its payload's was accepted")
+			}
 			other := provenance.FormatSigningTime(time.Now().Add(-2 * time.Minute))
 			if _, _, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, Signed: other, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}}); err == nil {
 				t.Fatal("a signature attached with another signing time than its payload's was accepted")
 			}
-			s, rep, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, Signed: signed, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})
+			s, rep, err := Sign(pkg, SignOptions{Role: "checker", Signature: sig, Signed: signed, Method: CheckMethod{Method: "test", Document: "TR-7 rev B (fictional pump test)"},
+				VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})
 			if err != nil {
 				t.Fatalf("attach ssh-keygen signature: %v\n%v", err, rep)
 			}
@@ -158,6 +167,26 @@ func TestSignatureInteroperability(t *testing.T) {
 			if rep := verifyPkg(t, pkg, signers); !rep.OK() || rep.Status != "CHECKED" {
 				t.Fatalf("verify with an ssh-keygen signature:\n%s", rep)
 			}
+
+			// A checker's signature vouch makes, with its method, verifies with ssh-keygen.
+			w, _, err := Sign(pkg, SignOptions{Role: "checker", Withdraw: true, VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})
+			if err != nil {
+				t.Fatal(err)
+			}
+			writePkg(t, pkg, w.HTML)
+			s, _, err = Sign(pkg, SignOptions{Role: "checker", Key: chk.path, Method: CheckMethod{Method: "test", Document: "TR-8 (fictional)"},
+				VerifyOptions: VerifyOptions{Engine: "test", Signers: signers}})
+			if err != nil {
+				t.Fatal(err)
+			}
+			payload, _ = m.Payload(s.Signature)
+			if !strings.Contains(string(payload), "\nmethod: test\nmethod-ref: TR-8 (fictional)\n") {
+				t.Fatalf("payload lacks the method of checking:\n%s", payload)
+			}
+			if ok, out := keygenVerify(t, signers, checkerEmail, payload, []byte(s.Signature.Signature)); !ok {
+				t.Fatalf("ssh-keygen -Y verify refused vouch's checker signature:\n%s", out)
+			}
+			writePkg(t, pkg, s.HTML)
 
 			wrong := keygenSign(t, chk.path, []byte(strings.Replace(string(payload), "checker", "approver", 1)))
 			_, _, err = Sign(pkg, SignOptions{Role: "approver", Signature: wrong, Signed: signed, VerifyOptions: VerifyOptions{Engine: "test"}})

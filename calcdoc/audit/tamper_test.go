@@ -183,3 +183,33 @@ func TestHeadMovedOn(t *testing.T) {
 		}
 	}
 }
+
+// TestTamperCheckMethod: the checker's method of checking is signed, so
+// editing it in the manifest of a signed package fails the checker's
+// signature, in verify and in the script that checks without vouch.
+func TestTamperCheckMethod(t *testing.T) {
+	for name, edit := range map[string]func(*provenance.Signature){
+		"method": func(s *provenance.Signature) {
+			s.Method, s.MethodRef = provenance.MethodTest, "TR-7 rev B (fictional pump test)"
+		},
+		"no method": func(s *provenance.Signature) { s.Method = "" },
+	} {
+		t.Run(name, func(t *testing.T) {
+			s := newSignedRepo(t)
+			m, _ := ManifestOf(s.Read("calcs/fp.html"))
+			if m.Signatures[1].Method != provenance.MethodReview {
+				t.Fatalf("the checker's signature records method %q, want review", m.Signatures[1].Method)
+			}
+			edit(&m.Signatures[1])
+			rewriteManifest(t, s.pkg, m)
+			rep := verifyPkg(t, s.pkg, s.signers)
+			failsWith(t, rep, "checker", "checker signature of checker@example.com", "signature does not verify")
+			if rep.Status != "PREPARED" {
+				t.Errorf("status %s, want PREPARED", rep.Status)
+			}
+			if out, ok := runCheckScript(t, s.pkg, s.signers); ok || !strings.Contains(out, "FAIL checker") || !strings.Contains(out, "ok   preparer") {
+				t.Errorf("the script passes an edited method of checking:\n%s", out)
+			}
+		})
+	}
+}

@@ -405,3 +405,45 @@ func TestManifestOptionalFields(t *testing.T) {
 		t.Error("an unknown key in engine_build is accepted")
 	}
 }
+
+// TestPayloadMethodOfChecking: a checker's method of checking adds its
+// lines between attestation and manifest-sha256, each only when set; a
+// signature without one keeps the six lines; a field that would break the
+// lines, or a reference without a method, is refused.
+func TestPayloadMethodOfChecking(t *testing.T) {
+	m := sampleManifest(t)
+	d, _ := m.Digest()
+	s := Signature{Role: "checker", Principal: "checker@example.com", Name: "C. Reader",
+		Signed: "2026-03-14T09:26:53Z", Attestation: "I checked it.", Method: MethodAlternate,
+		MethodRef: "calcs/fp-alt.calc.md@" + strings.Repeat("b", 40), Report: "calcs/fp-compare.html", ReportHash: strings.Repeat("c", 64)}
+	head := "vouch-signature/1\nrole: checker\nsigner: C. Reader <checker@example.com>\n" +
+		"signed: 2026-03-14T09:26:53Z\nattestation: I checked it.\n"
+	for _, tt := range []struct {
+		edit  func(*Signature)
+		lines string
+	}{
+		{func(*Signature) {}, "method: alternate\nmethod-ref: calcs/fp-alt.calc.md@" + strings.Repeat("b", 40) +
+			"\nreport: calcs/fp-compare.html\nreport-sha256: " + strings.Repeat("c", 64) + "\n"},
+		{func(x *Signature) { x.Method, x.MethodRef, x.Report, x.ReportHash = MethodTest, "TR-7 rev B", "", "" }, "method: test\nmethod-ref: TR-7 rev B\n"},
+		{func(x *Signature) { x.Method, x.MethodRef, x.Report, x.ReportHash = MethodReview, "", "", "" }, "method: review\n"},
+		{func(x *Signature) { x.Method, x.MethodRef, x.Report, x.ReportHash = "", "", "", "" }, ""},
+	} {
+		x := s
+		tt.edit(&x)
+		got, err := m.Payload(x)
+		if want := head + tt.lines + "manifest-sha256: " + d + "\n"; err != nil || string(got) != want {
+			t.Errorf("Payload = %q, %v\nwant %q", got, err, want)
+		}
+	}
+	for name, edit := range map[string]func(*Signature){
+		"reference two lines":   func(x *Signature) { x.MethodRef = "TR-7\nrev B" },
+		"blank-padded method":   func(x *Signature) { x.Method = "review " },
+		"report without method": func(x *Signature) { x.Method = "" },
+	} {
+		x := s
+		edit(&x)
+		if _, err := m.Payload(x); !errors.Is(err, ErrManifest) {
+			t.Errorf("%s: got %v, want ErrManifest", name, err)
+		}
+	}
+}

@@ -3,6 +3,7 @@ package provenance
 import (
 	"fmt"
 	"strings"
+	"unicode/utf8"
 )
 
 // The methods of checking a checker's signature records.
@@ -24,6 +25,39 @@ func addCheckMethod(o jsonObject, s Signature) {
 			o[k] = v
 		}
 	}
+}
+
+// methodFields lists a signature's method of checking as its payload
+// lines name them, in their order.
+func methodFields(s Signature) [][2]string {
+	return [][2]string{{"method", s.Method}, {"method-ref", s.MethodRef}, {"report", s.Report}, {"report-sha256", s.ReportHash}}
+}
+
+// methodLines are the payload's lines for the method of checking: one
+// "KEY: VALUE" line for each field that is set, "" when none is.
+func methodLines(s Signature) string {
+	var b strings.Builder
+	for _, f := range methodFields(s) {
+		if f[1] != "" {
+			b.WriteString(f[0] + ": " + f[1] + "\n")
+		}
+	}
+	return b.String()
+}
+
+// checkMethodFields checks the method of checking's fields that go into
+// the payload: each set one is one line of text without leading or
+// trailing blanks, and references come only with a method.
+func checkMethodFields(s Signature) error {
+	for _, f := range methodFields(s) {
+		if f[1] != "" && (f[1] != strings.TrimSpace(f[1]) || strings.ContainsAny(f[1], "\r\n") || !utf8.ValidString(f[1])) {
+			return fmt.Errorf("%w: the %s signature's %s %q must be one line of text without leading or trailing blanks", ErrManifest, s.Role, f[0], clip(f[1]))
+		}
+	}
+	if s.Method == "" && methodLines(s) != "" {
+		return fmt.Errorf("%w: the %s signature records a method-ref, report or report-sha256 without a method of checking", ErrManifest, s.Role)
+	}
+	return nil
 }
 
 // MethodText describes a signature's method of checking for a reader, ""

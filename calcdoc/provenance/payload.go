@@ -19,12 +19,22 @@ const PayloadFormat = "vouch-signature/1"
 //	attestation: TEXT
 //	manifest-sha256: DIGEST
 //
+// A signature that records a method of checking (a checker's, method.go)
+// has up to four more lines between attestation and manifest-sha256, each
+// only when its field is set, in this order:
+//
+//	method: METHOD
+//	method-ref: REFERENCE
+//	report: REPORT PATH
+//	report-sha256: REPORT DIGEST
+//
 // ROLE is s.Role, NAME and PRINCIPAL are s.Name and s.Principal, the
 // signing time is s.Signed (SigningTimeLayout, UTC to the second), TEXT is
 // s.Attestation and DIGEST is the manifest's Digest in hex. Each value is
 // one line of UTF-8 text without leading or trailing blanks. Binding the
-// role, the signer, the time and the attestation stops a signature from
-// being relabelled or moved to another person, time or meaning. A reader
+// role, the signer, the time, the attestation and the method of checking
+// stops a signature from being relabelled or moved to another person,
+// time, meaning or method. A reader
 // can rebuild the payload with printf and check a signature with
 // ssh-keygen -Y verify -n calc-package@vouch.
 func (m *Manifest) Payload(s Signature) ([]byte, error) {
@@ -41,6 +51,7 @@ func (m *Manifest) Payload(s Signature) ([]byte, error) {
 	b.WriteString("signer: " + s.Name + " <" + s.Principal + ">\n")
 	b.WriteString("signed: " + s.Signed + "\n")
 	b.WriteString("attestation: " + s.Attestation + "\n")
+	b.WriteString(methodLines(s))
 	b.WriteString("manifest-sha256: " + d + "\n")
 	return []byte(b.String()), nil
 }
@@ -67,7 +78,7 @@ func payloadFields(s Signature) error {
 			return fmt.Errorf("%w: the %s signature's %s %q must be one line of text, not empty, without leading or trailing blanks", ErrManifest, s.Role, f.name, clip(f.v))
 		}
 	}
-	return nil
+	return checkMethodFields(s)
 }
 
 // addSigningRecord adds a signature's signing time, attestation and

@@ -179,7 +179,8 @@ func TestManifestSignAndVerify(t *testing.T) {
 	}
 	m := sampleManifest(t)
 	s, err := m.SignAs(Signature{Role: "checker", Principal: signerEmail, Name: "C. Reader",
-		Date: "2025-03-04T05:06:07Z", Signed: "2025-03-05T10:11:12Z", Attestation: "I checked it."}, signer)
+		Date: "2025-03-04T05:06:07Z", Signed: "2025-03-05T10:11:12Z", Attestation: "I checked it.",
+		Method: MethodTest, MethodRef: "TR-7 rev B (fictional pump test)"}, signer)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -196,6 +197,9 @@ func TestManifestSignAndVerify(t *testing.T) {
 		"moved to another time":  func(x *Signature) { x.Signed = "2025-03-06T10:11:12Z" },
 		"given another meaning":  func(x *Signature) { x.Attestation = "I approve it." },
 		"moved to another name":  func(x *Signature) { x.Name = "P. Writer" },
+		"another method":         func(x *Signature) { x.Method = MethodReview },
+		"another test document":  func(x *Signature) { x.MethodRef = "TR-8 rev A" },
+		"method dropped":         func(x *Signature) { x.Method, x.MethodRef = "", "" },
 	} {
 		changed := s
 		edit(&changed)
@@ -212,6 +216,30 @@ func TestManifestSignAndVerify(t *testing.T) {
 	m.ResultsDigest, _ = ResultsDigest(m.Results)
 	if _, err := m.VerifySignature(s); !errors.Is(err, ErrBadSignature) {
 		t.Fatalf("edited result: got %v, want ErrBadSignature", err)
+	}
+}
+
+// TestUnsignedMethodNamed: a signature made over the payload without the
+// method of checking (as an earlier vouch made them, with the method only
+// recorded beside it) fails, and the error says why.
+func TestUnsignedMethodNamed(t *testing.T) {
+	signer, err := LoadSigner(genKey(t, "ed25519", "", ""))
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := sampleManifest(t)
+	s, err := m.SignAs(Signature{Role: "checker", Principal: signerEmail, Name: "C. Reader",
+		Date: "2025-03-04T05:06:07Z", Signed: "2025-03-05T10:11:12Z", Attestation: "I checked it."}, signer)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.Method = MethodReview
+	if _, err := m.VerifySignature(s); !errors.Is(err, ErrBadSignature) || !strings.Contains(err.Error(), "without the method of checking") {
+		t.Fatalf("a signature that leaves the method unsigned: got %v", err)
+	}
+	s.Attestation = "I approve it."
+	if _, err := m.VerifySignature(s); !errors.Is(err, ErrBadSignature) || strings.Contains(err.Error(), "method") {
+		t.Fatalf("a signature over another payload: got %v", err)
 	}
 }
 
