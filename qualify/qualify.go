@@ -63,7 +63,8 @@ type Summary struct {
 }
 
 // Report is the whole qualification record. Digest is the SHA-256 of the
-// report's canonical JSON (CanonicalJSON) with Digest empty.
+// report's canonical JSON (CanonicalJSON) with Digest empty and without
+// Signatures, the firm's signatures of the report (signature.go).
 type Report struct {
 	Format  string          `json:"format"`
 	Engine  engine.Identity `json:"engine"`
@@ -72,6 +73,9 @@ type Report struct {
 	Groups  []string        `json:"groups"`
 	Checks  []Check         `json:"checks"`
 	Digest  string          `json:"digest_sha256"`
+	// Signatures are written only when there are any, so an unsigned
+	// report keeps its bytes.
+	Signatures []Signature `json:"signatures,omitempty"`
 }
 
 // FormatName names the report's JSON format and its version.
@@ -182,10 +186,10 @@ func (r *Report) CanonicalJSON() []byte {
 }
 
 // ComputeDigest returns the hex SHA-256 of the canonical JSON of the report
-// with its Digest field empty.
+// with its Digest field empty and without its signatures.
 func (r *Report) ComputeDigest() string {
 	c := *r
-	c.Digest = ""
+	c.Digest, c.Signatures = "", nil
 	sum := sha256.Sum256(c.CanonicalJSON())
 	return hex.EncodeToString(sum[:])
 }

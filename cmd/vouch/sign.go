@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/audit"
@@ -21,12 +22,25 @@ func cmdSign(args []string, stdout, stderr io.Writer) int {
 	signedAt := fs.String("signed", "", "with --signature: the signing time its payload holds, as 2026-03-14T09:26:53Z")
 	withdraw := fs.Bool("withdraw", false, "withdraw the role's standing signature (it stays in the manifest, marked withdrawn)")
 	method := checkMethodFlags(fs)
+	signer := fs.String("signer", "", `a qualification report's signer, as "NAME <E-MAIL>"`)
 	files, err := parseArgs(fs, args)
 	if err != nil {
 		return exitUsage
 	}
 	if len(files) != 1 || *role == "" {
 		fmt.Fprintln(stderr, "usage: vouch sign PACKAGE.html --role preparer|checker|approver [--key KEYFILE | --signature FILE --signed TIME | --withdraw] [--signers FILE] [--repo DIR]")
+		fmt.Fprintln(stderr, `       vouch sign qualification.html --role ROLE --key KEYFILE --signer "NAME <E-MAIL>" [--signers FILE]`)
+		return exitUsage
+	}
+	if html, json, ok := qualificationFiles(files[0]); ok {
+		if *sigFile != "" || *signedAt != "" || *withdraw || *repo != "" || *method.method+*method.alternate+*method.document+*method.report != "" {
+			fmt.Fprintln(stderr, "vouch: sign: a qualification report is signed with --role, --key, --signer and --signers only")
+			return exitUsage
+		}
+		return signQualification(html, json, qualificationSign{role: *role, key: *key, signer: *signer, signers: *signers, now: time.Now()}, stdout, stderr)
+	}
+	if *signer != "" {
+		fmt.Fprintln(stderr, "vouch: sign: --signer is for a qualification report; a package is signed as the person its front matter names for the role")
 		return exitUsage
 	}
 	if msg := signFlagConflict(*key, *sigFile, *signedAt, *withdraw); msg != "" {

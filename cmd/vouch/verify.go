@@ -16,8 +16,15 @@ func cmdVerify(args []string, stdout, stderr io.Writer) int {
 		return exitUsage
 	}
 	if len(files) != 1 {
-		fmt.Fprintln(stderr, "usage: vouch verify PACKAGE.html [--signers FILE] [--repo DIR]")
+		fmt.Fprintln(stderr, "usage: vouch verify PACKAGE.html|qualification.html [--signers FILE] [--repo DIR]")
 		return exitUsage
+	}
+	if html, json, ok := qualificationFiles(files[0]); ok {
+		if *repo != "" {
+			fmt.Fprintln(stderr, "vouch: verify: a qualification report needs no repository; --repo is for packages")
+			return exitUsage
+		}
+		return verifyQualification(html, json, *signers, stdout, stderr)
 	}
 	opt, err := verifyOptions(*repo, *signers)
 	if err != nil {
