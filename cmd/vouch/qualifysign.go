@@ -158,8 +158,13 @@ func verifyQualification(html, json, signersPath string, stdout, stderr io.Write
 	if len(q.report.Signatures) == 0 {
 		fmt.Fprintln(stdout, "note signatures: the report is not signed")
 	}
+	seen := map[string]bool{}
 	for _, s := range q.report.Signatures {
 		holds, text := q.checkSignature(s, signers, time.Now())
+		if seen[s.Role] {
+			holds, text = false, "a second "+s.Role+" signature; a role is signed once"
+		}
+		seen[s.Role] = true
 		line(holds, s.Role, text)
 	}
 	if !ok {
