@@ -52,17 +52,33 @@ var opText = map[string]string{
 
 func (m *mathml) w(s string) { m.b.WriteString(s) }
 
+// text writes an element holding escaped text, piece by piece into the
+// one builder.
 func (m *mathml) text(tag, s string) {
-	m.w("<" + tag + ">" + html.EscapeString(s) + "</" + tag + ">")
+	m.w("<")
+	m.w(tag)
+	m.w(">")
+	m.w(html.EscapeString(s))
+	m.w("</")
+	m.w(tag)
+	m.w(">")
+}
+
+// boolText is how a truth value is written.
+func boolText(v bool) string {
+	if v {
+		return "true"
+	}
+	return "false"
 }
 
 // node writes one expression node.
 func (m *mathml) node(n eval.Node) {
 	switch v := n.(type) {
 	case *eval.Number:
-		m.w(numberMathML(v.Value, 15, true))
+		writeNumberMathML(&m.b, v.Value, 15, true)
 	case *eval.Bool:
-		m.text("mi", map[bool]string{true: "true", false: "false"}[v.Value])
+		m.text("mi", boolText(v.Value))
 	case *eval.Text:
 		m.text("mtext", "“"+v.Value+"”")
 	case *eval.Quantity:
@@ -97,7 +113,10 @@ func (m *mathml) literal(l *eval.Literal) {
 		m.value(l.Q, units.Unit{})
 		return
 	}
-	m.w("<mrow>" + numberMathML(parseNum(l.Num), 15, true) + unitMathML(l.Unit) + "</mrow>")
+	m.w("<mrow>")
+	writeNumberMathML(&m.b, parseNum(l.Num), 15, true)
+	m.w(unitMathML(l.Unit))
+	m.w("</mrow>")
 }
 
 // name writes a name, or (when substituting) its value.
@@ -113,7 +132,7 @@ func (m *mathml) name(name string) {
 				return
 			}
 			if isNumberInput(o) {
-				m.w(numberMathML(o.Value.(units.Quantity).V, 15, true))
+				writeNumberMathML(&m.b, o.Value.(units.Quantity).V, 15, true)
 				return
 			}
 			u := o.Display
@@ -141,9 +160,9 @@ func (m *mathml) value(v any, u units.Unit) {
 				u = celsius // an absolute temperature as engineers read it
 			}
 		}
-		m.w(quantityMathML(x, u, m.digits, m.ctx))
+		writeQuantityMathML(&m.b, x, u, m.digits, m.ctx)
 	case bool:
-		m.text("mi", map[bool]string{true: "true", false: "false"}[x])
+		m.text("mi", boolText(x))
 	case string:
 		m.text("mtext", "“"+x+"”")
 	case *eval.Table:
@@ -230,7 +249,9 @@ func (m *mathml) binary(v *eval.Binary) {
 	}
 	m.w("<mrow>")
 	m.child(v.L, p)
-	m.w("<mo>" + opText[v.Op] + "</mo>")
+	m.w("<mo>")
+	m.w(opText[v.Op])
+	m.w("</mo>")
 	right := p
 	if v.Op == "-" || v.Op == "<" || v.Op == ">" {
 		right = p + 1
@@ -258,7 +279,9 @@ func (m *mathml) field(v *eval.Field) {
 	if ofCall && eval.Node(v) == m.root && m.values != nil {
 		// The whole line is a field of a property call: show the call with
 		// its arguments' values; the result follows.
-		m.w("<mrow>" + nameMathML(v.Name) + "<mo>(</mo>")
+		m.w("<mrow>")
+		m.w(nameMathML(v.Name))
+		m.w("<mo>(</mo>")
 		m.node(v.X)
 		m.w("<mo>)</mo></mrow>")
 		return
@@ -271,7 +294,9 @@ func (m *mathml) field(v *eval.Field) {
 	}
 	k := m.kelvin
 	m.kelvin = false
-	m.w("<mrow>" + nameMathML(v.Name) + "<mo>(</mo>")
+	m.w("<mrow>")
+	m.w(nameMathML(v.Name))
+	m.w("<mo>(</mo>")
 	m.symbols(v.X)
 	m.w("<mo>)</mo></mrow>")
 	m.kelvin = k

@@ -1,6 +1,7 @@
 package calcdoc
 
 import (
+	"bytes"
 	"html"
 	"strconv"
 	"strings"
@@ -91,25 +92,39 @@ func nameText(name string) string {
 // 80000-1) in the integer part when it has five or more digits. Fractions
 // are left whole: "0.076 30" would read as two numbers.
 func groupDigits(s string) string {
-	sign := ""
+	intLen := len(s)
+	if i := strings.IndexByte(s, '.'); i >= 0 {
+		intLen = i
+	}
+	if intLen < 5 && !strings.HasPrefix(s, "-") {
+		return s // nothing to change: no sign, fewer than five integer digits
+	}
+	var b strings.Builder
+	writeGroupDigits(&b, s)
+	return b.String()
+}
+
+// writeGroupDigits is groupDigits written into b.
+func writeGroupDigits(b *strings.Builder, s string) {
 	if strings.HasPrefix(s, "-") {
-		sign, s = "−", s[1:]
+		b.WriteString("−")
+		s = s[1:]
 	}
 	intPart, frac, hasFrac := strings.Cut(s, ".")
 	if len(intPart) >= 5 {
-		var b strings.Builder
 		for i, c := range intPart {
 			if i > 0 && (len(intPart)-i)%3 == 0 {
 				b.WriteString("\u2009")
 			}
 			b.WriteRune(c)
 		}
-		intPart = b.String()
+	} else {
+		b.WriteString(intPart)
 	}
 	if hasFrac {
-		return sign + intPart + "." + frac
+		b.WriteString(".")
+		b.WriteString(frac)
 	}
-	return sign + intPart
 }
 
 // numberText formats a number with significant figures as an engineer
@@ -127,21 +142,37 @@ func numberText(v float64, digits int) string {
 // numberMathML writes a number: with significant figures, or exactly as the
 // shortest text that reads back to it when exact is set.
 func numberMathML(v float64, digits int, exact bool) string {
+	var b strings.Builder
+	writeNumberMathML(&b, v, digits, exact)
+	return b.String()
+}
+
+// writeNumberMathML is numberMathML written into b.
+func writeNumberMathML(b *strings.Builder, v float64, digits int, exact bool) {
 	var s string
 	if exact {
-		s = strconv.FormatFloat(v, 'g', -1, 64)
-		if strings.ContainsAny(s, "e") && v >= 1e-3 && v < 1e15 {
-			s = strconv.FormatFloat(v, 'f', -1, 64)
+		var buf [32]byte
+		t := strconv.AppendFloat(buf[:0], v, 'g', -1, 64)
+		if bytes.IndexByte(t, 'e') >= 0 && v >= 1e-3 && v < 1e15 {
+			t = strconv.AppendFloat(buf[:0], v, 'f', -1, 64)
 		}
+		s = string(t)
 	} else {
 		s = units.FormatSig(v, digits)
 	}
 	mant, exp, sci := strings.Cut(s, "e")
 	if !sci {
-		return "<mn>" + groupDigits(s) + "</mn>"
+		b.WriteString("<mn>")
+		writeGroupDigits(b, s)
+		b.WriteString("</mn>")
+		return
 	}
 	exp = strings.TrimPrefix(exp, "+")
-	return "<mrow><mn>" + groupDigits(mant) + "</mn><mo>×</mo><msup><mn>10</mn><mn>" + strings.Replace(exp, "-", "−", 1) + "</mn></msup></mrow>"
+	b.WriteString("<mrow><mn>")
+	writeGroupDigits(b, mant)
+	b.WriteString("</mn><mo>×</mo><msup><mn>10</mn><mn>")
+	b.WriteString(strings.Replace(exp, "-", "−", 1))
+	b.WriteString("</mn></msup></mrow>")
 }
 
 func parseNum(s string) float64 {
@@ -196,7 +227,27 @@ func quantityMathML(q units.Quantity, u units.Unit, digits int, ctx units.Contex
 		u = units.DefaultUnit(units.Quantity{V: q.V, D: q.D})
 		v = q.V / u.Factor
 	}
-	return "<mrow>" + numberMathML(v, digits, false) + unitMathML(u) + "</mrow>"
+	var b strings.Builder
+	writeQuantity(&b, v, u, digits)
+	return b.String()
+}
+
+// writeQuantityMathML is quantityMathML written into b.
+func writeQuantityMathML(b *strings.Builder, q units.Quantity, u units.Unit, digits int, ctx units.Context) {
+	v, err := q.In(u, ctx)
+	if err != nil {
+		u = units.DefaultUnit(units.Quantity{V: q.V, D: q.D})
+		v = q.V / u.Factor
+	}
+	writeQuantity(b, v, u, digits)
+}
+
+// writeQuantity writes a number already in unit u, and the unit.
+func writeQuantity(b *strings.Builder, v float64, u units.Unit, digits int) {
+	b.WriteString("<mrow>")
+	writeNumberMathML(b, v, digits, false)
+	b.WriteString(unitMathML(u))
+	b.WriteString("</mrow>")
 }
 
 // quantityText formats a quantity in a unit as HTML text: "3449 kJ/kg".
