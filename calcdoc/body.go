@@ -2,6 +2,7 @@ package calcdoc
 
 import (
 	"html"
+	"strconv"
 	"strings"
 
 	gast "github.com/yuin/goldmark/ast"
@@ -203,17 +204,21 @@ func (r *bodyRenderer) inline(w util.BufWriter, _ []byte, n gast.Node, entering 
 func (d *Doc) lineHTML(it *Item) string {
 	s, o := it.Stmt, it.Outcome
 	var b strings.Builder
-	class := "calc-line"
+	b.Grow(256 + 24*len(s.Expr)) // the MathML is many times its source
+	b.WriteString("<div class=\"calc-line")
 	if s.Kind == eval.Check {
-		class += " check"
+		b.WriteString(" check")
 	}
-	b.WriteString(sprintf("<div class=\"%s\" id=\"L%d\"><div class=\"ln\">%d</div><div>", class, s.Line, s.Line))
+	line := strconv.Itoa(s.Line)
+	b.WriteString("\" id=\"L" + line + "\"><div class=\"ln\">" + line + "</div><div>")
 	for i, line := range d.equation(it) {
-		class := ""
+		b.WriteString("<math display=\"block\"")
 		if i > 0 {
-			class = " class=\"cont\""
+			b.WriteString(" class=\"cont\"")
 		}
-		b.WriteString("<math display=\"block\"" + class + "><mrow>" + line + "</mrow></math>")
+		b.WriteString("><mrow>")
+		b.WriteString(line)
+		b.WriteString("</mrow></math>")
 	}
 	if s.Kind == eval.Check {
 		b.WriteString(verdictHTML(o.Pass))
@@ -337,6 +342,7 @@ func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]st
 		}
 	}
 	m.root = s.Syntax()
+	m.b.Grow(64 + 16*len(s.Expr))
 	m.node(m.root)
 	return m.b.String()
 }
@@ -347,7 +353,7 @@ func (d *Doc) resultMathML(o *eval.Outcome) string {
 		return quantityMathML(q, d.shownUnit(o, q), d.Front.Digits, d.Front.Ctx)
 	}
 	if b, ok := o.Value.(bool); ok {
-		return "<mi>" + map[bool]string{true: "true", false: "false"}[b] + "</mi>"
+		return "<mi>" + boolText(b) + "</mi>"
 	}
 	return ""
 }
@@ -372,7 +378,7 @@ func (d *Doc) valueHTML(o *eval.Outcome) string {
 	case units.Quantity:
 		return quantityText(v, d.shownUnit(o, v), d.Front.Digits, d.Front.Ctx)
 	case bool:
-		return map[bool]string{true: "true", false: "false"}[v]
+		return boolText(v)
 	case string:
 		return html.EscapeString(v)
 	case *eval.Table:

@@ -32,17 +32,30 @@ func prec(n eval.Node) int {
 	case *eval.Cond:
 		return 0
 	case *eval.Binary:
-		return binaryPrec[v.Op]
+		return opPrec(v.Op)
 	case *eval.Unary:
 		return 6
 	}
 	return 9
 }
 
-var binaryPrec = map[string]int{
-	"||": 1, "or": 1, "&&": 2, "and": 2,
-	"<": 3, "<=": 3, ">": 3, ">=": 3, "==": 3, "!=": 3,
-	"+": 4, "-": 4, "*": 5, "/": 5, "^": 7, "**": 7,
+// opPrec is the precedence of a binary operator (0 for one not listed).
+func opPrec(op string) int {
+	switch op {
+	case "||", "or":
+		return 1
+	case "&&", "and":
+		return 2
+	case "<", "<=", ">", ">=", "==", "!=":
+		return 3
+	case "+", "-":
+		return 4
+	case "*", "/":
+		return 5
+	case "^", "**":
+		return 7
+	}
+	return 0
 }
 
 var opText = map[string]string{

@@ -6,6 +6,7 @@ import (
 	"html"
 	"html/template"
 	"sort"
+	"strings"
 
 	"github.com/yuin/goldmark/renderer"
 	"github.com/yuin/goldmark/util"
@@ -170,7 +171,7 @@ func (d *Doc) Render(opt RenderOptions) (*Package, error) {
 	v.Body = body
 	v.House = d.house(v.Status)
 	var out bytes.Buffer
-	out.Grow(len(body) + 64<<10)
+	out.Grow(len(body) + len(body)/4 + 64<<10) // the body, its summary tables and manifest
 	if err := packageTemplate.Execute(&out, v); err != nil {
 		return nil, err
 	}
@@ -185,8 +186,8 @@ func (d *Doc) renderBody() (string, error) {
 		d.md.Renderer().AddOptions(renderer.WithNodeRenderers(util.Prioritized(&bodyRenderer{d: d}, 100)))
 		d.prepared = true
 	}
-	var body bytes.Buffer
-	body.Grow(8 * len(d.body)) // MathML is several times the size of its source
+	var body strings.Builder    // String() without a copy
+	body.Grow(16 * len(d.body)) // MathML is many times the size of its source
 	if err := d.md.Renderer().Render(&body, d.body, d.mdTree); err != nil {
 		return "", err
 	}
