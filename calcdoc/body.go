@@ -204,7 +204,7 @@ func (r *bodyRenderer) inline(w util.BufWriter, _ []byte, n gast.Node, entering 
 func (d *Doc) lineHTML(it *Item) string {
 	s, o := it.Stmt, it.Outcome
 	var b strings.Builder
-	b.Grow(256 + 24*len(s.Expr)) // the MathML is many times its source
+	b.Grow(128 + 12*len(s.Expr)) // the MathML is many times its source
 	b.WriteString("<div class=\"calc-line")
 	if s.Kind == eval.Check {
 		b.WriteString(" check")
@@ -217,7 +217,9 @@ func (d *Doc) lineHTML(it *Item) string {
 			b.WriteString(" class=\"cont\"")
 		}
 		b.WriteString("><mrow>")
-		b.WriteString(line)
+		for _, piece := range line {
+			b.WriteString(piece)
+		}
 		b.WriteString("</mrow></math>")
 	}
 	if s.Kind == eval.Check {
@@ -268,50 +270,53 @@ const stackAfter = 36
 
 // equation builds the MathML lines of a calc line: name = formula =
 // numbers substituted = result, leaving out the parts that would repeat,
-// and starting a second line when the first would be long.
-func (d *Doc) equation(it *Item) []string {
+// and starting a second line when the first would be long. Each line is
+// a list of pieces written one after the other.
+func (d *Doc) equation(it *Item) [][]string {
 	s, o := it.Stmt, it.Outcome
 	if s.Kind == eval.Corr {
-		return []string{corrMathML(s)}
+		return [][]string{{corrMathML(s)}}
 	}
 	if o.Solve != nil {
-		return []string{d.formula(s, false), nameMathML(s.Name) + "<mo>=</mo>" + d.resultMathML(o)}
+		return [][]string{{d.formula(s, false)}, {nameMathML(s.Name), "<mo>=</mo>", d.resultMathML(o)}}
 	}
 	formula := d.formula(s, false)
 	if s.Kind == eval.Check {
-		line := formula
 		if sub := d.checkFormula(it); sub != formula {
-			line += "<mo>⇒</mo>" + sub
+			return [][]string{{formula, "<mo>⇒</mo>", sub}}
 		}
-		return []string{line}
+		return [][]string{{formula}}
 	}
-	head := formula
+	head := []string{formula}
 	if s.Kind == eval.Def {
-		head = nameMathML(s.Name) + "<mo>=</mo>" + formula + uncMathML(s)
+		head = []string{nameMathML(s.Name), "<mo>=</mo>", formula, uncMathML(s)}
 	}
 	if s.IsLiteralInput() || (s.IsPlainNumber() && !s.HasDisplayUnit()) {
-		return []string{head} // an input: the value as written is the result
+		return [][]string{head} // an input: the value as written is the result
 	}
-	var rest []string
+	var rest [2]string
+	n := 0
 	if len(s.Deps()) > 0 && !s.IsLoneName() {
 		if sub := d.formula(s, true); sub != formula {
-			rest = append(rest, sub)
+			rest[n] = sub
+			n++
 		}
 	}
-	if res := d.resultMathML(o); res != "" {
-		rest = append(rest, res)
+	if res := d.resultMathML(o); res != "" && (n == 0 || res != rest[0]) {
+		rest[n] = res
+		n++
 	}
-	if n := len(rest); n > 1 && rest[n-1] == rest[n-2] {
-		rest = rest[:n-1]
+	if n == 0 {
+		return [][]string{head}
 	}
-	if len(rest) == 0 {
-		return []string{head}
+	tail := make([]string, 0, 2*n)
+	for _, r := range rest[:n] {
+		tail = append(tail, "<mo>=</mo>", r)
 	}
-	tail := "<mo>=</mo>" + strings.Join(rest, "<mo>=</mo>")
-	if len(s.Expr) > stackAfter && len(rest) > 1 {
-		return []string{head, tail}
+	if len(s.Expr) > stackAfter && n > 1 {
+		return [][]string{head, tail}
 	}
-	return []string{head + tail}
+	return [][]string{append(head, tail...)}
 }
 
 // checkFormula writes a check with values substituted, each comparison
@@ -342,7 +347,7 @@ func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]st
 		}
 	}
 	m.root = s.Syntax()
-	m.b.Grow(64 + 16*len(s.Expr))
+	m.b.Grow(32 + 8*len(s.Expr))
 	m.node(m.root)
 	return m.b.String()
 }
