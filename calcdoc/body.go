@@ -289,7 +289,7 @@ func (d *Doc) equation(it *Item) [][]string {
 	}
 	head := []string{formula}
 	if s.Kind == eval.Def {
-		head = []string{nameMathML(s.Name), "<mo>=</mo>", formula, uncMathML(s)}
+		head = []string{d.typeset.name(s.Name), "<mo>=</mo>", formula, uncMathML(s)}
 	}
 	if s.IsLiteralInput() || (s.IsPlainNumber() && !s.HasDisplayUnit()) {
 		return [][]string{head} // an input: the value as written is the result
@@ -335,7 +335,7 @@ func (d *Doc) formula(s *eval.Stmt, substitute bool) string {
 }
 
 func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]string) string {
-	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp, shown: d.shownUnit}
+	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp, shown: d.shownUnit, cache: &d.typeset}
 	if substitute {
 		m.values = d.outcomeOf
 		m.evalAt = func(n eval.Node) (any, bool) {

@@ -5,6 +5,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"sync"
 
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 	"github.com/vouchcalc/vouch/eval"
@@ -207,10 +208,20 @@ func resultOf(it *Item) (provenance.Result, bool) {
 	return provenance.Result{Name: it.Stmt.Name, SI: q.V, Unit: siUnit(q.D)}, true
 }
 
-// siUnit is the SI unit text of a dimension, "" for a pure number.
+// siUnit is the SI unit text of a dimension, "" for a pure number; each
+// dimension's text is built once (siUnits).
 func siUnit(d units.Dim) string {
-	if s := units.SIUnitText(d); s != "1" {
-		return s
+	if s, ok := siUnits.Load(d); ok {
+		return s.(string)
 	}
-	return ""
+	s := units.SIUnitText(d)
+	if s == "1" {
+		s = ""
+	}
+	siUnits.Store(d, s)
+	return s
 }
+
+// siUnits holds siUnit's texts, one per dimension met, shared by every
+// render (a register renders on all cores, hence sync.Map).
+var siUnits sync.Map

@@ -20,6 +20,7 @@ type mathml struct {
 	b      strings.Builder
 	kelvin bool // inside a product, quotient or power: temperatures in K
 	root   eval.Node
+	cache  *typesetCache // names and literal units typeset before; nil: none
 	// cmp holds, for a check, each comparison written with both sides
 	// evaluated in one unit; it takes the place of the comparison's
 	// substituted sides.
@@ -128,7 +129,11 @@ func (m *mathml) literal(l *eval.Literal) {
 	}
 	m.w("<mrow>")
 	writeNumberMathML(&m.b, parseNum(l.Num), 15, true)
-	m.w(unitMathML(l.Unit))
+	if m.cache != nil {
+		m.w(m.cache.literalUnit(l))
+	} else {
+		m.w(unitMathML(l.Unit))
+	}
 	m.w("</mrow>")
 }
 
@@ -156,7 +161,15 @@ func (m *mathml) name(name string) {
 			return
 		}
 	}
-	m.w(nameMathML(name))
+	m.w(m.nameMathML(name))
+}
+
+// nameMathML typesets a name, through the cache when there is one.
+func (m *mathml) nameMathML(name string) string {
+	if m.cache != nil {
+		return m.cache.name(name)
+	}
+	return nameMathML(name)
 }
 
 // value writes a substituted value with its unit (the default unit when u
@@ -293,7 +306,7 @@ func (m *mathml) field(v *eval.Field) {
 		// The whole line is a field of a property call: show the call with
 		// its arguments' values; the result follows.
 		m.w("<mrow>")
-		m.w(nameMathML(v.Name))
+		m.w(m.nameMathML(v.Name))
 		m.w("<mo>(</mo>")
 		m.node(v.X)
 		m.w("<mo>)</mo></mrow>")
@@ -308,7 +321,7 @@ func (m *mathml) field(v *eval.Field) {
 	k := m.kelvin
 	m.kelvin = false
 	m.w("<mrow>")
-	m.w(nameMathML(v.Name))
+	m.w(m.nameMathML(v.Name))
 	m.w("<mo>(</mo>")
 	m.symbols(v.X)
 	m.w("<mo>)</mo></mrow>")
@@ -359,7 +372,7 @@ func (m *mathml) solve(v *eval.Call) {
 	m.w("<mrow><mtext>solve\u2002</mtext>")
 	m.node(v.Args[0])
 	m.w("<mtext>\u2002for\u2002</mtext>")
-	m.w(nameMathML(m.stmt.Name))
+	m.w(m.nameMathML(m.stmt.Name))
 	m.w("<mo>∈</mo><mo>[</mo>")
 	m.node(v.Args[1])
 	m.w("<mo separator=\"true\">,</mo>")

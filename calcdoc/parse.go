@@ -79,6 +79,7 @@ type Doc struct {
 	byName        map[string]*Item // evaluated definitions, built on first use
 	engine        *eval.Engine     // the engine after evaluation, for substitution
 	prepared      bool             // the Markdown tree is ready to render
+	typeset       typesetCache     // names and unit texts already typeset
 	// SweepLimit, when set, lowers the number of points a sweep may have
 	// below MaxSweepPoints.
 	SweepLimit int
