@@ -155,7 +155,7 @@ func (r *bodyRenderer) block(w util.BufWriter, _ []byte, n gast.Node, entering b
 			continue
 		}
 		if !isInputItem(it) {
-			w.WriteString(r.d.lineHTML(it))
+			r.d.writeLine(w, it, false)
 			continue
 		}
 		j := i
@@ -164,7 +164,7 @@ func (r *bodyRenderer) block(w util.BufWriter, _ []byte, n gast.Node, entering b
 		}
 		w.WriteString(inputRefHTML(items[i : j+1]))
 		for _, in := range items[i : j+1] {
-			w.WriteString(strings.Replace(r.d.lineHTML(in), `class="calc-line"`, `class="calc-line input"`, 1))
+			r.d.writeLine(w, in, true)
 		}
 		i = j
 	}
@@ -200,14 +200,23 @@ func (r *bodyRenderer) inline(w util.BufWriter, _ []byte, n gast.Node, entering 
 	return gast.WalkSkipChildren, nil
 }
 
-// lineHTML draws one calc line: formula = numbers substituted = result.
-func (d *Doc) lineHTML(it *Item) string {
+// stringWriter is where a calc line is written: goldmark's writer of the
+// body.
+type stringWriter interface {
+	WriteString(s string) (int, error)
+}
+
+// writeLine draws one calc line into b: formula = numbers substituted =
+// result. An input line (input set) carries the class the styles use to
+// show it on screen and leave it out of print.
+func (d *Doc) writeLine(b stringWriter, it *Item, input bool) {
 	s, o := it.Stmt, it.Outcome
-	var b strings.Builder
-	b.Grow(128 + 12*len(s.Expr)) // the MathML is many times its source
 	b.WriteString("<div class=\"calc-line")
-	if s.Kind == eval.Check {
+	switch {
+	case s.Kind == eval.Check:
 		b.WriteString(" check")
+	case input:
+		b.WriteString(" input")
 	}
 	line := strconv.Itoa(s.Line)
 	b.WriteString("\" id=\"L" + line + "\"><div class=\"ln\">" + line + "</div><div>")
@@ -254,7 +263,6 @@ func (d *Doc) lineHTML(it *Item) string {
 		b.WriteString("<div class=\"src\">Properties: " + html.EscapeString(src) + "</div>")
 	}
 	b.WriteString("</div></div>\n")
-	return b.String()
 }
 
 func verdictHTML(pass bool) string {
