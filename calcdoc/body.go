@@ -220,17 +220,7 @@ func (d *Doc) writeLine(b stringWriter, it *Item, input bool) {
 	}
 	line := strconv.Itoa(s.Line)
 	b.WriteString("\" id=\"L" + line + "\"><div class=\"ln\">" + line + "</div><div>")
-	for i, line := range d.equation(it) {
-		b.WriteString("<math display=\"block\"")
-		if i > 0 {
-			b.WriteString(" class=\"cont\"")
-		}
-		b.WriteString("><mrow>")
-		for _, piece := range line {
-			b.WriteString(piece)
-		}
-		b.WriteString("</mrow></math>")
-	}
+	d.writeEquation(b, it)
 	if s.Kind == eval.Check {
 		b.WriteString(verdictHTML(o.Pass))
 		if cs := d.Comparisons(it); len(cs) > 0 {
@@ -276,55 +266,80 @@ func verdictHTML(pass bool) string {
 // substituted and the result go on a line of their own.
 const stackAfter = 36
 
-// equation builds the MathML lines of a calc line: name = formula =
+// writeEquation writes the MathML lines of a calc line: name = formula =
 // numbers substituted = result, leaving out the parts that would repeat,
-// and starting a second line when the first would be long. Each line is
-// a list of pieces written one after the other.
-func (d *Doc) equation(it *Item) [][]string {
+// and starting a second line when the first would be long.
+func (d *Doc) writeEquation(b stringWriter, it *Item) {
 	s, o := it.Stmt, it.Outcome
 	if s.Kind == eval.Corr {
-		return [][]string{{corrMathML(s)}}
+		writeMath(b, false, corrMathML(s))
+		return
 	}
 	if o.Solve != nil {
-		return [][]string{{d.formula(s, false)}, {nameMathML(s.Name), "<mo>=</mo>", d.resultMathML(o)}}
+		writeMath(b, false, d.formula(s, false))
+		writeMath(b, true, d.typeset.name(s.Name), "<mo>=</mo>", d.resultMathML(o))
+		return
 	}
 	formula := d.formula(s, false)
 	if s.Kind == eval.Check {
 		if sub := d.checkFormula(it); sub != formula {
-			return [][]string{{formula, "<mo>⇒</mo>", sub}}
+			writeMath(b, false, formula, "<mo>⇒</mo>", sub)
+			return
 		}
-		return [][]string{{formula}}
+		writeMath(b, false, formula)
+		return
 	}
-	head := []string{formula}
+	var parts [8]string // name = formula ± u, then = substituted = result
+	k := 1
+	parts[0] = formula
 	if s.Kind == eval.Def {
-		head = []string{d.typeset.name(s.Name), "<mo>=</mo>", formula, uncMathML(s)}
+		parts[0], parts[1], parts[2], parts[3] = d.typeset.name(s.Name), "<mo>=</mo>", formula, uncMathML(s)
+		k = 4
 	}
-	if s.IsLiteralInput() || (s.IsPlainNumber() && !s.HasDisplayUnit()) {
-		return [][]string{head} // an input: the value as written is the result
+	head := k
+	if !s.IsLiteralInput() && (!s.IsPlainNumber() || s.HasDisplayUnit()) { // an input: the value as written is the result
+		k = d.appendRest(parts[:], k, s, o, formula)
 	}
-	var rest [2]string
-	n := 0
+	if len(s.Expr) > stackAfter && k-head > 2 {
+		writeMath(b, false, parts[:head]...)
+		writeMath(b, true, parts[head:k]...)
+		return
+	}
+	writeMath(b, false, parts[:k]...)
+}
+
+// appendRest puts "= numbers substituted" and "= result" into parts from
+// k on, each only when it differs from what precedes it, and returns the
+// new end.
+func (d *Doc) appendRest(parts []string, k int, s *eval.Stmt, o *eval.Outcome, formula string) int {
+	sub := ""
 	if len(s.Deps()) > 0 && !s.IsLoneName() {
-		if sub := d.formula(s, true); sub != formula {
-			rest[n] = sub
-			n++
+		if sub = d.formula(s, true); sub != formula {
+			parts[k], parts[k+1] = "<mo>=</mo>", sub
+			k += 2
+		} else {
+			sub = ""
 		}
 	}
-	if res := d.resultMathML(o); res != "" && (n == 0 || res != rest[0]) {
-		rest[n] = res
-		n++
+	if res := d.resultMathML(o); res != "" && res != sub {
+		parts[k], parts[k+1] = "<mo>=</mo>", res
+		k += 2
 	}
-	if n == 0 {
-		return [][]string{head}
+	return k
+}
+
+// writeMath writes one block math line of pieces; cont marks the second
+// line of a stacked equation.
+func writeMath(b stringWriter, cont bool, pieces ...string) {
+	b.WriteString("<math display=\"block\"")
+	if cont {
+		b.WriteString(" class=\"cont\"")
 	}
-	tail := make([]string, 0, 2*n)
-	for _, r := range rest[:n] {
-		tail = append(tail, "<mo>=</mo>", r)
+	b.WriteString("><mrow>")
+	for _, p := range pieces {
+		b.WriteString(p)
 	}
-	if len(s.Expr) > stackAfter && n > 1 {
-		return [][]string{head, tail}
-	}
-	return [][]string{append(head, tail...)}
+	b.WriteString("</mrow></math>")
 }
 
 // checkFormula writes a check with values substituted, each comparison
