@@ -358,16 +358,9 @@ func (d *Doc) formula(s *eval.Stmt, substitute bool) string {
 }
 
 func (d *Doc) formulaWith(s *eval.Stmt, substitute bool, cmp map[*eval.Binary]string) string {
-	m := &mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp, shown: d.shownUnit, cache: &d.typeset}
+	m := mathml{stmt: s, digits: d.Front.Digits, ctx: d.Front.Ctx, cmp: cmp, shown: d.shownUnit, cache: &d.typeset}
 	if substitute {
-		m.values = d.outcomeOf
-		m.evalAt = func(n eval.Node) (any, bool) {
-			if d.engine == nil {
-				return nil, false
-			}
-			v, err := d.engine.EvalNode(s, n)
-			return v, err == nil
-		}
+		m.sub = d
 	}
 	m.root = s.Syntax()
 	m.b.Grow(32 + 8*len(s.Expr))

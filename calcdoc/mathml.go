@@ -11,9 +11,10 @@ import (
 // mathml builds MathML from expression trees. Every text it writes is
 // escaped, so its output is safe to pass through the one trusted door.
 type mathml struct {
-	stmt   *eval.Stmt
-	values func(name string) (*eval.Outcome, bool) // nil: write symbols, not numbers
-	evalAt func(n eval.Node) (any, bool)           // evaluates a part, for substitution
+	stmt *eval.Stmt
+	// sub is the document whose values are substituted (its outcomes,
+	// and its engine for a part such as a field); nil: write symbols.
+	sub    *Doc
 	digits int
 	ctx    units.Context
 	shown  func(*eval.Outcome, units.Quantity) units.Unit // the unit a value is shown in
@@ -123,7 +124,7 @@ func (m *mathml) node(n eval.Node) {
 // literal writes a unit literal as written; inside a product, when numbers
 // are substituted, an absolute temperature is shown in kelvin.
 func (m *mathml) literal(l *eval.Literal) {
-	if m.values != nil && m.kelvin && l.Q.D == units.DimTemperature && l.Unit.Offset != 0 {
+	if m.sub != nil && m.kelvin && l.Q.D == units.DimTemperature && l.Unit.Offset != 0 {
 		m.value(l.Q, units.Unit{})
 		return
 	}
@@ -143,8 +144,8 @@ func (m *mathml) name(name string) {
 		m.text("mi", "π")
 		return
 	}
-	if m.values != nil {
-		if o, ok := m.values(name); ok && !isCollection(o.Value) {
+	if m.sub != nil {
+		if o, ok := m.sub.outcomeOf(name); ok && !isCollection(o.Value) {
 			if o.Stmt != nil && o.Stmt.Kind == eval.Def && o.Stmt.IsLiteralInput() {
 				m.literal(o.Stmt.LoneLiteral()) // an input as it was written
 				return
@@ -214,7 +215,7 @@ func (m *mathml) unary(v *eval.Unary) {
 
 // child writes a node, parenthesised when it binds looser than min.
 func (m *mathml) child(n eval.Node, min int) {
-	if prec(n) < min || (m.values != nil && m.isNegative(n) && min > 4) {
+	if prec(n) < min || (m.sub != nil && m.isNegative(n) && min > 4) {
 		m.paren(n)
 		return
 	}
@@ -233,7 +234,7 @@ func (m *mathml) isNegative(n eval.Node) bool {
 	case *eval.Quantity:
 		return strings.HasPrefix(v.Lit.Num, "-")
 	case *eval.Name:
-		if o, ok := m.values(v.Name); ok {
+		if o, ok := m.sub.outcomeOf(v.Name); ok {
 			q, isQ := o.Value.(units.Quantity)
 			return isQ && q.V < 0
 		}
@@ -244,7 +245,7 @@ func (m *mathml) isNegative(n eval.Node) bool {
 // binaryKelvin writes a binary node; products, quotients and powers show
 // temperatures in kelvin, since that is the value they use.
 func (m *mathml) binaryKelvin(v *eval.Binary) {
-	if c, ok := m.cmp[v]; ok && m.values != nil {
+	if c, ok := m.cmp[v]; ok && m.sub != nil {
 		m.w(c)
 		return
 	}
@@ -291,7 +292,7 @@ func (m *mathml) binary(v *eval.Binary) {
 func (m *mathml) base(n eval.Node, p int) {
 	_, isLit := n.(*eval.Quantity)
 	_, isName := n.(*eval.Name)
-	if prec(n) <= p || isLit || (isName && m.values != nil) {
+	if prec(n) <= p || isLit || (isName && m.sub != nil) {
 		m.paren(n)
 		return
 	}
@@ -302,7 +303,7 @@ func (m *mathml) base(n eval.Node, p int) {
 // its value.
 func (m *mathml) field(v *eval.Field) {
 	_, ofCall := v.X.(*eval.Call)
-	if ofCall && eval.Node(v) == m.root && m.values != nil {
+	if ofCall && eval.Node(v) == m.root && m.sub != nil {
 		// The whole line is a field of a property call: show the call with
 		// its arguments' values; the result follows.
 		m.w("<mrow>")
@@ -312,8 +313,8 @@ func (m *mathml) field(v *eval.Field) {
 		m.w("<mo>)</mo></mrow>")
 		return
 	}
-	if m.values != nil && m.evalAt != nil {
-		if val, ok := m.evalAt(v); ok {
+	if m.sub != nil && m.sub.engine != nil {
+		if val, err := m.sub.engine.EvalNode(m.stmt, v); err == nil {
 			m.value(val, units.Unit{})
 			return
 		}
@@ -330,10 +331,10 @@ func (m *mathml) field(v *eval.Field) {
 
 // symbols writes a node with symbols even while substituting.
 func (m *mathml) symbols(n eval.Node) {
-	values := m.values
-	m.values = nil
+	sub := m.sub
+	m.sub = nil
 	m.node(n)
-	m.values = values
+	m.sub = sub
 }
 
 func (m *mathml) call(v *eval.Call) {
