@@ -6,6 +6,8 @@ import (
 	"strings"
 
 	"github.com/go-git/go-git/v5/plumbing"
+
+	"github.com/vouchcalc/vouch/internal/editdist"
 )
 
 // maxSuggestions caps the tag and branch names an unknown-revision error
@@ -77,7 +79,7 @@ func nearest(target string, names []string, n int) []string {
 	}
 	s := make([]scored, len(names))
 	for i, name := range names {
-		s[i] = scored{name, editDistance(target, name)}
+		s[i] = scored{name, editdist.Bytes(target, name)}
 	}
 	sort.SliceStable(s, func(i, j int) bool { return s[i].d < s[j].d })
 	out := make([]string, 0, n)
@@ -85,25 +87,4 @@ func nearest(target string, names []string, n int) []string {
 		out = append(out, s[i].name)
 	}
 	return out
-}
-
-// editDistance is the Levenshtein distance between a and b, in bytes.
-func editDistance(a, b string) int {
-	prev := make([]int, len(b)+1)
-	cur := make([]int, len(b)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(a); i++ {
-		cur[0] = i
-		for j := 1; j <= len(b); j++ {
-			cost := 1
-			if a[i-1] == b[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(b)]
 }

@@ -7,6 +7,8 @@ import (
 	"strings"
 
 	"go.yaml.in/yaml/v3"
+
+	"github.com/vouchcalc/vouch/internal/editdist"
 )
 
 func sprintf(format string, args ...any) string { return fmt.Sprintf(format, args...) }
@@ -210,34 +212,18 @@ func (d *decoder) setTolerance(n *yaml.Node) {
 func nearest(s string, known []string) string {
 	best, bestD := "", 3
 	for _, k := range known {
-		if dist := editDistance(strings.ToLower(s), k); dist < bestD {
+		if dist := shortDistance(strings.ToLower(s), k); dist < bestD {
 			best, bestD = k, dist
 		}
 	}
 	return best
 }
 
-// editDistance is the Levenshtein distance of two short words.
-func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	if len(ra) > 64 || len(rb) > 64 {
+// shortDistance is the edit distance in runes of two short words; a word over
+// 64 runes counts as 64 apart, so a long value costs no long computation.
+func shortDistance(a, b string) int {
+	if len([]rune(a)) > 64 || len([]rune(b)) > 64 {
 		return 64
 	}
-	prev := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur := make([]int, len(rb)+1)
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev = cur
-	}
-	return prev[len(rb)]
+	return editdist.Runes(a, b)
 }

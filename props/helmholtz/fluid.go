@@ -139,7 +139,8 @@ func fold(s string) string {
 	return string(b)
 }
 
-// editDistance is the Levenshtein distance between a and b (bytes).
+// editDistance is the Levenshtein distance between a and b (bytes): the
+// numerics import only math, so this is a copy of internal/editdist.Bytes.
 func editDistance(a, b string) int {
 	prev := make([]int, len(b)+1)
 	cur := make([]int, len(b)+1)
