@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"github.com/vouchcalc/vouch/internal/excerpt"
+	"github.com/vouchcalc/vouch/internal/gitroot"
 	"github.com/vouchcalc/vouch/internal/safefile"
 )
 
@@ -26,16 +27,9 @@ func locate(path string) (root, rel string) {
 	if r, err := filepath.EvalSymlinks(abs); err == nil {
 		real = r
 	}
-	for dir := filepath.Dir(real); ; dir = filepath.Dir(dir) {
-		if _, err := os.Lstat(filepath.Join(dir, ".git")); err == nil {
-			r, err := filepath.Rel(dir, real)
-			if err == nil {
-				return dir, filepath.ToSlash(r)
-			}
-			break
-		}
-		if filepath.Dir(dir) == dir {
-			break
+	if dir, ok := gitroot.Find(filepath.Dir(real)); ok {
+		if r, err := filepath.Rel(dir, real); err == nil {
+			return dir, filepath.ToSlash(r)
 		}
 	}
 	return filepath.Dir(abs), filepath.Base(abs)

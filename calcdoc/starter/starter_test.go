@@ -168,14 +168,3 @@ func TestCheckName(t *testing.T) {
 		}
 	}
 }
-
-func TestRepoRoot(t *testing.T) {
-	dir := t.TempDir()
-	if err := os.Mkdir(filepath.Join(dir, ".git"), 0o755); err != nil {
-		t.Fatal(err)
-	}
-	got, ok := RepoRoot(filepath.Join(dir, "calcs", "not-yet"))
-	if want, _ := filepath.Abs(dir); !ok || got != want {
-		t.Errorf("RepoRoot = %q, %v; want %q", got, ok, want)
-	}
-}

@@ -55,22 +55,3 @@ func Write(dest string, data []byte) error {
 	}
 	return err
 }
-
-// RepoRoot is the nearest folder at or above dir that holds .git (a folder,
-// or a file in a linked work tree), and false when there is none.
-func RepoRoot(dir string) (string, bool) {
-	dir, err := filepath.Abs(dir)
-	if err != nil {
-		return "", false
-	}
-	for {
-		if _, err := os.Lstat(filepath.Join(dir, ".git")); err == nil {
-			return dir, true
-		}
-		up := filepath.Dir(dir)
-		if up == dir {
-			return "", false
-		}
-		dir = up
-	}
-}

@@ -9,7 +9,7 @@ import (
 
 	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/settings"
-	"github.com/vouchcalc/vouch/calcdoc/starter"
+	"github.com/vouchcalc/vouch/internal/gitroot"
 )
 
 // repoSettings reads vouch.yaml of the repository that holds path (a file
@@ -38,7 +38,7 @@ func settingsRoot(path string) string {
 	if st, err := os.Stat(path); err != nil || !st.IsDir() {
 		dir = filepath.Dir(path)
 	}
-	if root, ok := starter.RepoRoot(dir); ok {
+	if root, ok := gitroot.Find(dir); ok {
 		return root
 	}
 	return dir
