@@ -11,6 +11,8 @@ import (
 	"strconv"
 	"strings"
 	"time"
+
+	"github.com/vouchcalc/vouch/calcdoc"
 )
 
 // pdfMeta is what the archival PDF records of its package: the title and
@@ -89,12 +91,7 @@ func archivePDF(path string, meta pdfMeta) error {
 	if err != nil {
 		return fmt.Errorf("%s: %v", path, err)
 	}
-	tmp := path + ".tmp"
-	if err := os.WriteFile(tmp, pdf, 0o644); err != nil {
-		os.Remove(tmp)
-		return err
-	}
-	return os.Rename(tmp, path)
+	return calcdoc.WriteFileAtomic(path, pdf)
 }
 
 // copyFile copies the file at src to dst.

@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 	"strconv"
 
+	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/qualify"
 )
 
@@ -41,7 +42,7 @@ func cmdQualify(args []string, stdout, stderr io.Writer) int {
 		return exitErrors
 	}
 	for name, data := range map[string][]byte{"qualification.json": r.CanonicalJSON(), "qualification.html": page} {
-		if err := os.WriteFile(filepath.Join(*out, name), data, 0o644); err != nil {
+		if err := calcdoc.WriteFileAtomic(filepath.Join(*out, name), data); err != nil {
 			fmt.Fprintf(stderr, "vouch: %v\n", err)
 			return exitErrors
 		}
