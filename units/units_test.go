@@ -364,6 +364,16 @@ func TestGaugeRules(t *testing.T) {
 	if _, err := Compare(d, q(t, 1, "barg")); err == nil {
 		t.Error("difference vs barg must fail")
 	}
+}
+
+// Negation, abs and products of gauge pressures and of gauge differences:
+// the second half of the gauge rules (TestGaugeRules has the sums,
+// differences and comparisons).
+func TestGaugeNegationAndProducts(t *testing.T) {
+	d, err := Sub(q(t, 5, "barg"), q(t, 2, "barg"))
+	if err != nil || d.P != DiffP {
+		t.Fatalf("5 barg - 2 barg = %+v, %v; want a difference", d, err)
+	}
 	// Negation and abs of a gauge reading are refused; of a difference they keep it a difference.
 	if _, err := Neg(q(t, 1, "barg")); err == nil || !strings.HasPrefix(err.Error(), "cannot negate a gauge pressure") {
 		t.Errorf("-(1 barg): %v", err)
