@@ -66,10 +66,15 @@ type parityCase struct {
 	name, file, principal, at, want string
 }
 
+// parityCases are the read lines first, then the malformed ones.
 func parityCases(k parityKeys) []parityCase {
+	return append(readParityCases(k), malformedParityCases(k)...)
+}
+
+// readParityCases are files that are read: they allow the signer or not.
+func readParityCases(k parityKeys) []parityCase {
 	K := k.ed
 	return []parityCase{
-		// Lines that are read and allow the signer.
 		{"plain", "a@x " + K, "a@x", "", verdictAllow},
 		{"comment after the key", "a@x " + K + " P. Writer (fictional) \"quoted\"", "a@x", "", verdictAllow},
 		{"tab between fields", "a@x\t" + strings.Replace(K, " ", "\t", 1), "a@x", "", verdictAllow},
@@ -123,8 +128,13 @@ func parityCases(k parityKeys) []parityCase {
 		{"ecdsa p384 key", "a@x " + k.p384, "a@x", "", verdictDeny},
 		{"only comments", "# nobody\n\n", "a@x", "", verdictDeny},
 		{"empty file", "", "a@x", "", verdictDeny},
+	}
+}
 
-		// Malformed lines.
+// malformedParityCases are files that both readers refuse.
+func malformedParityCases(k parityKeys) []parityCase {
+	K := k.ed
+	return []parityCase{
 		{"valid-before twice, the later one expired", `a@x valid-before="20300101Z",valid-before="20200101Z" ` + K, "a@x", "20250101Z", verdictRefuse},
 		{"valid-before twice, the later one in force", `a@x valid-before="20200101Z",valid-before="20300101Z" ` + K, "a@x", "20250101Z", verdictRefuse},
 		{"valid-after twice", `a@x valid-after="20200101Z",valid-after="20210101Z" ` + K, "a@x", "", verdictRefuse},
