@@ -280,8 +280,8 @@ func (d *Doc) comparisonMathML(c Comparison) string {
 }
 
 // marginHTML lists the margins of a check's comparisons as HTML text:
-// "margin −0.01325 bar; …", without the words when bare is set (a table
-// column headed Margin).
+// "margin −0.01325 bar; …", without the words and one comparison a line
+// when bare is set (a table column headed Margin).
 func (d *Doc) marginHTML(cs []Comparison, bare bool) string {
 	var parts []string
 	for _, c := range cs {
@@ -300,6 +300,10 @@ func (d *Doc) marginHTML(cs []Comparison, bare bool) string {
 			s += " (" + numberText(float64(100*c.Relative), 3) + "\u2009%)"
 		}
 		parts = append(parts, s)
+	}
+	if bare {
+		// the summary's table: one comparison a line, so the column stays narrow
+		return strings.Join(parts, ";<br>")
 	}
 	return strings.Join(parts, "; ")
 }
