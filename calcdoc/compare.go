@@ -280,8 +280,9 @@ func (d *Doc) comparisonMathML(c Comparison) string {
 }
 
 // marginHTML lists the margins of a check's comparisons as HTML text:
-// "margin −0.01325 bar; …", without the words and one comparison a line
-// when bare is set (a table column headed Margin).
+// "margin −0.01325 bar; …". When bare is set (a table column headed
+// Margin) it leaves out the words, puts one comparison on a line and lets
+// a line break only between a margin and its relative size.
 func (d *Doc) marginHTML(cs []Comparison, bare bool) string {
 	var parts []string
 	for _, c := range cs {
@@ -296,13 +297,23 @@ func (d *Doc) marginHTML(cs []Comparison, bare bool) string {
 		if IsPercent(c.MarginUnit) {
 			s = strings.TrimSuffix(s, "\u2009%") + "\u2009" + PercentagePoints
 		}
+		rel := ""
 		if c.HasRelative {
-			s += " (" + numberText(float64(100*c.Relative), 3) + "\u2009%)"
+			rel = "(" + numberText(float64(100*c.Relative), 3) + "\u2009%)"
+		}
+		if bare {
+			// the summary's table: the column may break only between a
+			// margin and its relative size, and between comparisons
+			s = `<span class="nw">` + s + `</span>`
+			if rel != "" {
+				s += ` <span class="nw">` + rel + `</span>`
+			}
+		} else if rel != "" {
+			s += " " + rel
 		}
 		parts = append(parts, s)
 	}
 	if bare {
-		// the summary's table: one comparison a line, so the column stays narrow
 		return strings.Join(parts, ";<br>")
 	}
 	return strings.Join(parts, "; ")
