@@ -29,11 +29,7 @@ func (d *Doc) Person(role string) Person {
 // setStamp fills the cover and appendix parts of the view from the stamp.
 func (v *view) setStamp(d *Doc, rec *Stamp) error {
 	m := rec.Manifest
-	canon, err := m.Canonical()
-	if err != nil {
-		return err
-	}
-	digest, err := m.Digest()
+	canon, digest, err := m.Encode()
 	if err != nil {
 		return err
 	}

@@ -45,26 +45,50 @@ func writeCanonical(buf []byte, v any) ([]byte, error) {
 }
 
 func writeObject(buf []byte, o jsonObject) ([]byte, error) {
+	buf, _, _, err := writeObjectMarking(buf, o, "")
+	return buf, err
+}
+
+// writeObjectMarking writes o as writeObject does and returns the span
+// buf[start:end] of the member named mark, with the comma that joins it to
+// its neighbours, so that cutting the span out leaves the canonical JSON of
+// o without that member. When o has no such member, start == end.
+func writeObjectMarking(buf []byte, o jsonObject, mark string) (out []byte, start, end int, err error) {
 	keys := make([]string, 0, len(o))
 	for k := range o {
 		keys = append(keys, k)
 	}
 	sort.Strings(keys)
 	buf = append(buf, '{')
-	var err error
+	start, end = -1, -1
 	for i, k := range keys {
 		if i > 0 {
 			buf = append(buf, ',')
 		}
+		if k == mark {
+			start = len(buf) - 1 // the comma before it
+			if i == 0 {
+				start = len(buf)
+			}
+		}
 		if buf, err = writeString(buf, k); err != nil {
-			return nil, err
+			return nil, 0, 0, err
 		}
 		buf = append(buf, ':')
 		if buf, err = writeCanonical(buf, o[k]); err != nil {
-			return nil, fmt.Errorf("%s: %w", k, err)
+			return nil, 0, 0, fmt.Errorf("%s: %w", k, err)
+		}
+		if k == mark {
+			end = len(buf)
+			if i == 0 && len(keys) > 1 {
+				end++ // the comma after it, written next
+			}
 		}
 	}
-	return append(buf, '}'), nil
+	if start < 0 {
+		start, end = len(buf), len(buf)
+	}
+	return append(buf, '}'), start, end, nil
 }
 
 func writeArray(buf []byte, a []any) ([]byte, error) {

@@ -138,6 +138,21 @@ func (m *Manifest) Digest() (string, error) {
 	return sha256Hex(b), nil
 }
 
+// Encode returns what Canonical and Digest return, writing the canonical
+// JSON once: the digest is taken over the same bytes with the signatures
+// member cut out, which are the bytes Digest hashes. A render that embeds
+// the manifest and shows its digest calls this once instead of both.
+func (m *Manifest) Encode() (canon []byte, digest string, err error) {
+	canon, start, end, err := writeObjectMarking(nil, m.object(true), "signatures")
+	if err != nil {
+		return nil, "", err
+	}
+	h := sha256.New()
+	h.Write(canon[:start])
+	h.Write(canon[end:])
+	return canon, hex.EncodeToString(h.Sum(nil)), nil
+}
+
 // ResultsDigest returns the SHA-256, in hex, of the canonical JSON array of
 // the results, in the given order.
 func ResultsDigest(results []Result) (string, error) {

@@ -447,3 +447,66 @@ func TestPayloadMethodOfChecking(t *testing.T) {
 		}
 	}
 }
+
+// TestEncodeMatchesCanonicalAndDigest: Encode gives Canonical's bytes and
+// Digest's digest, unsigned and signed, with the optional fields and the
+// signers file set, and the same errors.
+func TestEncodeMatchesCanonicalAndDigest(t *testing.T) {
+	m := sampleManifest(t)
+	check := func(what string) {
+		t.Helper()
+		canon, digest, err := m.Encode()
+		wantCanon, err1 := m.Canonical()
+		wantDigest, err2 := m.Digest()
+		if err != nil || err1 != nil || err2 != nil {
+			t.Fatalf("%s: %v, %v, %v", what, err, err1, err2)
+		}
+		if !bytes.Equal(canon, wantCanon) || digest != wantDigest {
+			t.Errorf("%s: Encode = %s, %s\nwant %s, %s", what, canon, digest, wantCanon, wantDigest)
+		}
+	}
+	check("unsigned")
+	m.Signatures = []Signature{{Role: "preparer", Principal: "a@example.invalid", Name: "A. Fictional", Signature: "x"},
+		{Role: "checker", Method: "alternate", Report: "r.html"}}
+	check("signed")
+	m.SignersFile, m.SignersHash = "allowed_signers", "ff"
+	m.Build = &EngineBuild{Version: "0.1.0", OS: "plan9"}
+	m.Qualification, m.Uses, m.Revision, m.Draft = "ff00", []string{"water"}, "B", true
+	check("every optional field")
+	m.Results[0].SI = math.NaN()
+	if _, _, err := m.Encode(); !errors.Is(err, ErrManifest) {
+		t.Errorf("Encode of a NaN result: %v, want ErrManifest", err)
+	}
+}
+
+// TestWriteObjectMarking: cutting the marked span out of the object leaves
+// the canonical JSON of the object without that member, wherever the key
+// sorts, and an absent key marks nothing.
+func TestWriteObjectMarking(t *testing.T) {
+	objects := []jsonObject{
+		{"m": 1.0},
+		{"m": 1.0, "z": "b"},
+		{"a": true, "m": []any{"x", 2.0}},
+		{"a": true, "m": jsonObject{"k": "v"}, "z": "b"},
+		{"a": true, "z": "b"},
+		{},
+	}
+	for _, o := range objects {
+		got, start, end, err := writeObjectMarking(nil, o, "m")
+		if err != nil {
+			t.Fatal(err)
+		}
+		full, _ := writeCanonical(nil, o)
+		without := jsonObject{}
+		for k, v := range o {
+			if k != "m" {
+				without[k] = v
+			}
+		}
+		want, _ := writeCanonical(nil, without)
+		cut := append(append([]byte{}, got[:start]...), got[end:]...)
+		if !bytes.Equal(got, full) || !bytes.Equal(cut, want) {
+			t.Errorf("%v: wrote %s, cut to %s; want %s and %s", o, got, cut, full, want)
+		}
+	}
+}
