@@ -27,13 +27,15 @@ import (
 type jsonObject map[string]any
 
 // writeCanonical appends the canonical JSON of v, which may be a jsonObject,
-// a []any, a string, a float64 or a bool.
+// a []any, a resultList, a string, a float64 or a bool.
 func writeCanonical(buf []byte, v any) ([]byte, error) {
 	switch v := v.(type) {
 	case jsonObject:
 		return writeObject(buf, v)
 	case []any:
 		return writeArray(buf, v)
+	case resultList:
+		return writeResults(buf, v)
 	case string:
 		return writeString(buf, v)
 	case float64:
@@ -101,6 +103,35 @@ func writeArray(buf []byte, a []any) ([]byte, error) {
 		if buf, err = writeCanonical(buf, v); err != nil {
 			return nil, fmt.Errorf("[%d]: %w", i, err)
 		}
+	}
+	return append(buf, ']'), nil
+}
+
+// resultList is the manifest's results, written as the array of objects
+// {"name", "si", "unit"} (keys already in canonical order) that writeArray
+// would write for them, with the same errors.
+type resultList []Result
+
+func writeResults(buf []byte, results resultList) ([]byte, error) {
+	buf = append(buf, '[')
+	var err error
+	for i, r := range results {
+		if i > 0 {
+			buf = append(buf, ',')
+		}
+		buf = append(buf, `{"name":`...)
+		if buf, err = writeString(buf, r.Name); err != nil {
+			return nil, fmt.Errorf("[%d]: name: %w", i, err)
+		}
+		buf = append(buf, `,"si":`...)
+		if buf, err = writeNumber(buf, r.SI); err != nil {
+			return nil, fmt.Errorf("[%d]: si: %w", i, err)
+		}
+		buf = append(buf, `,"unit":`...)
+		if buf, err = writeString(buf, r.Unit); err != nil {
+			return nil, fmt.Errorf("[%d]: unit: %w", i, err)
+		}
+		buf = append(buf, '}')
 	}
 	return append(buf, ']'), nil
 }

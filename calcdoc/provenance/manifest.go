@@ -345,12 +345,10 @@ func dataArray(files []DataFile) []any {
 	return a
 }
 
-func resultsArray(results []Result) []any {
-	a := make([]any, len(results))
-	for i, r := range results {
-		a[i] = jsonObject{"name": r.Name, "si": r.SI, "unit": r.Unit}
-	}
-	return a
+// resultsArray converts the results for writeCanonical. They are written
+// by writeResults, without a map per result: a large calc has thousands.
+func resultsArray(results []Result) resultList {
+	return resultList(results)
 }
 
 func signaturesArray(sigs []Signature) []any {

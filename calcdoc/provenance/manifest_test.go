@@ -510,3 +510,30 @@ func TestWriteObjectMarking(t *testing.T) {
 		}
 	}
 }
+
+// TestWriteResultsAsGenericArray: the results writer gives the bytes, and
+// the errors, of the generic writer over one object per result.
+func TestWriteResultsAsGenericArray(t *testing.T) {
+	generic := func(rs []Result) ([]byte, error) {
+		a := make([]any, len(rs))
+		for i, r := range rs {
+			a[i] = jsonObject{"unit": r.Unit, "si": r.SI, "name": r.Name}
+		}
+		return writeCanonical(nil, a)
+	}
+	cases := [][]Result{
+		nil,
+		{{Name: "p_1", SI: 12.5e6, Unit: "Pa"}},
+		{{Name: "eta", SI: math.Copysign(0, -1)}, {Name: `q "<&>"`, SI: 5e-324, Unit: "W/(m²·K)"}, {Name: "check:12", SI: 1}},
+		{{Name: "ok", SI: 1}, {Name: "bad", SI: math.Inf(1)}},
+		{{Name: "bad \xff", SI: 1}},
+		{{Name: "u", SI: 1, Unit: "\xfe"}},
+	}
+	for _, rs := range cases {
+		got, err := writeCanonical(nil, resultsArray(rs))
+		want, wantErr := generic(rs)
+		if !bytes.Equal(got, want) || fmt.Sprint(err) != fmt.Sprint(wantErr) {
+			t.Errorf("%v: wrote %s, %v; want %s, %v", rs, got, err, want, wantErr)
+		}
+	}
+}
