@@ -4,6 +4,7 @@ import (
 	"errors"
 	"os"
 	"path/filepath"
+	"sync"
 	"time"
 
 	"github.com/vouchcalc/vouch/calcdoc"
@@ -32,13 +33,31 @@ func Provenance(d *calcdoc.Doc, engine string) (*calcdoc.Stamp, error) {
 type Workspace struct {
 	repo  *provenance.Repo // nil outside a repository or before the first commit
 	head  string
-	clean bool
+	clean *cleanState
 	trust *trust // HEAD's signers and settings, read on first use
 }
 
-// OpenWorkspace opens the repository that holds dir (a folder or a file).
-// Outside a repository (or in one without commits) every stamp is
-// unversioned.
+// cleanState is whether the tracked work tree is clean: git status starts
+// when the workspace opens and runs while a stamp reads the calc, its data
+// files and its history; the first stamp to need the answer waits for it.
+// A workspace and its forks share one, from any goroutine.
+type cleanState struct {
+	once  sync.Once
+	wait  func() (bool, error)
+	clean bool
+	err   error
+}
+
+// get waits for git status once and returns its answer every time.
+func (c *cleanState) get() (bool, error) {
+	c.once.Do(func() { c.clean, c.err = c.wait() })
+	return c.clean, c.err
+}
+
+// OpenWorkspace opens the repository that holds dir (a folder or a file)
+// and starts asking git whether its tracked work tree is clean; a failure
+// of that question is the error of the first stamp. Outside a repository
+// (or in one without commits) every stamp is unversioned.
 func OpenWorkspace(dir string) (*Workspace, error) {
 	repo, err := provenance.Open(dir)
 	if errors.Is(err, provenance.ErrNotInRepo) {
@@ -54,15 +73,12 @@ func OpenWorkspace(dir string) (*Workspace, error) {
 	if err != nil {
 		return nil, err
 	}
-	clean, err := repo.Clean()
-	if err != nil {
-		return nil, err
-	}
-	return &Workspace{repo: repo, head: head, clean: clean}, nil
+	return &Workspace{repo: repo, head: head, clean: &cleanState{wait: repo.StartClean()}}, nil
 }
 
 // Fork returns a handle on the same repository, HEAD and clean state for
-// another goroutine.
+// another goroutine; the clean state, perhaps still being asked of git, is
+// shared.
 func (w *Workspace) Fork() (*Workspace, error) {
 	if w.repo == nil {
 		return &Workspace{}, nil
@@ -106,7 +122,6 @@ func (w *Workspace) stamp(d *calcdoc.Doc, engine string) (*calcdoc.Stamp, error)
 	m := st.Manifest
 	m.Source, m.Commit = rel, w.head
 	st.Committed = committed == m.SourceHash
-	m.Clean = w.clean && st.Committed && dataClean
 	if err := addHistory(w.repo, st); err != nil {
 		return nil, err
 	}
@@ -116,6 +131,11 @@ func (w *Workspace) stamp(d *calcdoc.Doc, engine string) (*calcdoc.Stamp, error)
 		}
 	}
 	w.trust.record(m)
+	clean, err := w.clean.get() // git status has run beside the reads above
+	if err != nil {
+		return nil, err
+	}
+	m.Clean = clean && st.Committed && dataClean
 	check(d, st, w.trust)
 	return st, nil
 }

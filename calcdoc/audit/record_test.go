@@ -6,8 +6,11 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+	"sync"
+	"sync/atomic"
 	"testing"
 
+	"github.com/vouchcalc/vouch/calcdoc"
 	"github.com/vouchcalc/vouch/calcdoc/provenance"
 	"github.com/vouchcalc/vouch/internal/testkit"
 )
@@ -150,5 +153,79 @@ func TestRecordDataFiles(t *testing.T) {
 	renderFile(t, r.Path("calcs/cw.calc.md"))
 	if m, _ := ManifestOf(r.Read("calcs/cw.html")); m.Clean {
 		t.Error("a modified data file left the manifest clean")
+	}
+}
+
+// TestWorkspaceCleanShared: git status starts when the workspace opens;
+// the workspace and its forks, on their own goroutines, all wait for the
+// one answer, a dirty tracked file included.
+func TestWorkspaceCleanShared(t *testing.T) {
+	for _, dirty := range []bool{false, true} {
+		r := calcRepo(t)
+		r.Write("README.md", "Test plant calcs (fictional).\n")
+		r.Commit("readme")
+		if dirty {
+			r.Write("README.md", "changed\n")
+		}
+		w, err := OpenWorkspace(r.Path("calcs"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		spaces := []*Workspace{w}
+		for i := 0; i < 3; i++ {
+			f, err := w.Fork()
+			if err != nil {
+				t.Fatal(err)
+			}
+			spaces = append(spaces, f)
+		}
+		clean := make([]bool, len(spaces))
+		errs := make([]error, len(spaces))
+		var wg sync.WaitGroup
+		for i, s := range spaces {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				d, err := calcdoc.ReadFile(r.Path("calcs/fp.calc.md"))
+				if err != nil {
+					errs[i] = err
+					return
+				}
+				st, err := s.Stamp(d, "test")
+				if err != nil {
+					errs[i] = err
+					return
+				}
+				clean[i] = st.Manifest.Clean
+			}()
+		}
+		wg.Wait()
+		for i := range spaces {
+			if errs[i] != nil || clean[i] == dirty {
+				t.Errorf("dirty %v, workspace %d: clean %v, %v", dirty, i, clean[i], errs[i])
+			}
+		}
+	}
+}
+
+// TestCleanStateWaitsOnce: however many goroutines ask, git status is
+// waited for once and its answer, error included, given to each.
+func TestCleanStateWaitsOnce(t *testing.T) {
+	var calls atomic.Int32
+	fail := errors.New("status failed")
+	c := &cleanState{wait: func() (bool, error) { calls.Add(1); return true, fail }}
+	var wg sync.WaitGroup
+	for i := 0; i < 8; i++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			if clean, err := c.get(); !clean || err != fail {
+				t.Errorf("get = %v, %v", clean, err)
+			}
+		}()
+	}
+	wg.Wait()
+	if n := calls.Load(); n != 1 {
+		t.Errorf("waited %d times, want 1", n)
 	}
 }
