@@ -186,27 +186,18 @@ func (c *scope) binary(v *ast.BinaryNode) (any, *Error) {
 }
 
 func (c *scope) arith(v *ast.BinaryNode, a, b units.Quantity) (any, *Error) {
-	var q units.Quantity
-	var err error
 	switch v.Operator {
-	case "+":
-		q, err = units.Add(a, b)
-	case "-":
-		q, err = units.Sub(a, b)
-	case "*":
-		q, err = units.Mul(a, b)
+	case "<", "<=", ">", ">=", "==", "!=":
+		return c.compare(v, a, b)
+	case "+", "-", "*", "^", "**":
 	case "/":
 		if b.V == 0 {
 			return nil, c.errAt(v, "division by zero: %s is 0", v.Right.String())
 		}
-		q, err = units.Div(a, b)
-	case "^", "**":
-		q, err = units.Pow(a, b)
-	case "<", "<=", ">", ">=", "==", "!=":
-		return c.compare(v, a, b)
 	default:
 		return nil, c.errAt(v, "operator %s is not supported in a calc", v.Operator)
 	}
+	q, err := arithStep(v.Operator, a, b)
 	if err != nil {
 		return nil, c.errAt(v, "%s", err.Error())
 	}
@@ -214,6 +205,24 @@ func (c *scope) arith(v *ast.BinaryNode, a, b units.Quantity) (any, *Error) {
 		return nil, c.errAt(v, "the result of %s is not a finite number", strings.TrimSpace(c.text(v)))
 	}
 	return q, nil
+}
+
+// arithStep applies an arithmetic operator (+ - * / ^ **) to two
+// quantities with the unit rules; the general and the quick evaluator share
+// it, so both give the same value and the same unit error.
+func arithStep(op string, a, b units.Quantity) (units.Quantity, error) {
+	switch op {
+	case "+":
+		return units.Add(a, b)
+	case "-":
+		return units.Sub(a, b)
+	case "*":
+		return units.Mul(a, b)
+	case "/":
+		return units.Div(a, b)
+	default: // "^", "**"
+		return units.Pow(a, b)
+	}
 }
 
 // text returns the source text of a node as written (literals included).

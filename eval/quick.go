@@ -93,23 +93,10 @@ func (c *scope) quickArith(v *ast.BinaryNode) (units.Quantity, bool) {
 	if !ok {
 		return b, false
 	}
-	var q units.Quantity
-	var err error
-	switch v.Operator {
-	case "+":
-		q, err = units.Add(a, b)
-	case "-":
-		q, err = units.Sub(a, b)
-	case "*":
-		q, err = units.Mul(a, b)
-	case "/":
-		if b.V == 0 {
-			return q, false
-		}
-		q, err = units.Div(a, b)
-	default: // "^", "**"
-		q, err = units.Pow(a, b)
+	if v.Operator == "/" && b.V == 0 {
+		return units.Quantity{}, false // the general path reports it at its node
 	}
+	q, err := arithStep(v.Operator, a, b)
 	if err != nil || math.IsNaN(q.V) || math.IsInf(q.V, 0) {
 		return q, false
 	}

@@ -167,6 +167,16 @@ func cutKeyword(s, kw string) (string, string, bool) {
 
 // splitComment splits a line at the first // outside a string literal.
 func splitComment(text string) (code, desc string) {
+	i, w := indexOutsideStrings(text, "//")
+	if i < 0 {
+		return text, ""
+	}
+	return text[:i], strings.TrimSpace(text[i+w:])
+}
+
+// indexOutsideStrings returns the offset and length of the first of the
+// marks that text holds outside a quoted string literal, or -1, 0.
+func indexOutsideStrings(text string, marks ...string) (at, width int) {
 	var quote byte
 	for i := 0; i < len(text); i++ {
 		c := text[i]
@@ -177,11 +187,15 @@ func splitComment(text string) (code, desc string) {
 			quote = 0
 		case quote == 0 && (c == '"' || c == '\''):
 			quote = c
-		case quote == 0 && c == '/' && i+1 < len(text) && text[i+1] == '/':
-			return text[:i], strings.TrimSpace(text[i+2:])
+		case quote == 0:
+			for _, m := range marks {
+				if strings.HasPrefix(text[i:], m) {
+					return i, len(m)
+				}
+			}
 		}
 	}
-	return text, ""
+	return -1, 0
 }
 
 // splitSource moves a "| SOURCE" at the end of the description into

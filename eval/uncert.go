@@ -57,23 +57,11 @@ func (s *Stmt) Corr() (a, b string, aOff, bOff int, r float64) {
 // cutUncertainty finds a ± or +/- outside strings in an expression and
 // returns the expression before it and the offset of the sign within expr.
 func cutUncertainty(expr string) (before string, at, width int) {
-	var quote byte
-	for i := 0; i < len(expr); i++ {
-		c := expr[i]
-		switch {
-		case quote != 0 && c == '\\':
-			i++
-		case quote != 0 && c == quote:
-			quote = 0
-		case quote == 0 && (c == '"' || c == '\''):
-			quote = c
-		case quote == 0 && strings.HasPrefix(expr[i:], "±"):
-			return expr[:i], i, len("±")
-		case quote == 0 && strings.HasPrefix(expr[i:], "+/-"):
-			return expr[:i], i, 3
-		}
+	at, width = indexOutsideStrings(expr, "±", "+/-")
+	if at < 0 {
+		return expr, -1, 0
 	}
-	return expr, -1, 0
+	return expr[:at], at, width
 }
 
 // splitUncertainty takes the ± part off a definition's expression, keeping

@@ -16,12 +16,7 @@ import (
 func needTools(t *testing.T, names ...string) {
 	t.Helper()
 	for _, name := range names {
-		if _, err := exec.LookPath(name); err != nil {
-			if os.Getenv("CI") != "" {
-				t.Fatalf("%s is required when CI is set: %v", name, err)
-			}
-			t.Skipf("%s not found: %v", name, err)
-		}
+		testkit.NeedTool(t, name)
 	}
 }
 
